@@ -1,0 +1,37 @@
+// The demo farm: Tamarack Ridge Farm, a fictional dryland grain farm (all names and data invented).
+import bcrypt from 'bcryptjs';
+import type { Knex } from 'knex';
+import accounts from './demo-accounts.json';
+
+export const DEMO_FARM_NAME = 'Tamarack Ridge Farm';
+
+export interface DemoAccount {
+  role: 'owner' | 'operator' | 'viewer';
+  name: string;
+  email: string;
+  password: string;
+}
+
+export const demoAccounts = accounts as DemoAccount[];
+
+/** Loads the demo farm unless it is there already; with `reset`, replaces it. Returns the farm id. */
+export async function seed(knex: Knex, options: { reset?: boolean } = {}): Promise<number> {
+  return knex.transaction(async (tx) => {
+    const existing = await tx('farms').where({ name: DEMO_FARM_NAME }).first('id');
+    if (existing && !options.reset) return existing.id as number;
+    if (existing) {
+      await tx('farms').where({ id: existing.id }).delete();
+      await tx('users').whereIn('email', demoAccounts.map((a) => a.email)).delete();
+    }
+    const [farm] = await tx('farms').insert({ name: DEMO_FARM_NAME, units: 'us', day_hours_limit: 12 }).returning('id');
+    for (const a of demoAccounts) {
+      const [user] = await tx('users')
+        .insert({ email: a.email, name: a.name, password_hash: await bcrypt.hash(a.password, 10) })
+        .onConflict('email')
+        .merge()
+        .returning('id');
+      await tx('memberships').insert({ farm_id: farm.id, user_id: user.id, role: a.role, status: 'active', invited_at: tx.fn.now(), joined_at: tx.fn.now() });
+    }
+    return farm.id as number;
+  });
+}

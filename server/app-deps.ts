@@ -1,0 +1,11 @@
+import type { Config } from './config';
+import type { Db } from './db/knex';
+
+/** What the app needs from outside; tests build the same thing against the test database. */
+export interface AppDeps {
+  config: Config;
+  db: Db;
+  /** Wakes the mail worker after a commit that queued e-mail. */
+  nudgeMail: () => void;
+  log?: (err: unknown) => void;
+}

@@ -1,0 +1,80 @@
+import fs from 'node:fs';
+import path from 'node:path';
+import cookieParser from 'cookie-parser';
+import express, { type Express } from 'express';
+import session from 'express-session';
+import type { AppDeps } from './app-deps';
+import { authRoutes } from './auth/auth.routes';
+import { createPassport } from './auth/passport';
+import { healthRoutes } from './health/health.routes';
+import { csrfProtection } from './http/csrf';
+import { AppError, apiNotFound, errorHandler } from './http/errors';
+import { Routes, type RouteEntry } from './http/routes';
+import { nonceOf, securityHeaders } from './http/security';
+import { memberRoutes } from './members/members.routes';
+
+export interface CreateAppOptions extends AppDeps {
+  sessionStore: session.Store;
+  /** The built Angular app; defaults to dist/furlong/browser. */
+  staticDir?: string;
+}
+
+/** Builds the Express app (API + the built Angular app). Never listens: index.ts does. */
+export function createApp(deps: CreateAppOptions): Express {
+  const { config } = deps;
+  const log = deps.log ?? ((err: unknown) => console.error(err));
+  const app = express();
+  const routes: RouteEntry[] = [];
+  app.locals.routes = routes;
+  app.disable('x-powered-by');
+  if (config.trustProxy) app.set('trust proxy', 1);
+  app.use(securityHeaders(config.secureCookies));
+
+  const api = express.Router();
+  api.use(express.json({ limit: '1mb' }));
+  api.use(cookieParser());
+  api.use(
+    session({
+      name: 'furlong.sid',
+      secret: config.sessionSecret,
+      store: deps.sessionStore,
+      resave: false,
+      saveUninitialized: false,
+      rolling: true,
+      cookie: { httpOnly: true, sameSite: 'lax', secure: config.secureCookies, maxAge: 30 * 86_400_000, path: '/' },
+    }),
+  );
+  const passport = createPassport(deps);
+  api.use(passport.session());
+  api.use(csrfProtection(config.sessionSecret, config.secureCookies));
+
+  const mount = (prefix: string, build: (r: Routes) => void) => {
+    const r = new Routes(`/api${prefix}`, routes);
+    build(r);
+    api.use(prefix, r.router);
+  };
+  mount('', (r) => healthRoutes(r, deps));
+  mount('/auth', (r) => authRoutes(r, deps, passport));
+  mount('/members', (r) => memberRoutes(r, deps));
+  api.use(apiNotFound);
+  app.use('/api', api);
+
+  serveApp(app, deps.staticDir ?? path.resolve(__dirname, '..', 'dist', 'furlong', 'browser'));
+  app.use(errorHandler(log));
+  return app;
+}
+
+/** Serves the built app; every other path gets index.html with this request's CSP nonce. */
+function serveApp(app: Express, dir: string): void {
+  const indexFile = path.join(dir, 'index.html');
+  const index = fs.existsSync(indexFile) ? fs.readFileSync(indexFile, 'utf8') : null;
+  app.use(express.static(dir, { index: false, maxAge: '1h', setHeaders: noCacheForIndex }));
+  app.get('/{*splat}', (_req, res) => {
+    if (!index) throw new AppError(503, 'not_built', 'The app is not built yet: run npm start');
+    res.set('Cache-Control', 'no-cache').type('html').send(index.replaceAll('CSP_NONCE', nonceOf(res)));
+  });
+}
+
+function noCacheForIndex(res: express.Response, file: string): void {
+  if (file.endsWith('.html')) res.set('Cache-Control', 'no-cache');
+}

@@ -1,0 +1,47 @@
+import type { Tx } from '../db/knex';
+import type { DbAuthTokenRow, DbMembershipRow, DbUserRow } from '../db/rows';
+import type { SessionPrincipal } from '../http/session-user';
+
+export const findUserByEmail = (db: Tx, email: string) => db<DbUserRow>('users').where({ email: email.toLowerCase() }).first();
+export const findUserById = (db: Tx, id: number) => db<DbUserRow>('users').where({ id }).first();
+
+export async function createUser(db: Tx, u: { email: string; name: string; passwordHash: string | null }): Promise<DbUserRow> {
+  const [row] = await db<DbUserRow>('users')
+    .insert({ email: u.email.toLowerCase(), name: u.name, password_hash: u.passwordHash })
+    .returning('*');
+  return row;
+}
+
+export async function setPasswordHash(db: Tx, userId: number, hash: string, name?: string): Promise<void> {
+  await db('users').where({ id: userId }).update({ password_hash: hash, ...(name ? { name } : {}) });
+}
+
+/** The principal for a user acting in one membership, or undefined if it is not active. */
+export async function loadPrincipal(db: Tx, userId: number, membershipId: number): Promise<SessionPrincipal | undefined> {
+  const row = await db('memberships as m')
+    .join('users as u', 'u.id', 'm.user_id')
+    .join('farms as f', 'f.id', 'm.farm_id')
+    .where({ 'm.id': membershipId, 'm.user_id': userId, 'm.status': 'active' })
+    .first('u.id', 'u.email', 'u.name', 'm.id as membershipId', 'f.id as farmId', 'f.name as farmName', 'f.units', 'm.role');
+  return row as SessionPrincipal | undefined;
+}
+
+/** The membership a user signs in to: their oldest active one. */
+export const firstActiveMembership = (db: Tx, userId: number) =>
+  db<DbMembershipRow>('memberships').where({ user_id: userId, status: 'active' }).orderBy('id').first();
+
+export async function insertToken(db: Tx, t: { userId: number; farmId: number | null; kind: 'invite' | 'reset'; hash: string; expiresAt: Date }) {
+  await db<DbAuthTokenRow>('auth_tokens').insert({ user_id: t.userId, farm_id: t.farmId, kind: t.kind, token_hash: t.hash, expires_at: t.expiresAt });
+}
+
+export const findTokenForUpdate = (db: Tx, hash: string) => db<DbAuthTokenRow>('auth_tokens').where({ token_hash: hash }).forUpdate().first();
+export const findToken = (db: Tx, hash: string) => db<DbAuthTokenRow>('auth_tokens').where({ token_hash: hash }).first();
+
+export async function markTokenUsed(db: Tx, id: number): Promise<void> {
+  await db('auth_tokens').where({ id }).update({ used_at: db.fn.now() });
+}
+
+/** A new link makes older unused links of the same kind for that person void. */
+export async function voidOpenTokens(db: Tx, userId: number, kind: 'invite' | 'reset'): Promise<void> {
+  await db('auth_tokens').where({ user_id: userId, kind }).whereNull('used_at').update({ used_at: db.fn.now() });
+}

@@ -1,0 +1,43 @@
+import fs from 'node:fs';
+import path from 'node:path';
+import knex, { type Knex } from 'knex';
+import pg from 'pg';
+
+// DATE columns are calendar days: keep them as 'YYYY-MM-DD' strings, never shifted by a time zone.
+pg.types.setTypeParser(pg.types.builtins.DATE, (v) => v);
+// NUMERIC values (acres, hours) come back as numbers; they are well inside double precision.
+pg.types.setTypeParser(pg.types.builtins.NUMERIC, (v) => Number(v));
+pg.types.setTypeParser(pg.types.builtins.INT8, (v) => Number(v));
+
+export type Db = Knex;
+export type Tx = Knex | Knex.Transaction;
+
+const migrationsDir = path.resolve(__dirname, '..', '..', 'migrations');
+
+/**
+ * Lists migrations by file name without the extension, so the same history is valid whether
+ * they run from TypeScript (tsx) or from a compiled build.
+ */
+class FolderMigrations implements Knex.MigrationSource<string> {
+  async getMigrations(): Promise<string[]> {
+    return fs
+      .readdirSync(migrationsDir)
+      .filter((f) => /^\d{14}_[a-z0-9_]+\.(ts|js)$/.test(f))
+      .map((f) => f.replace(/\.(ts|js)$/, ''))
+      .sort();
+  }
+  getMigrationName(name: string): string {
+    return name;
+  }
+  async getMigration(name: string): Promise<Knex.Migration> {
+    const file = ['.ts', '.js'].map((ext) => path.join(migrationsDir, name + ext)).find((f) => fs.existsSync(f));
+    if (!file) throw new Error(`migration ${name} is missing`);
+    return (await import(file)) as Knex.Migration;
+  }
+}
+
+export const migrationConfig: Knex.MigratorConfig = { migrationSource: new FolderMigrations() };
+
+export function createDb(url: string, pool: Knex.PoolConfig = { min: 0, max: 10 }): Db {
+  return knex({ client: 'pg', connection: url, pool });
+}

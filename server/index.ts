@@ -1,0 +1,54 @@
+import path from 'node:path';
+import { createApp } from './app';
+import { loadConfig } from './config';
+import { createDb } from './db/knex';
+import { FakeMailServer } from './mail/fake-smtp';
+import { OutboxWorker } from './mail/outbox-worker';
+import { createTransport } from './mail/transport';
+import { createSessionStore } from './http/session';
+
+async function main(): Promise<void> {
+  const config = loadConfig();
+  const db = createDb(config.databaseUrl);
+  const sessions = createSessionStore(config.databaseUrl);
+
+  let fakeMail: FakeMailServer | null = null;
+  let mailPort = config.fakeSmtpPort;
+  if (!config.smtpUrl) {
+    fakeMail = new FakeMailServer(path.resolve(__dirname, '..', '.data', 'mail'));
+    mailPort = await fakeMail.start(config.fakeSmtpPort);
+    const seen = new Set<unknown>();
+    setInterval(() => {
+      for (const m of fakeMail!.messages) {
+        if (seen.has(m)) continue;
+        seen.add(m);
+        const links = m.text.match(/https?:\/\/\S+/g) ?? [];
+        console.log(`mail caught for ${m.to.join(', ')}: "${m.subject}" ${links.join(' ')}`);
+      }
+    }, 500).unref();
+  }
+  const worker = new OutboxWorker(db, createTransport(config.smtpUrl, mailPort), { from: config.mailFrom });
+  worker.start();
+
+  const app = createApp({ config, db, sessionStore: sessions.store, nudgeMail: () => worker.nudge() });
+  const server = app.listen(config.port, config.host, () => {
+    console.log(`Furlong API and app listening on http://${config.host}:${config.port}`);
+  });
+
+  const shutdown = async () => {
+    server.close();
+    server.closeAllConnections();
+    await worker.stop();
+    await fakeMail?.stop();
+    await sessions.close();
+    await db.destroy();
+    process.exit(0);
+  };
+  process.once('SIGTERM', () => void shutdown());
+  process.once('SIGINT', () => void shutdown());
+}
+
+main().catch((err: Error) => {
+  console.error(err.message);
+  process.exit(1);
+});

@@ -1,0 +1,286 @@
+import request from 'supertest';
+import { createApp } from '../../server/app';
+import { createSessionStore } from '../../server/http/session';
+import { makeFarm, type TestFarm } from '../support/farm-factory';
+import { Client, cookieValue, startTestApp, type TestApp } from '../support/test-app';
+
+const linkIn = (text: string, path: string): string => {
+  const m = text.match(new RegExp(`https?://\\S+${path}\\?token=([A-Za-z0-9_-]+)`));
+  if (!m) throw new Error(`no ${path} link in:\n${text}`);
+  return m[1];
+};
+
+describe('sign-in and sessions', () => {
+  let t: TestApp;
+  let farm: TestFarm;
+  beforeAll(async () => {
+    t = await startTestApp();
+    farm = await makeFarm(t.db, 'Auth');
+  });
+  afterAll(() => t.close());
+
+  it('when an owner signs in, then the answer names the user, the farm and the role', async () => {
+    const c = new Client(t.app);
+    const res = await c.signIn(farm.owner.email.toUpperCase(), farm.owner.password);
+    expect(res.body).toEqual({
+      user: { id: farm.owner.id, email: farm.owner.email, name: farm.owner.name },
+      farm: { id: farm.id, name: farm.name, units: 'us' },
+      role: 'owner',
+    });
+    const me = await c.get('/api/auth/me');
+    expect(me.status).toBe(200);
+    expect(me.body.role).toBe('owner');
+  });
+
+  it('when the password is wrong, then 401 with a message and no session', async () => {
+    const c = new Client(t.app);
+    await c.prime();
+    const res = await c.post('/api/auth/login', { email: farm.viewer.email, password: 'wrong-password' });
+    expect(res.status).toBe(401);
+    expect(res.body.error).toEqual({ code: 'bad_credentials', message: expect.stringMatching(/do not match/) });
+    expect((await c.get('/api/auth/me')).status).toBe(401);
+  });
+
+  it('when an unknown address signs in, then the answer is the same as for a wrong password', async () => {
+    const c = new Client(t.app);
+    await c.prime();
+    const res = await c.post('/api/auth/login', { email: 'nobody-here@furlong.test', password: 'whatever-it-is' });
+    expect(res.status).toBe(401);
+    expect(res.body.error.code).toBe('bad_credentials');
+  });
+
+  it('when someone signs out, then the session no longer works', async () => {
+    const c = new Client(t.app);
+    await c.signIn(farm.operator.email, farm.operator.password);
+    expect((await c.post('/api/auth/logout')).status).toBe(204);
+    expect((await c.get('/api/auth/me')).status).toBe(401);
+  });
+
+  it('when the session cookie is set, then it is HttpOnly, SameSite=Lax and not Secure over plain http', async () => {
+    const c = new Client(t.app);
+    const res = await c.signIn(farm.viewer.email, farm.viewer.password);
+    const sid = ([] as string[]).concat(res.headers['set-cookie'] ?? []).find((s) => s.startsWith('furlong.sid='));
+    expect(sid).toMatch(/HttpOnly/i);
+    expect(sid).toMatch(/SameSite=Lax/i);
+    expect(sid).not.toMatch(/Secure/i);
+  });
+
+  it('when served over https, then the session cookie is Secure', async () => {
+    const https = await startTestApp({ PUBLIC_URL: 'https://farm.example', TRUST_PROXY: '1' });
+    try {
+      // Over https the XSRF cookie is Secure too, so carry it by hand on this plain-http test client.
+      const first = await request(https.app).get('/api/health').set('X-Forwarded-Proto', 'https');
+      const xsrfCookie = ([] as string[]).concat(first.headers['set-cookie'] ?? []).find((s) => s.startsWith('XSRF-TOKEN='))!;
+      expect(xsrfCookie).toMatch(/; Secure/i);
+      const xsrf = cookieValue(xsrfCookie, 'XSRF-TOKEN')!;
+      const res = await request(https.app)
+        .post('/api/auth/login')
+        .set('X-Forwarded-Proto', 'https')
+        .set('Cookie', `XSRF-TOKEN=${encodeURIComponent(xsrf)}`)
+        .set('X-XSRF-TOKEN', xsrf)
+        .send({ email: farm.viewer.email, password: farm.viewer.password });
+      expect(res.status).toBe(200);
+      const sid = ([] as string[]).concat(res.headers['set-cookie'] ?? []).find((s) => s.startsWith('furlong.sid='));
+      expect(sid).toMatch(/; Secure/i);
+    } finally {
+      await https.close();
+    }
+  });
+
+  it('when a session id exists before sign-in, then sign-in issues a new one (no fixation)', async () => {
+    const c = new Client(t.app);
+    await c.signIn(farm.operator.email, farm.operator.password);
+    const before = await c.post('/api/auth/logout');
+    expect(before.status).toBe(204);
+    // Plant a session id from an earlier sign-in, then sign in again through it.
+    const first = await c.post('/api/auth/login', { email: farm.operator.email, password: farm.operator.password });
+    const planted = cookieValue(first.headers['set-cookie'], 'furlong.sid');
+    const again = await c.post('/api/auth/login', { email: farm.operator.email, password: farm.operator.password });
+    const issued = cookieValue(again.headers['set-cookie'], 'furlong.sid');
+    expect(planted).toBeDefined();
+    expect(issued).toBeDefined();
+    expect(issued).not.toEqual(planted);
+    const oldSid = decodeURIComponent(planted!).slice(2).split('.')[0];
+    expect(await t.db('session').where({ sid: oldSid }).first()).toBeUndefined();
+  });
+
+  it('when the server restarts, then a signed-in person stays signed in (sessions are in PostgreSQL)', async () => {
+    const c = new Client(t.app);
+    const login = await c.signIn(farm.owner.email, farm.owner.password);
+    const sid = cookieValue(login.headers['set-cookie'], 'furlong.sid');
+    const sessions = createSessionStore(t.config.databaseUrl, false);
+    try {
+      const restarted = createApp({ config: t.config, db: t.db, sessionStore: sessions.store, nudgeMail: () => undefined, log: () => undefined });
+      const res = await request(restarted).get('/api/auth/me').set('Cookie', `furlong.sid=${encodeURIComponent(sid!)}`);
+      expect(res.status).toBe(200);
+      expect(res.body.user.email).toBe(farm.owner.email);
+    } finally {
+      await sessions.close();
+    }
+  });
+
+  it('when a state-changing request lacks the XSRF header, then 403 and nothing happens', async () => {
+    const c = new Client(t.app);
+    await c.prime();
+    const res = await c.agent.post('/api/auth/login').send({ email: farm.owner.email, password: farm.owner.password });
+    expect(res.status).toBe(403);
+    expect(res.body.error.code).toBe('csrf');
+    const forged = await c.agent.post('/api/auth/login').set('X-XSRF-TOKEN', 'abc.def').send({ email: farm.owner.email, password: farm.owner.password });
+    expect(forged.status).toBe(403);
+  });
+
+  it('when an account has 5 failed sign-ins, then the next attempt is refused with 429 even with the right password', async () => {
+    const victim = await makeFarm(t.db, 'Limit');
+    const c = new Client(t.app);
+    await c.prime();
+    for (let i = 0; i < 5; i++) {
+      expect((await c.post('/api/auth/login', { email: victim.owner.email, password: `wrong-${i}` })).status).toBe(401);
+    }
+    const res = await c.post('/api/auth/login', { email: victim.owner.email, password: victim.owner.password });
+    expect(res.status).toBe(429);
+    expect(res.body.error.message).toMatch(/Too many failed sign-ins for this account/);
+    // Another account from the same address is still allowed (limit is per account).
+    expect((await c.post('/api/auth/login', { email: victim.viewer.email, password: victim.viewer.password })).status).toBe(200);
+  });
+
+  it('when one address fails 30 times across accounts, then it is refused with 429', async () => {
+    const attacker = await startTestApp();
+    try {
+      const c = new Client(attacker.app);
+      await c.prime();
+      for (let i = 0; i < 30; i++) await c.post('/api/auth/login', { email: `guess-${i}@furlong.test`, password: 'guess-guess' });
+      const res = await c.post('/api/auth/login', { email: farm.owner.email, password: farm.owner.password });
+      expect(res.status).toBe(429);
+      expect(res.body.error.message).toMatch(/from this address/);
+    } finally {
+      await attacker.close();
+    }
+  });
+});
+
+describe('security headers', () => {
+  let t: TestApp;
+  beforeAll(async () => {
+    t = await startTestApp();
+  });
+  afterAll(() => t.close());
+
+  it('when any page is served, then the CSP allows only the app itself', async () => {
+    const res = await new Client(t.app).get('/api/health');
+    const csp = res.headers['content-security-policy'];
+    expect(csp).toMatch(/default-src 'self'/);
+    expect(csp).toMatch(/script-src 'self'(;|$)/);
+    expect(csp).toMatch(/style-src 'self' 'nonce-[A-Za-z0-9+/=]+'/);
+    expect(csp).toMatch(/font-src 'self'/);
+    expect(csp).toMatch(/connect-src 'self'/);
+    expect(csp).toMatch(/frame-ancestors 'none'/);
+    expect(csp).not.toMatch(/https:|http:|\*/);
+    expect(res.headers['x-content-type-options']).toBe('nosniff');
+    expect(res.headers['x-powered-by']).toBeUndefined();
+  });
+
+  it('when the XSRF cookie is set, then the page script can read it (Angular sends it back)', async () => {
+    const res = await new Client(t.app).get('/api/health');
+    const x = ([] as string[]).concat(res.headers['set-cookie'] ?? []).find((s) => s.startsWith('XSRF-TOKEN='));
+    expect(x).toMatch(/SameSite=Lax/i);
+    expect(x).not.toMatch(/HttpOnly/i);
+  });
+});
+
+describe('invitations and password resets by e-mail', () => {
+  let t: TestApp;
+  let farm: TestFarm;
+  let owner: Client;
+  beforeAll(async () => {
+    t = await startTestApp();
+    farm = await makeFarm(t.db, 'Invite');
+    owner = new Client(t.app);
+    await owner.signIn(farm.owner.email, farm.owner.password);
+  });
+  afterAll(() => t.close());
+
+  it('when the owner invites someone, then the e-mailed link lets them set a password and sign in with the role given', async () => {
+    const res = await owner.post('/api/members/invite', { email: 'New.Hand@Furlong.test', name: 'New Hand', role: 'operator' });
+    expect(res.status).toBe(201);
+    expect(res.body).toMatchObject({ email: 'new.hand@furlong.test', role: 'operator', status: 'invited' });
+    await t.flushMail();
+    const mail = await t.mail.waitFor((m) => m.to.includes('new.hand@furlong.test'));
+    expect(mail.subject).toContain(farm.name);
+    expect(mail.html).toContain('accept-invitation?token=');
+    const token = linkIn(mail.text, '/accept-invitation');
+
+    const guest = new Client(t.app);
+    await guest.prime();
+    const info = await guest.get(`/api/auth/token/${token}`);
+    expect(info.body).toEqual({ kind: 'invite', email: 'new.hand@furlong.test', name: 'New Hand', farmName: farm.name });
+    const set = await guest.post('/api/auth/set-password', { token, password: 'a-fine-new-password', name: 'Newton Hand' });
+    expect(set.status).toBe(200);
+    expect(set.body).toMatchObject({ role: 'operator', user: { name: 'Newton Hand' }, farm: { id: farm.id } });
+
+    const again = new Client(t.app);
+    expect((await again.signIn('new.hand@furlong.test', 'a-fine-new-password')).body.role).toBe('operator');
+    // The link works once.
+    const reuse = await guest.post('/api/auth/set-password', { token, password: 'another-password-1' });
+    expect(reuse.status).toBe(410);
+    expect(reuse.body.error.code).toBe('token_used');
+  });
+
+  it('when an invitation link has expired, then it is refused and no password is set', async () => {
+    await owner.post('/api/members/invite', { email: 'late@furlong.test', name: 'Late Comer', role: 'viewer' });
+    await t.flushMail();
+    const mail = await t.mail.waitFor((m) => m.to.includes('late@furlong.test'));
+    const token = linkIn(mail.text, '/accept-invitation');
+    await t.db('auth_tokens').whereIn('user_id', t.db('users').select('id').where({ email: 'late@furlong.test' })).update({ expires_at: new Date(Date.now() - 1000) });
+    const guest = new Client(t.app);
+    await guest.prime();
+    const res = await guest.post('/api/auth/set-password', { token, password: 'a-fine-new-password' });
+    expect(res.status).toBe(410);
+    expect(res.body.error.code).toBe('token_expired');
+    const user = await t.db('users').where({ email: 'late@furlong.test' }).first();
+    expect(user.password_hash).toBeNull();
+  });
+
+  it('when someone asks for a reset, then the e-mailed link sets a new password and the old one stops working', async () => {
+    const guest = new Client(t.app);
+    await guest.prime();
+    const res = await guest.post('/api/auth/forgot', { email: farm.viewer.email });
+    expect(res.status).toBe(202);
+    await t.flushMail();
+    const mail = await t.mail.waitFor((m) => m.to.includes(farm.viewer.email));
+    const token = linkIn(mail.text, '/set-password');
+    const set = await guest.post('/api/auth/set-password', { token, password: 'brand-new-password' });
+    expect(set.status).toBe(200);
+    expect(set.body.role).toBe('viewer');
+    const old = new Client(t.app);
+    await old.prime();
+    expect((await old.post('/api/auth/login', { email: farm.viewer.email, password: farm.viewer.password })).status).toBe(401);
+    expect((await old.post('/api/auth/login', { email: farm.viewer.email, password: 'brand-new-password' })).status).toBe(200);
+  });
+
+  it('when a reset is asked for an unknown address, then the answer is the same and no mail is sent', async () => {
+    const guest = new Client(t.app);
+    await guest.prime();
+    const before = t.mail.messages.length;
+    const known = await guest.post('/api/auth/forgot', { email: farm.operator.email });
+    const unknown = await guest.post('/api/auth/forgot', { email: 'stranger@furlong.test' });
+    expect(unknown.status).toBe(known.status);
+    expect(unknown.body).toEqual(known.body);
+    await t.flushMail();
+    await t.mail.waitFor((m) => m.to.includes(farm.operator.email));
+    expect(t.mail.messages.slice(before).some((m) => m.to.includes('stranger@furlong.test'))).toBe(false);
+  });
+
+  it('when a second reset is asked, then the first link no longer works', async () => {
+    const guest = new Client(t.app);
+    await guest.prime();
+    await guest.post('/api/auth/forgot', { email: farm.owner.email });
+    await t.flushMail();
+    const first = linkIn((await t.mail.waitFor((m) => m.to.includes(farm.owner.email) && m.subject.includes('password'))).text, '/set-password');
+    const count = t.mail.to(farm.owner.email).length;
+    await guest.post('/api/auth/forgot', { email: farm.owner.email });
+    await t.flushMail();
+    await t.mail.waitFor(() => t.mail.to(farm.owner.email).length > count);
+    const res = await guest.post('/api/auth/set-password', { token: first, password: 'should-not-work' });
+    expect(res.status).toBe(410);
+  });
+});

@@ -1,0 +1,115 @@
+import type { Express } from 'express';
+import request from 'supertest';
+import { createApp } from '../../server/app';
+import { loadConfig, type Config } from '../../server/config';
+import { createDb, type Db } from '../../server/db/knex';
+import { createSessionStore, type SessionStore } from '../../server/http/session';
+import { FakeMailServer } from '../../server/mail/fake-smtp';
+import { OutboxWorker } from '../../server/mail/outbox-worker';
+import { createTransport } from '../../server/mail/transport';
+import { testDatabaseUrl } from './env';
+
+export interface TestApp {
+  app: Express;
+  db: Db;
+  config: Config;
+  mail: FakeMailServer;
+  worker: OutboxWorker;
+  sessions: SessionStore;
+  /** Sends every queued e-mail now. */
+  flushMail: () => Promise<number>;
+  close: () => Promise<void>;
+}
+
+export const TEST_SECRET = 'test-secret-test-secret-test-secret-0123456789';
+
+/** The real app on the test database, with an in-process fake mail server on a free port. */
+export async function startTestApp(overrides: Partial<NodeJS.ProcessEnv> = {}): Promise<TestApp> {
+  const mail = new FakeMailServer();
+  const port = await mail.start(0);
+  const config = loadConfig({
+    NODE_ENV: 'test',
+    DATABASE_URL: testDatabaseUrl(),
+    SESSION_SECRET: TEST_SECRET,
+    PUBLIC_URL: 'http://127.0.0.1:3999',
+    ...overrides,
+  });
+  const db = createDb(config.databaseUrl, { min: 0, max: 5 });
+  const sessions = createSessionStore(config.databaseUrl, false);
+  const worker = new OutboxWorker(db, createTransport(null, port), { from: config.mailFrom, baseDelayMs: 50, maxDelayMs: 200 });
+  const app = createApp({ config, db, sessionStore: sessions.store, nudgeMail: () => undefined, log: () => undefined });
+  return {
+    app,
+    db,
+    config,
+    mail,
+    worker,
+    sessions,
+    flushMail: () => worker.drain(),
+    close: async () => {
+      await worker.stop();
+      await mail.stop();
+      await sessions.close();
+      await db.destroy();
+    },
+  };
+}
+
+type Agent = ReturnType<typeof request.agent>;
+
+function cookieValue(setCookie: string[] | string | undefined, name: string): string | undefined {
+  const list = Array.isArray(setCookie) ? setCookie : setCookie ? [setCookie] : [];
+  for (const c of list) {
+    const [pair] = c.split(';');
+    const i = pair.indexOf('=');
+    if (pair.slice(0, i) === name) return decodeURIComponent(pair.slice(i + 1));
+  }
+  return undefined;
+}
+
+/** A browser-like client: keeps cookies and sends the XSRF header the way Angular does. */
+export class Client {
+  readonly agent: Agent;
+  xsrf = '';
+
+  constructor(readonly app: Express) {
+    this.agent = request.agent(app);
+  }
+
+  /** Fetches the XSRF cookie (any GET under /api sets it). */
+  async prime(): Promise<void> {
+    const res = await this.agent.get('/api/health');
+    this.xsrf = cookieValue(res.headers['set-cookie'], 'XSRF-TOKEN') ?? this.xsrf;
+  }
+
+  get(path: string) {
+    return this.agent.get(path);
+  }
+  post(path: string, body?: object | string) {
+    return this.agent.post(path).set('X-XSRF-TOKEN', this.xsrf).send(body as object);
+  }
+  patch(path: string, body?: object) {
+    return this.agent.patch(path).set('X-XSRF-TOKEN', this.xsrf).send(body);
+  }
+  put(path: string, body?: object) {
+    return this.agent.put(path).set('X-XSRF-TOKEN', this.xsrf).send(body);
+  }
+  delete(path: string) {
+    return this.agent.delete(path).set('X-XSRF-TOKEN', this.xsrf);
+  }
+
+  async signIn(email: string, password: string): Promise<request.Response> {
+    if (!this.xsrf) await this.prime();
+    const res = await this.post('/api/auth/login', { email, password });
+    if (res.status !== 200) throw new Error(`sign-in as ${email} failed: ${res.status} ${JSON.stringify(res.body)}`);
+    return res;
+  }
+}
+
+export async function signedIn(app: Express, email: string, password: string): Promise<Client> {
+  const c = new Client(app);
+  await c.signIn(email, password);
+  return c;
+}
+
+export { cookieValue };
