@@ -69,6 +69,7 @@ try {
   if (want('typecheck')) {
     check('type-check server and shared', 'node', ['node_modules/typescript/bin/tsc', '-p', 'tsconfig.server.json', '--noEmit']);
     check('type-check app', 'node', ['node_modules/typescript/bin/tsc', '-p', 'tsconfig.app.json', '--noEmit']);
+    check('type-check browser tests', 'node', ['node_modules/typescript/bin/tsc', '-p', 'tsconfig.e2e.json', '--noEmit']);
   }
   if (want('unit')) jest('unit', 'jest.unit.config.js');
   if (want('api')) jest('api', 'jest.api.config.js', ['--runInBand']);
@@ -81,7 +82,7 @@ try {
   log(err.message);
   failed++;
 } finally {
-  cluster.stop();
+  if (cluster.startedHere) cluster.stop();
 }
 
 process.stdout.write(`\n${lines.join('\n')}\n\nScreenshots and reports: artifacts/\n${passed} passed, ${failed} failed\n`);

@@ -11,6 +11,8 @@ import { csrfProtection } from './http/csrf';
 import { AppError, apiNotFound, errorHandler } from './http/errors';
 import { Routes, type RouteEntry } from './http/routes';
 import { nonceOf, securityHeaders } from './http/security';
+import { farmRoutes } from './farm/farm.routes';
+import { cropPlanRoutes, fieldRoutes } from './fields/fields.routes';
 import { memberRoutes } from './members/members.routes';
 
 export interface CreateAppOptions extends AppDeps {
@@ -56,6 +58,9 @@ export function createApp(deps: CreateAppOptions): Express {
   mount('', (r) => healthRoutes(r, deps));
   mount('/auth', (r) => authRoutes(r, deps, passport));
   mount('/members', (r) => memberRoutes(r, deps));
+  mount('/farm', (r) => farmRoutes(r, deps));
+  mount('/fields', (r) => fieldRoutes(r, deps));
+  mount('/crop-plans', (r) => cropPlanRoutes(r, deps));
   api.use(apiNotFound);
   app.use('/api', api);
 

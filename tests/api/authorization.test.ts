@@ -2,51 +2,11 @@
 // of another farm} → the expected status. A route without an entry here fails the test.
 import type { RouteEntry } from '../../server/http/routes';
 import { makeFarm, type TestFarm } from '../support/farm-factory';
+import { spareField } from './matrix/fields';
+import type { Ctx } from './matrix/types';
 import { Client, startTestApp, type TestApp } from '../support/test-app';
 
-type Who = 'anon' | 'owner' | 'operator' | 'viewer' | 'other';
-type Expect = Record<Who, number>;
-
-interface Ctx {
-  farm: TestFarm;
-  t: TestApp;
-  /** A fresh invited member of the farm, for routes that change or remove one. */
-  spareMember: () => Promise<number>;
-}
-
-interface Case {
-  path?: (c: Ctx) => string | Promise<string>;
-  body?: object;
-  /** Sign in a new session for this call (for routes that end the session). */
-  fresh?: boolean;
-  expect: Expect;
-}
-
-const all = (status: number): Expect => ({ anon: status, owner: status, operator: status, viewer: status, other: status });
-const ownerOnly = (ok: number, otherFarm = ok): Expect => ({ anon: 401, owner: ok, operator: 403, viewer: 403, other: otherFarm });
-const members = (ok: number): Expect => ({ anon: 401, owner: ok, operator: ok, viewer: ok, other: ok });
-
-export const MATRIX: Record<string, Case> = {
-  'GET /api/health': { expect: all(200) },
-  'GET /api/config': { expect: all(200) },
-  'GET /api/auth/me': { expect: members(200) },
-  'POST /api/auth/login': { body: {}, expect: all(400) },
-  'POST /api/auth/logout': { fresh: true, expect: all(204) },
-  'POST /api/auth/forgot': { body: { email: 'nobody@furlong.test' }, expect: all(202) },
-  'GET /api/auth/token/:token': { path: () => '/api/auth/token/' + 'x'.repeat(43), expect: all(404) },
-  'POST /api/auth/set-password': { body: { token: 'x'.repeat(43), password: 'long-enough-password' }, expect: all(404) },
-  'GET /api/members': { expect: ownerOnly(200) },
-  'POST /api/members/invite': { body: {}, expect: ownerOnly(400) },
-  'PATCH /api/members/:id': {
-    path: async (c) => `/api/members/${await c.spareMember()}`,
-    body: { role: 'viewer' },
-    expect: ownerOnly(200, 404),
-  },
-  'DELETE /api/members/:id': {
-    path: async (c) => `/api/members/${await c.spareMember()}`,
-    expect: ownerOnly(204, 404),
-  },
-};
+import { MATRIX, type Who } from './matrix';
 
 const keyOf = (r: RouteEntry) => `${r.method.toUpperCase()} ${r.path.replace(/\/$/, '')}`;
 
@@ -87,6 +47,7 @@ describe('authorization matrix', () => {
         const [m] = await t.db('memberships').insert({ farm_id: farm.id, user_id: u.id, role: 'operator', status: 'invited' }).returning('id');
         return m.id as number;
       },
+      spareField: () => spareField({ t, farm }),
     };
     const failures: string[] = [];
     for (const route of routes) {

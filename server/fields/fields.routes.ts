@@ -1,0 +1,118 @@
+import multer from 'multer';
+import { z } from 'zod';
+import { idParam } from '../../shared/schemas/common';
+import { cropPlanBody, fieldCreateBody, fieldPatchBody, hazardBody, hazardPatchBody, importQuery, importSelection, season } from '../../shared/schemas/fields';
+import type { AppDeps } from '../app-deps';
+import { AppError } from '../http/errors';
+import type { Routes } from '../http/routes';
+import { principal } from '../http/session-user';
+import { body, params, query } from '../http/validate';
+import * as fields from './fields.service';
+import { previewImport, saveImport } from './import/import.service';
+
+/** Largest boundary file accepted, bytes. */
+export const IMPORT_LIMIT_BYTES = 10 * 1024 * 1024;
+
+const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: IMPORT_LIMIT_BYTES, files: 1, fields: 10 } });
+const seasonQuery = z.object({ season: season.optional() });
+const hazardParams = idParam.extend({ hazardId: z.coerce.number().int().positive() });
+const cropParams = idParam.extend({ season });
+
+export function fieldRoutes(r: Routes, deps: AppDeps): void {
+  r.get('/', 'member', async (req, res) => {
+    res.json(await fields.listFields(deps, principal(req).farmId, query(req, seasonQuery).season));
+  });
+
+  r.get('/export.geojson', 'member', async (req, res) => {
+    const fc = await fields.exportGeoJson(deps, principal(req).farmId, query(req, seasonQuery).season);
+    res.set('Content-Disposition', 'attachment; filename="fields.geojson"').type('application/geo+json').send(JSON.stringify(fc));
+  });
+
+  r.post('/', ['owner'], async (req, res) => {
+    const input = body(req, fieldCreateBody);
+    const farmId = principal(req).farmId;
+    const id = await fields.createField(deps, farmId, input);
+    res.status(201).json(await fields.getField(deps, farmId, id));
+  });
+
+  r.post('/import', ['owner'], upload.single('file'), async (req, res) => {
+    const q = query(req, importQuery);
+    if (!req.file) throw new AppError(400, 'no_file', 'Choose a boundary file to upload');
+    const file = { name: req.file.originalname, data: req.file.buffer };
+    const farmId = principal(req).farmId;
+    if (q.dryRun === 'true') {
+      res.json(await previewImport(deps, farmId, file, q.nameAttribute));
+      return;
+    }
+    let selection: Array<{ index: number; name: string }> | undefined;
+    if (typeof req.body?.selection === 'string') {
+      let raw: unknown;
+      try {
+        raw = JSON.parse(req.body.selection);
+      } catch {
+        throw new AppError(400, 'invalid_input', 'The list of fields to save is not valid JSON');
+      }
+      const parsed = importSelection.safeParse(raw);
+      if (!parsed.success) throw new AppError(400, 'invalid_input', parsed.error.issues[0].message);
+      selection = parsed.data;
+    }
+    res.status(201).json(await saveImport(deps, farmId, file, q.nameAttribute, selection));
+  });
+
+  r.get('/:id', 'member', async (req, res) => {
+    res.json(await fields.getField(deps, principal(req).farmId, params(req, idParam).id, query(req, seasonQuery).season));
+  });
+
+  r.patch('/:id', ['owner'], async (req, res) => {
+    const { id } = params(req, idParam);
+    const farmId = principal(req).farmId;
+    await fields.updateField(deps, farmId, id, body(req, fieldPatchBody));
+    res.json(await fields.getField(deps, farmId, id));
+  });
+
+  r.delete('/:id', ['owner'], async (req, res) => {
+    await fields.deleteField(deps, principal(req).farmId, params(req, idParam).id);
+    res.status(204).end();
+  });
+
+  r.post('/:id/hazards', ['owner'], async (req, res) => {
+    const { id } = params(req, idParam);
+    res.status(201).json(await fields.addHazard(deps, principal(req).farmId, id, body(req, hazardBody)));
+  });
+
+  r.patch('/:id/hazards/:hazardId', ['owner'], async (req, res) => {
+    const p = params(req, hazardParams);
+    res.json(await fields.updateHazard(deps, principal(req).farmId, p.id, p.hazardId, body(req, hazardPatchBody)));
+  });
+
+  r.delete('/:id/hazards/:hazardId', ['owner'], async (req, res) => {
+    const p = params(req, hazardParams);
+    await fields.deleteHazard(deps, principal(req).farmId, p.id, p.hazardId);
+    res.status(204).end();
+  });
+
+  r.put('/:id/crops/:season', ['owner'], async (req, res) => {
+    const p = params(req, cropParams);
+    const b = body(req, cropPlanBody);
+    await fields.setCropPlan(deps, principal(req).farmId, p.id, p.season, b.crop, b.varietyNote ?? null);
+    res.json({ fieldId: p.id, season: p.season, crop: b.crop, varietyNote: b.varietyNote ?? null });
+  });
+
+  r.delete('/:id/crops/:season', ['owner'], async (req, res) => {
+    const p = params(req, cropParams);
+    await fields.clearCropPlan(deps, principal(req).farmId, p.id, p.season);
+    res.status(204).end();
+  });
+}
+
+export function cropPlanRoutes(r: Routes, deps: AppDeps): void {
+  const seasonParam = z.object({ season });
+  r.get('/:season', 'member', async (req, res) => {
+    res.json(await fields.listCropPlans(deps, principal(req).farmId, params(req, seasonParam).season));
+  });
+  r.post('/:season/copy', ['owner'], async (req, res) => {
+    const to = params(req, seasonParam).season;
+    const { from } = body(req, z.object({ from: season }));
+    res.json(await fields.copyCropPlans(deps, principal(req).farmId, from, to));
+  });
+}

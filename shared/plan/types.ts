@@ -1,0 +1,80 @@
+import type { FeatureCollection, LineString, MultiPolygon, Polygon } from 'geojson';
+import type { ImplementKind } from './implement-defaults';
+
+/** What to plan: one field, one implement, one way of working it. */
+export interface PlanInput {
+  /** Field boundary, GeoJSON lon/lat (RFC 7946), holes allowed. */
+  boundary: Polygon | MultiPolygon;
+  /** Field name for messages. */
+  fieldName?: string;
+  /** Hazards (Point / LineString / Polygon, Multi* ok); properties.clearanceM in metres, default 0. */
+  hazards?: FeatureCollection;
+  /** Implement working width, metres. */
+  widthM: number;
+  /** Laps around the edge before the passes; integer ≥ 0, default 2. */
+  headlandPasses?: number;
+  /** Degrees clockwise from true north, 0 ≤ h < 180, or 'auto' (fewest turns); default 'auto'. */
+  headingDeg?: number | 'auto';
+  /** Implement kind; gives default speed and field efficiency. */
+  implementKind?: ImplementKind;
+  /** Working speed, mph; default from the implement kind, else 5. */
+  speedMph?: number;
+  /** Field efficiency, 0 < e ≤ 1; default from the implement kind, else 0.75. */
+  efficiency?: number;
+  /** Seconds per end turn; default 20 (common practice, no published source). */
+  turnSeconds?: number;
+  /** 'gaps-ok' keeps even spacing and reports the strip left; 'full' adds a last pass. Default 'gaps-ok'. */
+  coverage?: 'gaps-ok' | 'full';
+}
+
+/** Properties of each pass segment in {@link PlanResult.passes}. */
+export interface PassProperties {
+  /** Pass number, 1-based from the left-hand edge looking along the heading. */
+  pass: number;
+  /** Segment number within the pass, 1-based along the heading. */
+  segment: number;
+  headingDeg: number;
+  lengthM: number;
+}
+
+/** A pass plan: numbers for people, geometries (lon/lat) for the map. */
+export interface PlanResult {
+  fieldAcres: number;
+  headlandAcres: number;
+  interiorAcres: number;
+  workRegionAcres: number;
+  workedAcres: number;
+  unworkedAcres: number;
+  overlapAcres: number;
+  headingDeg: number;
+  passCount: number;
+  segmentCount: number;
+  turns: number;
+  /** Σ pass segment lengths, m. */
+  passLengthM: number;
+  /** Σ headland lap lengths, m. */
+  headlandLengthM: number;
+  /** passLengthM + headlandLengthM, m. */
+  totalDistanceM: number;
+  /** Driving time at speed plus turns × turnSeconds (efficiency not applied), h. */
+  hours: number;
+  /** Field acres ÷ effective field capacity (AEN-73 rule), h; the rule-of-thumb twin of `hours`. */
+  capacityHours: number;
+  /** Effective field capacity: speed (mph) × width (ft) × efficiency / 8.25 (AEN-73). */
+  capacityAcresPerHour: number;
+  /** Effective field capacity: speed (km/h) × width (m) × efficiency / 10 (GRDC). */
+  capacityHaPerHour: number;
+  widthM: number;
+  speedMph: number;
+  efficiency: number;
+  turnSeconds: number;
+  headlandPasses: number;
+  coverage: 'gaps-ok' | 'full';
+  headland: Polygon | MultiPolygon | null;
+  workRegion: Polygon | MultiPolygon;
+  hazardZones: Polygon | MultiPolygon | null;
+  passes: FeatureCollection<LineString, PassProperties>;
+  unworked: FeatureCollection<Polygon | MultiPolygon>;
+  overlap: FeatureCollection<Polygon | MultiPolygon>;
+  warnings: string[];
+}

@@ -1,0 +1,113 @@
+/**
+ * Exact unit constants and converters used everywhere in Furlong.
+ *
+ * The foot is the international foot: 1 ft = 0.3048 m exactly. The US survey foot was deprecated
+ * from 2023-01-01 (NIST & NOAA/NGS, "Deprecation of the U.S. Survey Foot", 85 FR 62698, 2020).
+ */
+
+/** Metres in one international foot, exact (85 FR 62698). */
+export const FT_M = 0.3048;
+/** Square metres in one acre: 43,560 ft² × 0.3048² m²/ft², exact. */
+export const ACRE_M2 = 4046.856_422_4; // = 43,560 × 0.3048² exactly; written as a literal because the float product rounds up
+/** Metres in one statute mile: 5,280 ft, exact. */
+export const MILE_M = 1609.344; // = 5,280 × 0.3048
+/** Square metres in one hectare (SI Brochure). */
+export const HA_M2 = 10_000;
+/** Seconds in one hour. */
+export const HOUR_S = 3_600;
+
+/**
+ * Feet to metres.
+ * @param ft length in international feet
+ * @returns length in metres
+ * @example ftToM(60) // 18.288
+ */
+export const ftToM = (ft: number): number => ft * FT_M;
+
+/**
+ * Metres to feet.
+ * @param m length in metres
+ * @returns length in international feet
+ * @example mToFt(18.288) // 60
+ */
+export const mToFt = (m: number): number => m / FT_M;
+
+/**
+ * Square metres to acres.
+ * @param m2 area in square metres
+ * @returns area in acres
+ * @example m2ToAcres(4046.8564224) // 1
+ */
+export const m2ToAcres = (m2: number): number => m2 / ACRE_M2;
+
+/**
+ * Acres to square metres.
+ * @param acres area in acres
+ * @returns area in square metres
+ * @example acresToM2(640) // 2589988.110336
+ */
+export const acresToM2 = (acres: number): number => acres * ACRE_M2;
+
+/**
+ * Square metres to hectares.
+ * @param m2 area in square metres
+ * @returns area in hectares
+ * @example m2ToHa(25_000) // 2.5
+ */
+export const m2ToHa = (m2: number): number => m2 / HA_M2;
+
+/**
+ * Hectares to square metres.
+ * @param ha area in hectares
+ * @returns area in square metres
+ * @example haToM2(2.5) // 25000
+ */
+export const haToM2 = (ha: number): number => ha * HA_M2;
+
+/**
+ * Acres to hectares.
+ * @param acres area in acres
+ * @returns area in hectares
+ * @example acresToHa(1) // 0.40468564224
+ */
+export const acresToHa = (acres: number): number => (acres * ACRE_M2) / HA_M2;
+
+/**
+ * Miles per hour to metres per second.
+ * @param mph speed in statute miles per hour
+ * @returns speed in metres per second
+ * @example mphToMps(5) // 2.2352
+ */
+export const mphToMps = (mph: number): number => (mph * MILE_M) / HOUR_S;
+
+/**
+ * Metres per second to miles per hour.
+ * @param mps speed in metres per second
+ * @returns speed in statute miles per hour
+ * @example mpsToMph(2.2352) // 5
+ */
+export const mpsToMph = (mps: number): number => (mps * HOUR_S) / MILE_M;
+
+/**
+ * Kilometres per hour to metres per second.
+ * @param kmh speed in kilometres per hour
+ * @returns speed in metres per second
+ * @example kmhToMps(36) // 10
+ */
+export const kmhToMps = (kmh: number): number => kmh / 3.6;
+
+/**
+ * Miles per hour to kilometres per hour.
+ * @param mph speed in statute miles per hour
+ * @returns speed in kilometres per hour
+ * @example mphToKmh(5) // 8.04672
+ */
+export const mphToKmh = (mph: number): number => (mph * MILE_M) / 1000;
+
+/**
+ * Miles to metres.
+ * @param miles distance in statute miles
+ * @returns distance in metres
+ * @example milesToM(1) // 1609.344
+ */
+export const milesToM = (miles: number): number => miles * MILE_M;

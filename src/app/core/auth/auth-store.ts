@@ -1,0 +1,52 @@
+import { HttpClient } from '@angular/common/http';
+import { Injectable, computed, inject, signal } from '@angular/core';
+import type { Me, Role } from '@shared/schemas/auth';
+import { type Observable, catchError, firstValueFrom, map, of, tap } from 'rxjs';
+
+/**
+ * Who is signed in, for the whole app. The server decides what each role may do; this store only
+ * shapes the UI (navigation, greetings) around the answer of `GET /api/auth/me`.
+ */
+@Injectable({ providedIn: 'root' })
+export class AuthStore {
+  private readonly http = inject(HttpClient);
+  private readonly current = signal<Me | null>(null);
+
+  readonly me = this.current.asReadonly();
+  readonly signedIn = computed(() => this.current() !== null);
+  readonly role = computed<Role | null>(() => this.current()?.role ?? null);
+  readonly isOwner = computed(() => this.role() === 'owner');
+  readonly user = computed(() => this.current()?.user ?? null);
+  readonly farm = computed(() => this.current()?.farm ?? null);
+
+  /** Asks the server once at start-up who this browser belongs to; a 401 just means "nobody". */
+  load(): Promise<Me | null> {
+    return firstValueFrom(
+      this.http.get<Me>('/api/auth/me').pipe(
+        catchError(() => of(null)),
+        tap((me) => this.current.set(me)),
+      ),
+    );
+  }
+
+  login(email: string, password: string): Observable<Me> {
+    return this.http.post<Me>('/api/auth/login', { email, password }).pipe(tap((me) => this.current.set(me)));
+  }
+
+  /** Used by pages whose POST signs the person in (accepting an invitation, a password reset). */
+  signedInAs(me: Me): void {
+    this.current.set(me);
+  }
+
+  logout(): Observable<void> {
+    return this.http.post<void>('/api/auth/logout', {}).pipe(
+      catchError(() => of(undefined)),
+      tap(() => this.clear()),
+      map(() => undefined),
+    );
+  }
+
+  clear(): void {
+    this.current.set(null);
+  }
+}

@@ -1,0 +1,61 @@
+import { HttpErrorResponse, type HttpInterceptorFn } from '@angular/common/http';
+import { inject } from '@angular/core';
+import { Router } from '@angular/router';
+import { catchError, throwError } from 'rxjs';
+import { AuthStore } from '../auth/auth-store';
+import { ApiError, isApiErrorBody } from './api-error';
+
+export const OFFLINE_MESSAGE = 'Cannot reach Furlong — check the connection';
+
+/** Calls whose 401 is an answer ("not signed in", "wrong password"), not an expired session. */
+const SESSION_PROBES = /\/api\/auth\/(me|login)(?:[?#]|$)/;
+
+const FALLBACK_MESSAGES: Record<number, string> = {
+  400: 'Furlong could not accept that request.',
+  401: 'Your session has ended — sign in again.',
+  403: 'Your role does not allow that.',
+  404: 'That was not found.',
+  409: 'That conflicts with what is already saved.',
+  410: 'That link is no longer valid.',
+  413: 'That file is too large.',
+  422: 'Check the highlighted entries.',
+  429: 'Too many attempts — wait a minute and try again.',
+};
+
+/**
+ * Turns every HTTP failure into an ApiError carrying the server's message, so components never
+ * see raw responses; an expired session sends the person to sign-in and back afterwards.
+ */
+export const errorInterceptor: HttpInterceptorFn = (req, next) => {
+  const auth = inject(AuthStore);
+  const router = inject(Router);
+
+  return next(req).pipe(
+    catchError((failure: unknown) => {
+      if (!(failure instanceof HttpErrorResponse)) return throwError(() => failure);
+      const error = toApiError(failure);
+      if (failure.status === 401 && !SESSION_PROBES.test(req.url)) {
+        auth.clear();
+        const current = router.url;
+        const onSignIn = current.startsWith('/sign-in');
+        void router.navigate(['/sign-in'], {
+          queryParams: onSignIn || current === '/' ? {} : { next: current },
+        });
+      }
+      return throwError(() => error);
+    }),
+  );
+};
+
+export function toApiError(failure: HttpErrorResponse): ApiError {
+  if (failure.status === 0) return new ApiError(0, 'offline', OFFLINE_MESSAGE);
+  const body: unknown = failure.error;
+  if (isApiErrorBody(body)) {
+    const { code, message, fields } = body.error;
+    return new ApiError(failure.status, code, message, fields ?? {});
+  }
+  const fallback =
+    FALLBACK_MESSAGES[failure.status] ??
+    (failure.status >= 500 ? 'Furlong hit a problem on the server. Try again in a moment.' : 'Something went wrong. Try again.');
+  return new ApiError(failure.status, `http_${failure.status}`, fallback);
+}

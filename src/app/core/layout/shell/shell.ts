@@ -1,0 +1,49 @@
+import { BreakpointObserver } from '@angular/cdk/layout';
+import { Component, computed, inject, viewChild } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
+import { MatButtonModule } from '@angular/material/button';
+import { MatIconModule } from '@angular/material/icon';
+import { MatListModule } from '@angular/material/list';
+import { MatSidenav, MatSidenavModule } from '@angular/material/sidenav';
+import { MatToolbarModule } from '@angular/material/toolbar';
+import { Router, RouterLink, RouterLinkActive, RouterOutlet } from '@angular/router';
+import { map } from 'rxjs';
+import { AuthStore } from '../../auth/auth-store';
+import { navItemsFor } from '../nav-items';
+import { ThemeStore } from '../theme';
+
+/** Below this width the navigation slides over the page behind a menu button. */
+export const HANDSET_QUERY = '(max-width: 959.98px)';
+
+@Component({
+  selector: 'app-shell',
+  imports: [MatButtonModule, MatIconModule, MatListModule, MatSidenavModule, MatToolbarModule, RouterLink, RouterLinkActive, RouterOutlet],
+  templateUrl: './shell.html',
+  styleUrl: './shell.scss',
+})
+export class Shell {
+  private readonly auth = inject(AuthStore);
+  private readonly router = inject(Router);
+  protected readonly theme = inject(ThemeStore);
+  private readonly sidenav = viewChild.required(MatSidenav);
+
+  protected readonly handset = toSignal(
+    inject(BreakpointObserver)
+      .observe(HANDSET_QUERY)
+      .pipe(map((state) => state.matches)),
+    { initialValue: false },
+  );
+  protected readonly user = this.auth.user;
+  protected readonly farm = this.auth.farm;
+  protected readonly role = this.auth.role;
+  protected readonly navItems = computed(() => navItemsFor(this.auth.role()));
+  protected readonly themeLabel = computed(() => (this.theme.isDark() ? 'Switch to light theme' : 'Switch to dark theme'));
+
+  protected closeOnHandset(): void {
+    if (this.handset()) void this.sidenav().close();
+  }
+
+  protected signOut(): void {
+    this.auth.logout().subscribe(() => void this.router.navigateByUrl('/sign-in'));
+  }
+}

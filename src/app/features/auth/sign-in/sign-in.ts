@@ -1,0 +1,56 @@
+import { Component, inject, input, signal } from '@angular/core';
+import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
+import { Router, RouterLink } from '@angular/router';
+import { AuthStore } from '../../../core/auth/auth-store';
+import { ROLE_HOME, safeNext } from '../../../core/auth/role-home';
+import { AuthFrame } from '../../../shared/ui/auth-frame/auth-frame';
+import { applyServerErrors } from '../../../shared/forms/server-errors';
+
+@Component({
+  selector: 'app-sign-in',
+  imports: [AuthFrame, MatButtonModule, MatFormFieldModule, MatInputModule, ReactiveFormsModule, RouterLink],
+  templateUrl: './sign-in.html',
+  styleUrl: './sign-in.scss',
+})
+export class SignIn {
+  private readonly auth = inject(AuthStore);
+  private readonly router = inject(Router);
+
+  /** Where to go after signing in (`?next=`), if it is a path inside Furlong. */
+  readonly next = input<string>();
+
+  protected readonly form = new FormGroup({
+    email: new FormControl('', {
+      nonNullable: true,
+      // Kept light (no schema library) so the first page loads fast on a weak connection.
+      validators: [Validators.required, Validators.email],
+    }),
+    password: new FormControl('', { nonNullable: true, validators: [Validators.required] }),
+  });
+  protected readonly busy = signal(false);
+  protected readonly error = signal<string | null>(null);
+
+  protected submit(): void {
+    if (this.busy()) return;
+    if (this.form.invalid) {
+      this.form.markAllAsTouched();
+      return;
+    }
+    this.busy.set(true);
+    this.error.set(null);
+    const { email, password } = this.form.getRawValue();
+    this.auth.login(email.trim(), password).subscribe({
+      next: (me) => {
+        this.busy.set(false);
+        void this.router.navigateByUrl(safeNext(this.next()) ?? ROLE_HOME[me.role]);
+      },
+      error: (err: unknown) => {
+        this.busy.set(false);
+        this.error.set(applyServerErrors(this.form, err));
+      },
+    });
+  }
+}

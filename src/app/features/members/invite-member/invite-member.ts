@@ -1,0 +1,66 @@
+import { Component, inject, output, signal } from '@angular/core';
+import { type FormGroupDirective, FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
+import { MatSelectModule } from '@angular/material/select';
+import type { Member, Role } from '@shared/schemas/auth';
+import { email } from '@shared/schemas/common';
+import { applyServerErrors } from '../../../shared/forms/server-errors';
+import { zodValidator } from '../../../shared/forms/zod-validator';
+import { MembersApi } from '../members-api';
+import { ROLE_OPTIONS } from '../role-labels';
+
+/** Invites a person by e-mail; the server mails them a link to /accept-invitation. */
+@Component({
+  selector: 'app-invite-member',
+  imports: [MatButtonModule, MatFormFieldModule, MatInputModule, MatSelectModule, ReactiveFormsModule],
+  templateUrl: './invite-member.html',
+  styleUrl: './invite-member.scss',
+})
+export class InviteMember {
+  private readonly api = inject(MembersApi);
+
+  readonly invited = output<Member>();
+
+  protected readonly roles = ROLE_OPTIONS;
+  protected readonly form = new FormGroup({
+    name: new FormControl('', {
+      nonNullable: true,
+      validators: [Validators.required, Validators.maxLength(120)],
+    }),
+    email: new FormControl('', {
+      nonNullable: true,
+      validators: [Validators.required, zodValidator(email)],
+    }),
+    role: new FormControl<Role>('operator', { nonNullable: true }),
+  });
+  protected readonly busy = signal(false);
+  protected readonly error = signal<string | null>(null);
+
+  protected hintFor(role: Role): string {
+    return this.roles.find((option) => option.value === role)?.hint ?? '';
+  }
+
+  protected submit(directive: FormGroupDirective): void {
+    if (this.busy()) return;
+    if (this.form.invalid) {
+      this.form.markAllAsTouched();
+      return;
+    }
+    this.busy.set(true);
+    this.error.set(null);
+    const { name, email: address, role } = this.form.getRawValue();
+    this.api.invite({ name: name.trim(), email: address.trim().toLowerCase(), role }).subscribe({
+      next: (member) => {
+        this.busy.set(false);
+        directive.resetForm({ name: '', email: '', role: 'operator' });
+        this.invited.emit(member);
+      },
+      error: (err: unknown) => {
+        this.busy.set(false);
+        this.error.set(applyServerErrors(this.form, err));
+      },
+    });
+  }
+}

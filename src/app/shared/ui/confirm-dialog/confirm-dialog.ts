@@ -1,0 +1,21 @@
+import { Component, inject } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MAT_DIALOG_DATA, MatDialogModule } from '@angular/material/dialog';
+
+export interface ConfirmDialogData {
+  title: string;
+  message: string;
+  confirm: string;
+  cancel?: string;
+}
+
+/** A yes/no question; closes with `true` when confirmed. Open it through MatDialog. */
+@Component({
+  selector: 'app-confirm-dialog',
+  imports: [MatButtonModule, MatDialogModule],
+  templateUrl: './confirm-dialog.html',
+  styleUrl: './confirm-dialog.scss',
+})
+export class ConfirmDialog {
+  protected readonly data = inject<ConfirmDialogData>(MAT_DIALOG_DATA);
+}

@@ -1,0 +1,7 @@
+// Each feature keeps its rows of the authorization matrix in a file of its own here.
+import { fields } from './fields';
+import { foundation } from './foundation';
+import type { Case } from './types';
+
+export const MATRIX: Record<string, Case> = { ...foundation, ...fields };
+export type { Who } from './types';

@@ -1,0 +1,88 @@
+import type { Page } from 'playwright-core';
+import { demo, screenshot, seriousViolations, signIn, startRig, type BrowserRig } from '../support/browser';
+
+const navLabels = async (page: Page) =>
+  (await page.getByRole('navigation', { name: 'Main' }).getByRole('link').allInnerTexts()).map((t) => t.replace(/^\S+\s+/, '').trim());
+
+describe('the app shell in a real browser', () => {
+  let rig: BrowserRig;
+  beforeAll(async () => {
+    rig = await startRig();
+  });
+  afterAll(() => rig.close());
+
+  it('when the sign-in page opens, then it has no serious accessibility problems and its fonts come from the app', async () => {
+    const page = await rig.newPage();
+    const fonts: string[] = [];
+    page.on('response', (r) => {
+      if (/\.(woff2?|ttf)(\?|$)/.test(r.url()) && r.ok()) fonts.push(r.url());
+    });
+    await page.goto('/sign-in');
+    await page.getByRole('button', { name: 'Sign in' }).waitFor();
+    await page.evaluate(() => document.fonts.ready);
+    expect(await seriousViolations(page)).toEqual([]);
+    await screenshot(page, 'foundation-sign-in');
+    const loaded = await page.evaluate(() => [...document.fonts].filter((f) => f.status === 'loaded').map((f) => f.family));
+    expect(loaded.join(',')).toMatch(/Roboto/);
+    expect(fonts.length).toBeGreaterThan(0);
+    expect(fonts.every((u) => u.startsWith(rig.baseUrl))).toBe(true);
+  });
+
+  it('when a wrong password is typed, then a readable message shows, not JSON', async () => {
+    const page = await rig.newPage();
+    await page.goto('/sign-in');
+    await page.getByLabel('E-mail').fill(demo('owner').email);
+    await page.getByLabel('Password', { exact: true }).fill('not-the-password');
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    const alert = page.getByRole('alert');
+    await alert.waitFor();
+    expect(await alert.innerText()).toMatch(/do not match/);
+    expect(await alert.innerText()).not.toMatch(/[{}]/);
+  });
+
+  const expected: Array<[string, 'owner' | 'operator' | 'viewer', string[], string[]]> = [
+    ['owner', 'owner', ['Home', 'Members'], []],
+    ['operator', 'operator', ['Home'], ['Members']],
+    ['viewer', 'viewer', ['Home'], ['Members']],
+  ];
+
+  it.each(expected)('when the %s signs in, then the navigation shows what that role may use', async (_label, role, mustHave, mustNot) => {
+    const page = await rig.newPage();
+    await signIn(page, demo(role));
+    await page.getByRole('heading', { level: 1 }).waitFor();
+    const labels = await navLabels(page);
+    for (const l of mustHave) expect(labels).toContain(l);
+    for (const l of mustNot) expect(labels).not.toContain(l);
+    expect(await seriousViolations(page)).toEqual([]);
+    await screenshot(page, `foundation-shell-${role}`);
+    if (role !== 'owner') {
+      await page.goto('/members');
+      await page.waitForURL((u) => !u.pathname.startsWith('/members'));
+    }
+  });
+
+  it('when the owner opens Members and switches to the dark theme, then the table shows the crew and the choice is remembered', async () => {
+    const page = await rig.newPage();
+    await signIn(page, demo('owner'));
+    await page.goto('/members');
+    await page.getByRole('table').waitFor();
+    expect(await page.getByRole('table').innerText()).toContain(demo('operator').email);
+    await page.getByRole('button', { name: 'Switch to dark theme' }).click();
+    await page.reload();
+    await page.getByRole('button', { name: 'Switch to light theme' }).waitFor();
+    expect(await seriousViolations(page)).toEqual([]);
+    await screenshot(page, 'foundation-members-dark');
+  });
+
+  it('when a session ends on the server, then the next call returns the person to sign-in', async () => {
+    const page = await rig.newPage();
+    await signIn(page, demo('viewer'));
+    await rig.t.db('session').delete();
+    await page.reload();
+    await page.waitForURL(/\/sign-in/);
+  });
+
+  it('when every page above loaded, then no request left 127.0.0.1', () => {
+    expect(rig.outside).toEqual([]);
+  });
+});
