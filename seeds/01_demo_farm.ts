@@ -2,6 +2,7 @@
 import bcrypt from 'bcryptjs';
 import type { Knex } from 'knex';
 import accounts from './demo-accounts.json';
+import { DEMO_STEPS, type DemoContext } from './steps';
 
 export const DEMO_FARM_NAME = 'Tamarack Ridge Farm';
 
@@ -24,6 +25,7 @@ export async function seed(knex: Knex, options: { reset?: boolean } = {}): Promi
       await tx('users').whereIn('email', demoAccounts.map((a) => a.email)).delete();
     }
     const [farm] = await tx('farms').insert({ name: DEMO_FARM_NAME, units: 'us', day_hours_limit: 12 }).returning('id');
+    const ctx: DemoContext = { farmId: farm.id, users: {} };
     for (const a of demoAccounts) {
       const [user] = await tx('users')
         .insert({ email: a.email, name: a.name, password_hash: await bcrypt.hash(a.password, 10) })
@@ -31,7 +33,9 @@ export async function seed(knex: Knex, options: { reset?: boolean } = {}): Promi
         .merge()
         .returning('id');
       await tx('memberships').insert({ farm_id: farm.id, user_id: user.id, role: a.role, status: 'active', invited_at: tx.fn.now(), joined_at: tx.fn.now() });
+      ctx.users[a.email] = user.id;
     }
+    for (const step of DEMO_STEPS) await step(tx, ctx);
     return farm.id as number;
   });
 }

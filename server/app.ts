@@ -14,6 +14,7 @@ import { nonceOf, securityHeaders } from './http/security';
 import { farmRoutes } from './farm/farm.routes';
 import { cropPlanRoutes, fieldRoutes } from './fields/fields.routes';
 import { memberRoutes } from './members/members.routes';
+import { planRoutes } from './plans/plans.routes';
 
 export interface CreateAppOptions extends AppDeps {
   sessionStore: session.Store;
@@ -61,6 +62,7 @@ export function createApp(deps: CreateAppOptions): Express {
   mount('/farm', (r) => farmRoutes(r, deps));
   mount('/fields', (r) => fieldRoutes(r, deps));
   mount('/crop-plans', (r) => cropPlanRoutes(r, deps));
+  mount('/plans', (r) => planRoutes(r, deps));
   api.use(apiNotFound);
   app.use('/api', api);
 

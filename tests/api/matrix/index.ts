@@ -1,7 +1,8 @@
 // Each feature keeps its rows of the authorization matrix in a file of its own here.
 import { fields } from './fields';
 import { foundation } from './foundation';
+import { plans } from './plans';
 import type { Case } from './types';
 
-export const MATRIX: Record<string, Case> = { ...foundation, ...fields };
+export const MATRIX: Record<string, Case> = { ...foundation, ...fields, ...plans };
 export type { Who } from './types';

@@ -1,0 +1,172 @@
+// Pass plans: computed by the shared planner (the same code the browser runs), saved per field
+// and operation with the figures the board, the work orders and the season report read back.
+import type { FeatureCollection, LineString } from 'geojson';
+import { OPERATION_INFO, type Operation } from '../../shared/operations';
+import { planPasses } from '../../shared/plan/plan-passes';
+import type { PassProperties, PlanInput, PlanResult } from '../../shared/plan/types';
+import type { PlanSummary, SavedPlan } from '../../shared/schemas/plans';
+import type { planSettings } from '../../shared/schemas/plans';
+import type { z } from 'zod';
+import type { AppDeps } from '../app-deps';
+import { AppError, notFound } from '../http/errors';
+import { getField, hazardsOfField } from '../fields/fields.repository';
+import { hazardFeature } from '../fields/fields.service';
+
+type Settings = z.infer<typeof planSettings>;
+
+/** Runs the planner; its plain errors (width wider than the field, headland erases it…) become 422s. */
+export function computePlan(input: PlanInput): PlanResult {
+  try {
+    return planPasses(input);
+  } catch (err) {
+    throw new AppError(422, 'bad_plan', (err as Error).message);
+  }
+}
+
+export function summaryOf(r: PlanResult): PlanSummary {
+  // eslint-disable-next-line @typescript-eslint/no-unused-vars
+  const { headland, workRegion, hazardZones, passes, unworked, overlap, ...summary } = r;
+  return summary;
+}
+
+async function fieldInput(deps: AppDeps, farmId: number, fieldId: number) {
+  const field = await getField(deps.db, farmId, fieldId);
+  if (!field) throw notFound('That field');
+  const hazards = await hazardsOfField(deps.db, farmId, fieldId);
+  return { field, hazards: { type: 'FeatureCollection', features: hazards.map(hazardFeature) } as FeatureCollection };
+}
+
+function inputOf(s: Settings, operation: Operation | undefined): Omit<PlanInput, 'boundary'> {
+  return {
+    widthM: s.widthM,
+    headlandPasses: s.headlandPasses,
+    headingDeg: s.headingDeg,
+    speedMph: s.speedMph,
+    efficiency: s.efficiency,
+    turnSeconds: s.turnSeconds,
+    implementKind: s.implementKind,
+    coverage: s.coverage ?? (operation ? OPERATION_INFO[operation].coverage : undefined),
+  };
+}
+
+export async function preview(
+  deps: AppDeps,
+  farmId: number,
+  body: Settings & { fieldId?: number; boundary?: unknown; hazards?: unknown; operation?: Operation; fieldName?: string },
+): Promise<PlanResult> {
+  if (body.fieldId) {
+    const { field, hazards } = await fieldInput(deps, farmId, body.fieldId);
+    return computePlan({ ...inputOf(body, body.operation), boundary: field.boundary, hazards, fieldName: field.name });
+  }
+  if (!body.boundary) throw new AppError(400, 'invalid_input', 'Send a field id or a boundary to plan', { fieldId: 'Choose a field' });
+  return computePlan({
+    ...inputOf(body, body.operation),
+    boundary: body.boundary as PlanInput['boundary'],
+    hazards: body.hazards as FeatureCollection | undefined,
+    fieldName: body.fieldName,
+  });
+}
+
+interface DbPlanRow {
+  id: number;
+  field_id: number;
+  field_name: string;
+  operation: Operation;
+  implement_id: number | null;
+  width_m: number;
+  headland_passes: number;
+  heading_deg: number | null;
+  coverage: 'gaps-ok' | 'full';
+  speed_mph: number;
+  efficiency: number;
+  turn_seconds: number;
+  summary: PlanSummary;
+  updated_at: Date;
+}
+
+const toSaved = (r: DbPlanRow): SavedPlan => ({
+  id: r.id,
+  fieldId: r.field_id,
+  fieldName: r.field_name,
+  operation: r.operation,
+  implementId: r.implement_id,
+  widthM: r.width_m,
+  headlandPasses: r.headland_passes,
+  headingDeg: r.heading_deg,
+  coverage: r.coverage,
+  speedMph: r.speed_mph,
+  efficiency: r.efficiency,
+  turnSeconds: r.turn_seconds,
+  summary: r.summary,
+  updatedAt: r.updated_at.toISOString(),
+});
+
+const plans = (deps: AppDeps, farmId: number) =>
+  deps.db('pass_plans as p').join('fields as f', 'f.id', 'p.field_id').where('p.farm_id', farmId).select('p.*', 'f.name as field_name');
+
+export async function listPlans(deps: AppDeps, farmId: number, fieldId?: number): Promise<SavedPlan[]> {
+  const q = plans(deps, farmId).orderBy(['f.name', 'p.operation']);
+  if (fieldId) q.where('p.field_id', fieldId);
+  return ((await q) as DbPlanRow[]).map(toSaved);
+}
+
+export async function getPlan(deps: AppDeps, farmId: number, fieldId: number, operation: Operation): Promise<SavedPlan & { result: PlanResult }> {
+  const row = (await plans(deps, farmId).where({ 'p.field_id': fieldId, 'p.operation': operation }).first()) as DbPlanRow | undefined;
+  if (!row) throw notFound(`A saved ${OPERATION_INFO[operation].label.toLowerCase()} plan for that field`);
+  const saved = toSaved(row);
+  const { field, hazards } = await fieldInput(deps, farmId, fieldId);
+  const result = computePlan({
+    boundary: field.boundary,
+    hazards,
+    fieldName: field.name,
+    widthM: saved.widthM,
+    headlandPasses: saved.headlandPasses,
+    headingDeg: saved.headingDeg ?? saved.summary.headingDeg,
+    speedMph: saved.speedMph,
+    efficiency: saved.efficiency,
+    turnSeconds: saved.turnSeconds,
+    coverage: saved.coverage,
+  });
+  return { ...saved, result };
+}
+
+export async function savePlan(deps: AppDeps, farmId: number, userId: number, fieldId: number, operation: Operation, s: Settings): Promise<SavedPlan & { result: PlanResult }> {
+  const { field, hazards } = await fieldInput(deps, farmId, fieldId);
+  const result = computePlan({ ...inputOf(s, operation), boundary: field.boundary, hazards, fieldName: field.name });
+  if (s.implementId) {
+    const exists = await deps.db.schema.hasTable('implements');
+    const ok = exists && (await deps.db('implements').where({ id: s.implementId, farm_id: farmId }).first('id'));
+    if (!ok) throw new AppError(422, 'bad_implement', 'That implement is not in this farm’s fleet');
+  }
+  const row = {
+    farm_id: farmId,
+    field_id: fieldId,
+    operation,
+    implement_id: s.implementId ?? null,
+    width_m: result.widthM,
+    headland_passes: result.headlandPasses,
+    heading_deg: s.headingDeg === undefined || s.headingDeg === 'auto' ? null : s.headingDeg,
+    coverage: result.coverage,
+    speed_mph: result.speedMph,
+    efficiency: result.efficiency,
+    turn_seconds: result.turnSeconds,
+    summary: JSON.stringify(summaryOf(result)),
+    updated_by: userId,
+    updated_at: deps.db.fn.now(),
+  };
+  await deps.db('pass_plans').insert(row).onConflict(['field_id', 'operation']).merge();
+  return getPlan(deps, farmId, fieldId, operation);
+}
+
+export async function deletePlan(deps: AppDeps, farmId: number, fieldId: number, operation: Operation): Promise<void> {
+  const n = await deps.db('pass_plans').where({ farm_id: farmId, field_id: fieldId, operation }).delete();
+  if (!n) throw notFound('That pass plan');
+}
+
+/** The passes as GeoJSON LineStrings for a guidance display: pass number, segment, heading, length. */
+export function passesGeoJson(plan: SavedPlan & { result: PlanResult }): FeatureCollection<LineString, PassProperties & { field: string; operation: string }> {
+  return {
+    type: 'FeatureCollection',
+    features: plan.result.passes.features.map((f) => ({ ...f, properties: { ...f.properties, field: plan.fieldName, operation: plan.operation } })),
+  };
+}
