@@ -25,8 +25,15 @@ export async function parseShapefileZip(buffer: Buffer): Promise<FeatureCollecti
     throw bad('The zip file is damaged and cannot be opened');
   }
   const files = Object.keys(zip.files).filter((n) => !zip.files[n].dir && !n.startsWith('__MACOSX/'));
-  const shpName = files.find((n) => n.toLowerCase().endsWith('.shp'));
-  if (!shpName) throw bad('The zip holds no .shp file; a shapefile needs its .shp, .dbf and .prj files');
+  const layers = files.filter((n) => n.toLowerCase().endsWith('.shp'));
+  if (layers.length === 0) throw bad('The zip holds no .shp file; a shapefile needs its .shp, .dbf and .prj files');
+  const features: FeatureCollection['features'] = [];
+  for (const shpName of layers) features.push(...(await readLayer(zip, files, shpName)));
+  return { type: 'FeatureCollection', features };
+}
+
+/** One shapefile layer of the zip (name.shp with its name.dbf, name.prj and optional name.cpg). */
+async function readLayer(zip: JSZip, files: string[], shpName: string): Promise<FeatureCollection['features']> {
   const base = shpName.slice(0, -4);
   const sibling = (ext: string) => files.find((n) => n.toLowerCase() === `${base}.${ext}`.toLowerCase());
   const dbfName = sibling('dbf');
@@ -44,10 +51,7 @@ export async function parseShapefileZip(buffer: Buffer): Promise<FeatureCollecti
   try {
     const geoms = shp.parseShp(await zip.file(shpName)!.async('uint8array'), prj);
     const rows = shp.parseDbf(await zip.file(dbfName)!.async('uint8array'), cpg);
-    return {
-      type: 'FeatureCollection',
-      features: geoms.map((geometry, i) => ({ type: 'Feature', geometry, properties: rows[i] ?? {} })),
-    };
+    return geoms.map((geometry, i) => ({ type: 'Feature', geometry, properties: rows[i] ?? {} }));
   } catch (err) {
     throw bad(`The shapefile ${shpName} is damaged and cannot be read (${(err as Error).message})`);
   }
