@@ -1,0 +1,17 @@
+// `npm run bench`: every benchmark with its targets (speed and memory targets live here, never in
+// timed tests). Each bench prints a table and exits non-zero when a target is missed.
+import { spawnSync } from 'node:child_process';
+import { ensureNodeModules, log, root } from './lib/setup.mjs';
+
+const benches = [['pass plan', ['--import', 'tsx', 'scripts/bench-plan.ts']]];
+const only = process.argv.slice(2);
+
+ensureNodeModules();
+let failed = 0;
+for (const [name, args] of benches) {
+  if (only.length && !only.some((o) => name.includes(o))) continue;
+  log(`── bench: ${name}`);
+  const res = spawnSync('node', args, { cwd: root, stdio: 'inherit', env: process.env });
+  if (res.status !== 0) failed++;
+}
+process.exit(failed ? 1 : 0);
