@@ -15,6 +15,11 @@ import { farmRoutes } from './farm/farm.routes';
 import { cropPlanRoutes, fieldRoutes } from './fields/fields.routes';
 import { memberRoutes } from './members/members.routes';
 import { planRoutes } from './plans/plans.routes';
+import { assignmentRoutes, boardRoutes } from './board/board.routes';
+import { crewRoutes } from './crew/crew.routes';
+import { fleetRoutes } from './fleet/fleet.routes';
+import { jobLogRoutes, runSheetRoutes } from './run-sheet/run-sheet.routes';
+import { seasonRoutes } from './season/season.routes';
 
 export interface CreateAppOptions extends AppDeps {
   sessionStore: session.Store;
@@ -63,6 +68,13 @@ export function createApp(deps: CreateAppOptions): Express {
   mount('/fields', (r) => fieldRoutes(r, deps));
   mount('/crop-plans', (r) => cropPlanRoutes(r, deps));
   mount('/plans', (r) => planRoutes(r, deps));
+  mount('/fleet', (r) => fleetRoutes(r, deps));
+  mount('/crew', (r) => crewRoutes(r, deps));
+  mount('/board', (r) => boardRoutes(r, deps));
+  mount('/assignments', (r) => assignmentRoutes(r, deps));
+  mount('/assignments', (r) => jobLogRoutes(r, deps));
+  mount('/run-sheet', (r) => runSheetRoutes(r, deps));
+  mount('/season', (r) => seasonRoutes(r, deps));
   api.use(apiNotFound);
   app.use('/api', api);
 

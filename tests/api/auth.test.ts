@@ -200,11 +200,13 @@ describe('invitations and password resets by e-mail', () => {
   afterAll(() => t.close());
 
   it('when the owner invites someone, then the e-mailed link lets them set a password and sign in with the role given', async () => {
-    const res = await owner.post('/api/members/invite', { email: 'New.Hand@Furlong.test', name: 'New Hand', role: 'operator' });
+    const tag = Date.now().toString(36);
+    const address = `new.hand.${tag}@furlong.test`;
+    const res = await owner.post('/api/members/invite', { email: `New.Hand.${tag}@Furlong.test`, name: 'New Hand', role: 'operator' });
     expect(res.status).toBe(201);
-    expect(res.body).toMatchObject({ email: 'new.hand@furlong.test', role: 'operator', status: 'invited' });
+    expect(res.body).toMatchObject({ email: address, role: 'operator', status: 'invited' });
     await t.flushMail();
-    const mail = await t.mail.waitFor((m) => m.to.includes('new.hand@furlong.test'));
+    const mail = await t.mail.waitFor((m) => m.to.includes(address));
     expect(mail.subject).toContain(farm.name);
     expect(mail.html).toContain('accept-invitation?token=');
     const token = linkIn(mail.text, '/accept-invitation');
@@ -212,13 +214,13 @@ describe('invitations and password resets by e-mail', () => {
     const guest = new Client(t.app);
     await guest.prime();
     const info = await guest.get(`/api/auth/token/${token}`);
-    expect(info.body).toEqual({ kind: 'invite', email: 'new.hand@furlong.test', name: 'New Hand', farmName: farm.name });
+    expect(info.body).toEqual({ kind: 'invite', email: address, name: 'New Hand', farmName: farm.name });
     const set = await guest.post('/api/auth/set-password', { token, password: 'a-fine-new-password', name: 'Newton Hand' });
     expect(set.status).toBe(200);
     expect(set.body).toMatchObject({ role: 'operator', user: { name: 'Newton Hand' }, farm: { id: farm.id } });
 
     const again = new Client(t.app);
-    expect((await again.signIn('new.hand@furlong.test', 'a-fine-new-password')).body.role).toBe('operator');
+    expect((await again.signIn(address, 'a-fine-new-password')).body.role).toBe('operator');
     // The link works once.
     const reuse = await guest.post('/api/auth/set-password', { token, password: 'another-password-1' });
     expect(reuse.status).toBe(410);
@@ -226,17 +228,18 @@ describe('invitations and password resets by e-mail', () => {
   });
 
   it('when an invitation link has expired, then it is refused and no password is set', async () => {
-    await owner.post('/api/members/invite', { email: 'late@furlong.test', name: 'Late Comer', role: 'viewer' });
+    const late = `late.${Date.now().toString(36)}@furlong.test`;
+    await owner.post('/api/members/invite', { email: late, name: 'Late Comer', role: 'viewer' });
     await t.flushMail();
-    const mail = await t.mail.waitFor((m) => m.to.includes('late@furlong.test'));
+    const mail = await t.mail.waitFor((m) => m.to.includes(late));
     const token = linkIn(mail.text, '/accept-invitation');
-    await t.db('auth_tokens').whereIn('user_id', t.db('users').select('id').where({ email: 'late@furlong.test' })).update({ expires_at: new Date(Date.now() - 1000) });
+    await t.db('auth_tokens').whereIn('user_id', t.db('users').select('id').where({ email: late })).update({ expires_at: new Date(Date.now() - 1000) });
     const guest = new Client(t.app);
     await guest.prime();
     const res = await guest.post('/api/auth/set-password', { token, password: 'a-fine-new-password' });
     expect(res.status).toBe(410);
     expect(res.body.error.code).toBe('token_expired');
-    const user = await t.db('users').where({ email: 'late@furlong.test' }).first();
+    const user = await t.db('users').where({ email: late }).first();
     expect(user.password_hash).toBeNull();
   });
 

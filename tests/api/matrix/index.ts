@@ -1,8 +1,10 @@
 // Each feature keeps its rows of the authorization matrix in a file of its own here.
+import { board } from './board';
 import { fields } from './fields';
 import { foundation } from './foundation';
 import { plans } from './plans';
+import { season } from './season';
 import type { Case } from './types';
 
-export const MATRIX: Record<string, Case> = { ...foundation, ...fields, ...plans };
+export const MATRIX: Record<string, Case> = { ...foundation, ...fields, ...plans, ...board, ...season };
 export type { Who } from './types';

@@ -1,0 +1,146 @@
+import type { Knex } from 'knex';
+import type { Operation } from '../../shared/operations';
+import type { Tx } from '../db/knex';
+import type { AssignmentView, DbAssignmentRow, DbPassPlanRow } from './board.rows';
+
+export type AssignmentColumns = Partial<Omit<DbAssignmentRow, 'id' | 'farm_id' | 'created_at' | 'updated_at'>>;
+
+/** Assignments with their names and facts; `filter` narrows the rows (always scoped by farm). */
+export function assignmentViews(db: Tx, farmId: number, filter: (q: Knex.QueryBuilder) => void): Promise<AssignmentView[]> {
+  const q = db('assignments as a')
+    .join('fields as f', 'f.id', 'a.field_id')
+    .join('memberships as mo', 'mo.id', 'a.operator_id')
+    .join('users as uo', 'uo.id', 'mo.user_id')
+    .leftJoin('memberships as mm', 'mm.id', 'a.mentor_id')
+    .leftJoin('users as um', 'um.id', 'mm.user_id')
+    .join('machines as m', 'm.id', 'a.machine_id')
+    .join('implements as i', 'i.id', 'a.implement_id')
+    .where('a.farm_id', farmId)
+    .select(
+      'a.*',
+      'f.name as field_name',
+      'f.acres as field_acres',
+      'uo.name as operator_name',
+      'um.name as mentor_name',
+      'm.name as machine_name',
+      'm.kind as machine_kind',
+      'm.power_hp as machine_power_hp',
+      'm.engine_hours as machine_engine_hours',
+      'm.service_interval_hours as machine_service_interval_hours',
+      'm.hours_at_last_service as machine_hours_at_last_service',
+      'i.name as implement_name',
+      'i.kind as implement_kind',
+      'i.width_m as implement_width_m',
+      'i.operations as implement_operations',
+      'i.min_power_hp as implement_min_power_hp',
+      db.raw(
+        'coalesce((select array_agg(h.machine_id) from implement_hitches h where h.implement_id = a.implement_id), ?::int[]) as implement_machine_ids',
+        ['{}'],
+      ),
+      db.raw("(select count(*)::int from assignment_events e where e.assignment_id = a.id and e.type = 'problem') as problem_count"),
+    )
+    .orderBy([{ column: 'a.operator_id' }, { column: 'a.run_order' }, { column: 'a.id' }]);
+  filter(q);
+  return q;
+}
+
+export const viewsOfDay = (db: Tx, farmId: number, day: string) => assignmentViews(db, farmId, (q) => q.where('a.day', day));
+
+export const getAssignment = (db: Tx, farmId: number, id: number) =>
+  db<DbAssignmentRow>('assignments').where({ farm_id: farmId, id }).first();
+
+export const lockAssignment = (db: Tx, farmId: number, id: number) =>
+  db<DbAssignmentRow>('assignments').where({ farm_id: farmId, id }).forUpdate().first();
+
+export async function insertAssignment(db: Tx, farmId: number, cols: AssignmentColumns): Promise<number> {
+  const [row] = await db('assignments')
+    .insert({ ...cols, farm_id: farmId })
+    .returning('id');
+  return row.id;
+}
+
+export async function updateAssignment(db: Tx, id: number, cols: AssignmentColumns): Promise<void> {
+  await db('assignments')
+    .where({ id })
+    .update({ ...cols, updated_at: db.fn.now() });
+}
+
+export const deleteAssignment = (db: Tx, id: number) => db('assignments').where({ id }).delete();
+
+/** One operator's cards on a day, in running order. */
+export const columnOf = (db: Tx, farmId: number, day: string, operatorId: number): Promise<DbAssignmentRow[]> =>
+  db<DbAssignmentRow>('assignments')
+    .where({ farm_id: farmId, day, operator_id: operatorId })
+    .orderBy([{ column: 'run_order' }, { column: 'id' }]);
+
+export const cardsOfDay = (db: Tx, farmId: number, day: string): Promise<DbAssignmentRow[]> =>
+  db<DbAssignmentRow>('assignments').where({ farm_id: farmId, day });
+
+/** Renumbers a column 1..n in the given order. */
+export async function renumber(db: Tx, ids: number[]): Promise<void> {
+  for (const [i, id] of ids.entries())
+    await db('assignments')
+      .where({ id })
+      .update({ run_order: i + 1 });
+}
+
+/** Acres finished per field and operation in one season (calendar year), from finished jobs. */
+export async function acresDone(
+  db: Tx,
+  farmId: number,
+  season: number,
+  fieldIds: number[],
+): Promise<Array<{ field_id: number; operation: Operation; acres: number }>> {
+  if (!fieldIds.length) return [];
+  return db('assignments')
+    .where({ farm_id: farmId, state: 'finished' })
+    .whereIn('field_id', fieldIds)
+    .andWhere('day', '>=', `${season}-01-01`)
+    .andWhere('day', '<', `${season + 1}-01-01`)
+    .groupBy('field_id', 'operation')
+    .select('field_id', 'operation', db.raw('coalesce(sum(acres_done), 0)::float as acres'));
+}
+
+export const passPlansOf = (db: Tx, farmId: number, fieldIds: number[]): Promise<DbPassPlanRow[]> =>
+  fieldIds.length ? db<DbPassPlanRow>('pass_plans').where({ farm_id: farmId }).whereIn('field_id', fieldIds) : Promise.resolve([]);
+
+export interface PersonRow {
+  membership_id: number;
+  name: string;
+  email: string;
+  role: 'owner' | 'operator' | 'viewer';
+  status: 'invited' | 'active' | 'removed';
+}
+
+export const peopleOfFarm = (db: Tx, farmId: number): Promise<PersonRow[]> =>
+  db('memberships as m')
+    .join('users as u', 'u.id', 'm.user_id')
+    .where('m.farm_id', farmId)
+    .orderBy('u.name')
+    .select('m.id as membership_id', 'u.name', 'u.email', 'm.role', 'm.status');
+
+/** A member who may be given field work: active, owner or operator. */
+export const assignablePerson = (db: Tx, farmId: number, membershipId: number): Promise<PersonRow | undefined> =>
+  db('memberships as m')
+    .join('users as u', 'u.id', 'm.user_id')
+    .where({ 'm.farm_id': farmId, 'm.id': membershipId, 'm.status': 'active' })
+    .whereIn('m.role', ['owner', 'operator'])
+    .first('m.id as membership_id', 'u.name', 'u.email', 'm.role', 'm.status');
+
+/** Acres of a field finished for an operation in a season, leaving out one job if given. */
+export async function acresDoneOn(
+  db: Tx,
+  farmId: number,
+  fieldId: number,
+  operation: Operation,
+  season: number,
+  exceptId?: number,
+): Promise<number> {
+  const q = db('assignments')
+    .where({ farm_id: farmId, field_id: fieldId, operation, state: 'finished' })
+    .andWhere('day', '>=', `${season}-01-01`)
+    .andWhere('day', '<', `${season + 1}-01-01`);
+  if (exceptId) q.whereNot('id', exceptId);
+  const [row] = await q.select(db.raw('coalesce(sum(acres_done), 0)::float as acres'));
+  return row.acres;
+}

@@ -1,0 +1,144 @@
+// Everything one board day needs, read in a few queries, and the cards built from it. The board,
+// the run sheet and the work orders are all views of this one reading.
+import type { Operation } from '../../shared/operations';
+import type { BoardAssignment } from '../../shared/schemas/board';
+import type { SkillLevel } from '../../shared/schemas/fleet';
+import { skillsOfFarm } from '../crew/crew.repository';
+import type { Tx } from '../db/knex';
+import type { DbHazardRow } from '../fields/fields.repository';
+import { whyCannotPull } from '../fleet/can-pull';
+import { serviceDue } from '../fleet/service-due';
+import { acresDone, passPlansOf, peopleOfFarm, viewsOfDay, type PersonRow } from './assignments.repository';
+import { getDay } from './board-days.repository';
+import type { AssignmentView, DbBoardDayRow, DbPassPlanRow } from './board.rows';
+import { formatMinutes } from './clock';
+import type { ConflictCard, Skills } from './conflicts';
+import { planHours } from './plan-hours';
+import { schedule } from './schedule';
+
+export interface DayContext {
+  farmId: number;
+  day: string;
+  farm: { name: string; dayHoursLimit: number };
+  boardDay: DbBoardDayRow | undefined;
+  views: Map<number, AssignmentView>;
+  /** In running order per operator. */
+  cards: ConflictCard[];
+  passPlans: Map<string, DbPassPlanRow>;
+  hazards: DbHazardRow[];
+  skills: Skills;
+  people: PersonRow[];
+}
+
+export const planKey = (fieldId: number, operation: Operation) => `${fieldId}|${operation}`;
+const round2 = (n: number) => Math.round(n * 100) / 100;
+
+/** The season a day belongs to: its calendar year. */
+export const seasonOf = (day: string): number => Number(day.slice(0, 4));
+
+/** Field acres less what other jobs finished this season for that operation, ≥ 0. */
+export function acresToDo(v: Pick<AssignmentView, 'field_acres' | 'state' | 'acres_done'>, doneThisSeason: number): number {
+  const own = v.state === 'finished' ? (v.acres_done ?? 0) : 0;
+  return Math.max(0, round2(v.field_acres - (doneThisSeason - own)));
+}
+
+function toAssignment(v: AssignmentView, done: number, plan: DbPassPlanRow | undefined): BoardAssignment {
+  const hours = planHours(v.acres_planned, v.field_acres, { widthM: v.implement_width_m, kind: v.implement_kind }, plan?.summary?.hours);
+  return {
+    id: v.id,
+    date: v.day,
+    order: v.run_order,
+    state: v.state,
+    field: { id: v.field_id, name: v.field_name, acres: round2(v.field_acres) },
+    operation: v.operation,
+    operator: { membershipId: v.operator_id, name: v.operator_name },
+    machine: { id: v.machine_id, name: v.machine_name, kind: v.machine_kind },
+    implement: { id: v.implement_id, name: v.implement_name, kind: v.implement_kind, widthM: v.implement_width_m },
+    mentor: v.mentor_id ? { membershipId: v.mentor_id, name: v.mentor_name ?? '' } : null,
+    plannedStart: v.start_min == null ? null : formatMinutes(v.start_min),
+    plannedEnd: v.end_min == null ? null : formatMinutes(v.end_min),
+    startTime: '',
+    endTime: '',
+    acresPlanned: round2(v.acres_planned),
+    acresToDo: acresToDo(v, done),
+    planHours: hours.hours,
+    planSource: hours.source,
+    note: v.note,
+    problemCount: v.problem_count,
+    log: {
+      startedAt: v.started_at?.toISOString() ?? null,
+      finishedAt: v.finished_at?.toISOString() ?? null,
+      acresDone: v.acres_done,
+      hoursWorked: v.hours_worked,
+      engineHoursStart: v.engine_hours_start,
+      engineHoursEnd: v.engine_hours_end,
+      callOffReason: v.call_off_reason,
+    },
+  };
+}
+
+export async function loadDay(db: Tx, farmId: number, day: string): Promise<DayContext> {
+  // One query at a time: on a transaction they share one connection.
+  const farm = await db('farms').where({ id: farmId }).first('name', 'day_hours_limit');
+  const boardDay = await getDay(db, farmId, day);
+  const views = await viewsOfDay(db, farmId, day);
+  const skillRows = await skillsOfFarm(db, farmId);
+  const people = await peopleOfFarm(db, farmId);
+  const fieldIds = [...new Set(views.map((v) => v.field_id))];
+  const done = await acresDone(db, farmId, seasonOf(day), fieldIds);
+  const plans = await passPlansOf(db, farmId, fieldIds);
+  const hazards: DbHazardRow[] = fieldIds.length
+    ? await db<DbHazardRow>('hazards').where({ farm_id: farmId }).whereIn('field_id', fieldIds).orderBy('id')
+    : [];
+  const doneBy = new Map(done.map((d) => [planKey(d.field_id, d.operation), d.acres]));
+  const passPlans = new Map(plans.map((p) => [planKey(p.field_id, p.operation), p]));
+  const skills = new Map<number, Partial<Record<Operation, SkillLevel>>>();
+  for (const s of skillRows) skills.set(s.membership_id, { ...skills.get(s.membership_id), [s.operation]: s.level });
+
+  const assignments = views.map((v) =>
+    toAssignment(v, doneBy.get(planKey(v.field_id, v.operation)) ?? 0, passPlans.get(planKey(v.field_id, v.operation))),
+  );
+  const times = schedule(
+    assignments.map((a, i) => ({
+      id: a.id,
+      operatorId: a.operator.membershipId,
+      order: a.order,
+      startMin: views[i].start_min,
+      endMin: views[i].end_min,
+      planHours: a.planHours,
+    })),
+  );
+  const cards: ConflictCard[] = assignments.map((a, i) => {
+    const v = views[i];
+    const t = times.get(a.id)!;
+    a.startTime = formatMinutes(t.start);
+    a.endTime = formatMinutes(t.end);
+    return {
+      a,
+      start: t.start,
+      end: t.end,
+      implementOperations: v.implement_operations,
+      cannotPull: whyCannotPull(
+        { id: v.machine_id, name: v.machine_name, kind: v.machine_kind, powerHp: v.machine_power_hp },
+        { name: v.implement_name, machineIds: v.implement_machine_ids, minPowerHp: v.implement_min_power_hp },
+      ),
+      serviceDueInHours: serviceDue({
+        engine_hours: v.machine_engine_hours,
+        service_interval_hours: v.machine_service_interval_hours,
+        hours_at_last_service: v.machine_hours_at_last_service,
+      }).dueInHours,
+    };
+  });
+  return {
+    farmId,
+    day,
+    farm: { name: farm.name, dayHoursLimit: farm.day_hours_limit },
+    boardDay,
+    views: new Map(views.map((v) => [v.id, v])),
+    cards,
+    passPlans,
+    hazards,
+    skills,
+    people,
+  };
+}

@@ -1,0 +1,120 @@
+// What a person's work order says, as data: built from the board day, hashed to tell whether
+// it changed since it was last mailed, and rendered to text and HTML by work-order.message.ts.
+import { createHash } from 'node:crypto';
+import { DateTime } from 'luxon';
+import { OPERATION_INFO, type Operation } from '../../shared/operations';
+import { HAZARD_LABELS, type HazardKind } from '../../shared/schemas/fields';
+import { mToFt } from '../../shared/units';
+import type { DayContext } from './day-context';
+import { planKey } from './day-context';
+
+export interface OrderHazard {
+  label: string;
+  clearanceFt: number;
+  clearanceM: number;
+  note: string | null;
+  /** Reported by an operator, not yet confirmed by the owner. */
+  reported: boolean;
+}
+
+export interface OrderJob {
+  role: 'operator' | 'mentor';
+  field: string;
+  operation: string;
+  start: string;
+  end: string;
+  acresPlanned: number;
+  machine: string;
+  implement: string;
+  widthFt: number;
+  operator: string;
+  mentor: string | null;
+  hazards: OrderHazard[];
+  passPlan: { headingDeg: number | null; passCount: number | null; headlandPasses: number } | null;
+  note: string | null;
+}
+
+export interface OrderContent {
+  farm: string;
+  date: string;
+  dateLabel: string;
+  name: string;
+  jobs: OrderJob[];
+  cautions: Array<{ operation: string; lines: readonly string[] }>;
+  link: string;
+}
+
+const round1 = (n: number) => Math.round(n * 10) / 10;
+const num = (v: unknown): number | null => (typeof v === 'number' && Number.isFinite(v) ? v : null);
+
+export const dateLabel = (day: string): string => DateTime.fromISO(day).setLocale('en-US').toFormat('cccc, LLLL d, yyyy');
+
+/** The person's jobs that day (as operator or mentor), in time order; called-off jobs are left out. */
+export function orderContent(ctx: DayContext, person: { membershipId: number; name: string }, publicUrl: string): OrderContent {
+  const mine = ctx.cards
+    .filter(
+      (c) =>
+        c.a.state !== 'called-off' &&
+        (c.a.operator.membershipId === person.membershipId || c.a.mentor?.membershipId === person.membershipId),
+    )
+    .sort((x, y) => x.start - y.start || x.a.order - y.a.order || x.a.id - y.a.id);
+  const operations = new Set<Operation>();
+  const jobs = mine.map(({ a }): OrderJob => {
+    operations.add(a.operation);
+    const plan = ctx.passPlans.get(planKey(a.field.id, a.operation));
+    return {
+      role: a.operator.membershipId === person.membershipId ? 'operator' : 'mentor',
+      field: a.field.name,
+      operation: OPERATION_INFO[a.operation].label,
+      start: a.startTime,
+      end: a.endTime,
+      acresPlanned: a.acresPlanned,
+      machine: a.machine.name,
+      implement: a.implement.name,
+      widthFt: round1(mToFt(a.implement.widthM)),
+      operator: a.operator.name,
+      mentor: a.mentor?.name ?? null,
+      hazards: ctx.hazards
+        .filter((h) => h.field_id === a.field.id)
+        .map((h) => ({
+          label: HAZARD_LABELS[h.kind as HazardKind] ?? h.kind,
+          clearanceFt: Math.round(mToFt(h.clearance_m)),
+          clearanceM: round1(h.clearance_m),
+          note: h.note,
+          reported: h.status === 'reported',
+        })),
+      passPlan: plan
+        ? {
+            headingDeg: num(plan.summary.headingDeg) ?? plan.heading_deg,
+            passCount: num(plan.summary.passCount),
+            headlandPasses: plan.headland_passes,
+          }
+        : null,
+      note: a.note,
+    };
+  });
+  return {
+    farm: ctx.farm.name,
+    date: ctx.day,
+    dateLabel: dateLabel(ctx.day),
+    name: person.name,
+    jobs,
+    cautions: [...operations].map((op) => ({ operation: OPERATION_INFO[op].label, lines: OPERATION_INFO[op].cautions })),
+    link: `${publicUrl}/run-sheet?date=${ctx.day}`,
+  };
+}
+
+/** SHA-256 of the order's content: equal hashes mean the same order. */
+export const hashOrder = (content: OrderContent | { withdrawn: string }): string =>
+  createHash('sha256').update(JSON.stringify(content)).digest('hex');
+
+/** The people who get an order that day: everyone on a live job as operator or mentor. */
+export function peopleWithJobs(ctx: DayContext): Array<{ membershipId: number; name: string }> {
+  const out = new Map<number, string>();
+  for (const { a } of ctx.cards) {
+    if (a.state === 'called-off') continue;
+    out.set(a.operator.membershipId, a.operator.name);
+    if (a.mentor) out.set(a.mentor.membershipId, a.mentor.name);
+  }
+  return [...out].map(([membershipId, name]) => ({ membershipId, name }));
+}

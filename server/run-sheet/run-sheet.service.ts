@@ -1,0 +1,84 @@
+// An operator's own day: each job they run or mentor, in time order, with the field's map and
+// hazards, the saved pass plan, the machine and implement, the cautions and the log so far.
+import type { MultiPolygon, Polygon } from 'geojson';
+import { OPERATION_INFO } from '../../shared/operations';
+import type { RunSheet, RunSheetItem } from '../../shared/schemas/board';
+import type { AppDeps } from '../app-deps';
+import { getAssignment } from '../board/assignments.repository';
+import type { ConflictCard } from '../board/conflicts';
+import { loadDay, planKey, type DayContext } from '../board/day-context';
+import type { Tx } from '../db/knex';
+import { hazardFeature } from '../fields/fields.service';
+import { forbidden, notFound } from '../http/errors';
+import type { SessionPrincipal } from '../http/session-user';
+import { eventsOfJobs } from './events.repository';
+
+async function itemsOf(db: Tx, ctx: DayContext, cards: ConflictCard[], personId: number): Promise<RunSheetItem[]> {
+  const ids = cards.map((c) => c.a.id);
+  const fieldIds = [...new Set(cards.map((c) => c.a.field.id))];
+  const events = await eventsOfJobs(db, ctx.farmId, ids);
+  const boundaries = fieldIds.length
+    ? await db('fields').where({ farm_id: ctx.farmId }).whereIn('id', fieldIds).select('id', 'boundary')
+    : [];
+  const boundaryOf = new Map<number, Polygon | MultiPolygon>(
+    boundaries.map((f: { id: number; boundary: Polygon | MultiPolygon }) => [f.id, f.boundary]),
+  );
+  return cards.map(({ a }) => {
+    const plan = ctx.passPlans.get(planKey(a.field.id, a.operation));
+    const view = ctx.views.get(a.id)!;
+    return {
+      ...a,
+      role: a.operator.membershipId === personId ? 'operator' : 'mentor',
+      field: {
+        ...a.field,
+        boundary: boundaryOf.get(a.field.id)!,
+        hazards: { type: 'FeatureCollection', features: ctx.hazards.filter((h) => h.field_id === a.field.id).map(hazardFeature) },
+      },
+      machine: { ...a.machine, engineHours: view.machine_engine_hours },
+      passPlan: plan
+        ? {
+            implementId: plan.implement_id,
+            widthM: plan.width_m,
+            headlandPasses: plan.headland_passes,
+            headingDeg: plan.heading_deg,
+            coverage: plan.coverage,
+            speedMph: plan.speed_mph,
+            efficiency: plan.efficiency,
+            turnSeconds: plan.turn_seconds,
+            summary: plan.summary,
+            updatedAt: plan.updated_at.toISOString(),
+          }
+        : null,
+      cautions: OPERATION_INFO[a.operation].cautions,
+      events: events.get(a.id) ?? [],
+    };
+  });
+}
+
+const mine = (ctx: DayContext, personId: number) =>
+  ctx.cards
+    .filter((c) => c.a.operator.membershipId === personId || c.a.mentor?.membershipId === personId)
+    .sort((x, y) => x.start - y.start || x.a.order - y.a.order || x.a.id - y.a.id);
+
+/** An operator sees only their own sheet; an owner may look at anyone's. */
+export async function readRunSheet(deps: AppDeps, by: SessionPrincipal, date: string, membershipId?: number): Promise<RunSheet> {
+  const personId = membershipId ?? by.membershipId;
+  if (personId !== by.membershipId && by.role !== 'owner') throw forbidden('You can open only your own run sheet');
+  const ctx = await loadDay(deps.db, by.farmId, date);
+  const person = ctx.people.find((p) => p.membership_id === personId);
+  if (!person) throw notFound('That person');
+  return {
+    date,
+    person: { membershipId: personId, name: person.name },
+    assignments: await itemsOf(deps.db, ctx, mine(ctx, personId), personId),
+  };
+}
+
+/** One job as its operator's run sheet shows it (the answer to a logged action). */
+export async function runSheetItem(db: Tx, farmId: number, id: number): Promise<RunSheetItem> {
+  const a = await getAssignment(db, farmId, id);
+  if (!a) throw notFound('That job');
+  const ctx = await loadDay(db, farmId, a.day);
+  const card = ctx.cards.find((c) => c.a.id === id)!;
+  return (await itemsOf(db, ctx, [card], a.operator_id))[0];
+}

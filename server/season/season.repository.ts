@@ -1,0 +1,210 @@
+// The season report's SQL. Every total is summed in PostgreSQL (GROUP BY, FILTER, window sums over
+// date_trunc('week')); Node only receives the grouped rows. All sections come from one statement:
+// one plan, one index-only scan of the season's jobs (migration 20261201004000), one snapshot, so
+// the sections always agree with each other even while an owner corrects a log.
+import { OPERATIONS, type Operation } from '../../shared/operations';
+import { FINISHED_TOLERANCE_ACRES } from '../board/conflicts';
+import type { Tx } from '../db/knex';
+
+/** Operations a field planned as fallow still gets. */
+export const FALLOW_OPERATIONS: readonly Operation[] = ['harrowing', 'tillage'];
+
+export interface OperationLogRow {
+  operation: Operation;
+  acres: number;
+  hours: number;
+  engine_hours: number;
+  jobs_finished: number;
+  jobs_called_off: number;
+}
+
+export interface OperationPlanRow {
+  operation: Operation;
+  acres_planned: number;
+  acres_covered: number;
+  acres_with_plan: number;
+  planned_hours: number | null;
+}
+
+export interface WeekRow {
+  operation: Operation;
+  week: string;
+  acres: number;
+  cumulative: number;
+}
+
+export interface FieldRow {
+  id: number;
+  name: string;
+  acres: number;
+  crop: string | null;
+}
+
+export interface FieldOperationRow {
+  field_id: number;
+  operation: Operation;
+  acres: number;
+  hours: number;
+  date_finished: string | null;
+}
+
+export interface PersonOperationRow {
+  membership_id: number;
+  name: string;
+  operation: Operation;
+  acres: number;
+  hours: number;
+}
+
+export interface MachineOperationRow {
+  machine_id: number;
+  name: string;
+  operation: Operation;
+  acres: number;
+  hours: number;
+  engine_hours: number;
+}
+
+export interface SeasonRows {
+  operationLogs: OperationLogRow[];
+  operationPlans: OperationPlanRow[];
+  weeks: WeekRow[];
+  fields: FieldRow[];
+  fieldOperations: FieldOperationRow[];
+  personOperations: PersonOperationRow[];
+  machineOperations: MachineOperationRow[];
+}
+
+const IN_SEASON = 'farm_id = :farmId and day >= :from::date and day < :to::date';
+
+/**
+ * The finished jobs of one farm and season: what the totals add up, as the work board counts a
+ * field done. Engine hours only where both meter readings are there and run forwards.
+ */
+const DONE = `done as materialized (
+  select field_id, operation, operator_id, machine_id, day, acres_done as acres, hours_worked as hours,
+         case when engine_hours_end >= engine_hours_start then engine_hours_end - engine_hours_start end as engine_hours
+  from assignments where ${IN_SEASON} and state = 'finished'
+)`;
+
+/** Fields with a crop this season; a crop whose name holds the word "fallow" is fallow. */
+const PLANNED = `planned as (
+  select f.id, f.acres, c.crop ~* '\\mfallow\\M' as fallow
+  from crop_plans c join fields f on f.id = c.field_id
+  where c.farm_id = :farmId and f.farm_id = :farmId and c.season = :year
+)`;
+
+/** Per field and operation: acres, hours, and the first day the running total reached the field's acres. */
+const FIELD_OPS = `field_ops as (
+  select d.field_id, d.operation, sum(d.acres) as acres, sum(d.hours) as hours,
+         to_char(min(d.day) filter (where d.cum >= f.acres - :tolerance), 'YYYY-MM-DD') as date_finished
+  from (
+    select field_id, operation, day, acres, hours, sum(acres) over (partition by field_id, operation order by day) as cum
+    from (
+      select field_id, operation, day, coalesce(sum(acres), 0) as acres, coalesce(sum(hours), 0) as hours
+      from done group by field_id, operation, day
+    ) per_day
+  ) d join fields f on f.id = d.field_id
+  group by d.field_id, d.operation, f.acres
+)`;
+
+const PLAN_HOURS = `plan_hours as (
+  select field_id, operation, (summary->>'hours')::float8 as hours
+  from pass_plans
+  where farm_id = :farmId and jsonb_typeof(summary->'hours') = 'number' and (summary->>'hours')::float8 > 0
+)`;
+
+/** Season order of an operation column. */
+const opOrder = (column: string) => `array_position(:ops::text[], ${column}::text)`;
+
+const SECTIONS: Record<keyof SeasonRows, string> = {
+  // Called-off jobs only count as such: they log no acres or hours.
+  operationLogs: `select coalesce(d.operation, c.operation) as operation,
+      coalesce(d.acres, 0)::float8 as acres, coalesce(d.hours, 0)::float8 as hours, coalesce(d.engine_hours, 0)::float8 as engine_hours,
+      coalesce(d.jobs, 0)::int as jobs_finished, coalesce(c.jobs, 0)::int as jobs_called_off
+    from (select operation, sum(acres) as acres, sum(hours) as hours, sum(engine_hours) as engine_hours, count(*) as jobs from done group by operation) d
+    full join (select operation, count(*) as jobs from assignments where ${IN_SEASON} and state = 'called-off' group by operation) c
+      on c.operation = d.operation`,
+  // Acres planned (fallow only for harrowing and tillage), covered (each field capped at its
+  // acres), and the pass-plan hours of the planned fields that have a saved plan.
+  operationPlans: `select o.operation,
+      coalesce(sum(p.acres), 0)::float8 as acres_planned,
+      coalesce(sum(least(coalesce(d.acres, 0), p.acres)), 0)::float8 as acres_covered,
+      coalesce(sum(p.acres) filter (where h.hours is not null), 0)::float8 as acres_with_plan,
+      sum(h.hours)::float8 as planned_hours
+    from unnest(:ops::text[]) as o(operation)
+    join planned p on not p.fallow or o.operation = any(:fallowOps::text[])
+    left join field_ops d on d.field_id = p.id and d.operation = o.operation
+    left join plan_hours h on h.field_id = p.id and h.operation = o.operation
+    group by o.operation`,
+  // Every ISO week (Monday) from the season's first to last finished job, for each operation with work.
+  weeks: `select o.operation, to_char(w.week, 'YYYY-MM-DD') as week, coalesce(s.acres, 0)::float8 as acres,
+      (sum(coalesce(s.acres, 0)) over (partition by o.operation order by w.week))::float8 as cumulative
+    from (select distinct operation from done) o
+    cross join (select generate_series(min(date_trunc('week', day)), max(date_trunc('week', day)), interval '1 week')::date as week
+                from done) w
+    left join (select operation, date_trunc('week', day)::date as week, sum(acres) as acres from done group by 1, 2) s
+      on s.operation = o.operation and s.week = w.week
+    order by ${opOrder('o.operation')}, w.week`,
+  fields: `select f.id, f.name, f.acres::float8 as acres, c.crop
+    from fields f left join crop_plans c on c.field_id = f.id and c.season = :year
+    where f.farm_id = :farmId and (c.id is not null or exists (select 1 from field_ops d where d.field_id = f.id))
+    order by lower(f.name), f.id`,
+  fieldOperations: `select field_id, operation, acres::float8 as acres, hours::float8 as hours, date_finished from field_ops order by field_id, ${opOrder('operation')}`,
+  // The operator on the job; a mentor riding along is not counted.
+  personOperations: `select s.operator_id as membership_id, u.name, s.operation, s.acres, s.hours
+    from (select operator_id, operation, coalesce(sum(acres), 0)::float8 as acres, coalesce(sum(hours), 0)::float8 as hours
+          from done group by operator_id, operation) s
+    join memberships m on m.id = s.operator_id join users u on u.id = m.user_id
+    order by lower(u.name), s.operator_id, ${opOrder('s.operation')}`,
+  machineOperations: `select s.machine_id, m.name, s.operation, s.acres, s.hours, s.engine_hours
+    from (select machine_id, operation, coalesce(sum(acres), 0)::float8 as acres, coalesce(sum(hours), 0)::float8 as hours,
+                 coalesce(sum(engine_hours), 0)::float8 as engine_hours
+          from done group by machine_id, operation) s
+    join machines m on m.id = s.machine_id
+    order by lower(m.name), s.machine_id, ${opOrder('s.operation')}`,
+};
+
+/** The one statement of the season report (a Knex raw query, so it can also be explained). */
+export function seasonQuery(db: Tx, farmId: number, year: number) {
+  const columns = Object.entries(SECTIONS)
+    .map(([name, sql]) => `(select coalesce(json_agg(x), '[]'::json) from (${sql}) x) as "${name}"`)
+    .join(',\n');
+  return db.raw(`with ${DONE}, ${PLANNED}, ${FIELD_OPS}, ${PLAN_HOURS}\nselect ${columns}`, {
+    farmId,
+    year,
+    from: `${year}-01-01`,
+    to: `${year + 1}-01-01`,
+    ops: [...OPERATIONS],
+    fallowOps: [...FALLOW_OPERATIONS],
+    tolerance: FINISHED_TOLERANCE_ACRES,
+  });
+}
+
+/** Every section of one farm's season, each a JSON array of grouped rows. */
+export async function seasonRows(db: Tx, farmId: number, year: number): Promise<SeasonRows> {
+  const { rows } = await seasonQuery(db, farmId, year);
+  return rows[0] as SeasonRows;
+}
+
+export interface SeasonYearRow {
+  year: number;
+  acres: number;
+  jobs: number;
+}
+
+/** Every season with finished work or a crop plan, newest first. */
+export async function seasonYears(db: Tx, farmId: number): Promise<SeasonYearRow[]> {
+  const { rows } = await db.raw(
+    `with worked as (
+       select extract(year from day)::int as year, coalesce(sum(acres_done), 0)::float8 as acres, count(*)::int as jobs
+       from assignments where farm_id = :farmId and state = 'finished' group by 1
+     ),
+     planned as (select distinct season as year from crop_plans where farm_id = :farmId)
+     select coalesce(w.year, p.year) as year, coalesce(w.acres, 0)::float8 as acres, coalesce(w.jobs, 0)::int as jobs
+     from worked w full join planned p on p.year = w.year
+     order by 1 desc`,
+    { farmId },
+  );
+  return rows;
+}

@@ -1,0 +1,125 @@
+// Season report: the address parameters and the shape of what the API answers. Areas are acres,
+// times are hours; the screen converts to hectares for a metric farm.
+import { z } from 'zod';
+import { OPERATIONS } from '../operations';
+
+/** A crop year in the address: four digits, 1990–2100. */
+export const seasonYear = z
+  .string()
+  .regex(/^\d{4}$/, 'The season is a year written with four digits, such as 2026')
+  .transform(Number)
+  .pipe(z.number().min(1990, 'The season is a year from 1990 to 2100').max(2100, 'The season is a year from 1990 to 2100'));
+
+export const seasonParams = z.object({ year: seasonYear });
+
+/** The tables of the season report that download as CSV. */
+export const SEASON_TABLES = ['operations', 'fields', 'people', 'machines', 'weekly'] as const;
+export type SeasonTable = (typeof SEASON_TABLES)[number];
+export const isSeasonTable = (s: string): s is SeasonTable => (SEASON_TABLES as readonly string[]).includes(s);
+
+const operation = z.enum(OPERATIONS);
+const num = z.number();
+const maybe = z.number().nullable();
+const day = z.string().regex(/^\d{4}-\d{2}-\d{2}$/);
+
+export const operationSeason = z.object({
+  operation,
+  /** Acres of the fields with a crop planned this season that the operation applies to. */
+  acresPlanned: num,
+  /** Of those planned acres, how many were covered at least once (each field capped at its acres). */
+  acresCovered: num,
+  /** Σ acres logged, every field, repeat passes included. */
+  acresFinished: num,
+  hoursLogged: num,
+  engineHours: num,
+  /** Σ pass-plan hours over the planned fields that have a saved plan; null when none has one. */
+  plannedHours: maybe,
+  /** Acres of the planned fields that have a saved plan (what plannedHours covers). */
+  acresWithPlan: num,
+  acresPerHour: maybe,
+  plannedAcresPerHour: maybe,
+  /** acresCovered ÷ acresPlanned, 0–1; 0 when nothing is planned. */
+  progress: num,
+  jobsFinished: z.number().int(),
+  jobsCalledOff: z.number().int(),
+});
+export type OperationSeason = z.infer<typeof operationSeason>;
+
+export const weekSeason = z.object({
+  operation,
+  /** Monday of the ISO week (YYYY-MM-DD); the first week of a season may start in late December. */
+  week: day,
+  acresFinished: num,
+  cumulativeAcres: num,
+});
+export type WeekSeason = z.infer<typeof weekSeason>;
+
+export const fieldOperationSeason = z.object({
+  acres: num,
+  hours: num,
+  /** The day the field was first fully covered for the operation; null while acres remain. */
+  dateFinished: day.nullable(),
+});
+
+export const fieldSeason = z.object({
+  fieldId: z.number().int(),
+  field: z.string(),
+  crop: z.string().nullable(),
+  acres: num,
+  operations: z.partialRecord(operation, fieldOperationSeason),
+  totalAcres: num,
+  totalHours: num,
+});
+export type FieldSeason = z.infer<typeof fieldSeason>;
+
+export const personSeason = z.object({
+  membershipId: z.number().int(),
+  name: z.string(),
+  operations: z.partialRecord(operation, z.object({ acres: num, hours: num })),
+  totalAcres: num,
+  totalHours: num,
+  acresPerHour: maybe,
+});
+export type PersonSeason = z.infer<typeof personSeason>;
+
+export const machineSeason = z.object({
+  machineId: z.number().int(),
+  machine: z.string(),
+  /** Σ (meter at finish − meter at start) over jobs with both readings, h. */
+  engineHours: num,
+  acres: num,
+  hours: num,
+  acresPerEngineHour: maybe,
+  operations: z.array(z.object({ operation, acres: num, hours: num, engineHours: num })),
+});
+export type MachineSeason = z.infer<typeof machineSeason>;
+
+export const seasonTotals = z.object({
+  acresFinished: num,
+  hoursLogged: num,
+  engineHours: num,
+  acresPerHour: maybe,
+  jobsFinished: z.number().int(),
+  jobsCalledOff: z.number().int(),
+  fieldsWorked: z.number().int(),
+});
+
+export const seasonSummary = z.object({
+  year: z.number().int(),
+  operations: z.array(operationSeason),
+  weekly: z.array(weekSeason),
+  byField: z.array(fieldSeason),
+  byPerson: z.array(personSeason),
+  byMachine: z.array(machineSeason),
+  totals: seasonTotals,
+});
+export type SeasonSummary = z.infer<typeof seasonSummary>;
+
+/** `GET /api/season`: the seasons with crop plans or logged work, newest first. */
+export const seasonIndex = z.object({
+  current: z.number().int(),
+  /** The season to open first: the newest with logged work, else the current year. */
+  latestWorked: z.number().int(),
+  seasons: z.array(z.object({ year: z.number().int(), acresFinished: num, jobs: z.number().int() })),
+});
+export type SeasonIndex = z.infer<typeof seasonIndex>;
