@@ -37,6 +37,8 @@ export interface DbCropPlanRow {
 export interface FieldListRow extends DbFieldRow {
   crop: string | null;
   hazard_count: number;
+  last_operation: string | null;
+  last_operation_day: string | null;
 }
 
 export function listFields(db: Tx, farmId: number, season: number): Promise<FieldListRow[]> {
@@ -44,7 +46,14 @@ export function listFields(db: Tx, farmId: number, season: number): Promise<Fiel
     .leftJoin('crop_plans as c', (j) => j.on('c.field_id', 'f.id').andOn('c.season', db.raw('?', [season])))
     .where('f.farm_id', farmId)
     .orderByRaw('lower(f.name)')
-    .select('f.*', 'c.crop', db.raw('(select count(*)::int from hazards h where h.field_id = f.id) as hazard_count'));
+    .select(
+      'f.*',
+      'c.crop',
+      db.raw('(select count(*)::int from hazards h where h.field_id = f.id) as hazard_count'),
+      // The last job finished on the field (any season), for the fields table.
+      db.raw(`(select a.operation from assignments a where a.field_id = f.id and a.state = 'finished' order by a.day desc, a.finished_at desc nulls last limit 1) as last_operation`),
+      db.raw(`(select a.day from assignments a where a.field_id = f.id and a.state = 'finished' order by a.day desc, a.finished_at desc nulls last limit 1) as last_operation_day`),
+    );
 }
 
 export const getField = (db: Tx, farmId: number, id: number) => db<DbFieldRow>('fields').where({ farm_id: farmId, id }).first();

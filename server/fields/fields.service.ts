@@ -34,7 +34,7 @@ export async function listFields(deps: AppDeps, farmId: number, season = current
     hectares: round(acresToHa(r.acres)),
     crop: r.crop,
     hazardCount: r.hazard_count,
-    lastOperation: null,
+    lastOperation: r.last_operation ? { operation: r.last_operation, date: r.last_operation_day! } : null,
     boundary: r.boundary,
   }));
 }

@@ -134,8 +134,7 @@ export async function savePlan(deps: AppDeps, farmId: number, userId: number, fi
   const { field, hazards } = await fieldInput(deps, farmId, fieldId);
   const result = computePlan({ ...inputOf(s, operation), boundary: field.boundary, hazards, fieldName: field.name });
   if (s.implementId) {
-    const exists = await deps.db.schema.hasTable('implements');
-    const ok = exists && (await deps.db('implements').where({ id: s.implementId, farm_id: farmId }).first('id'));
+    const ok = await deps.db('implements').where({ id: s.implementId, farm_id: farmId }).first('id');
     if (!ok) throw new AppError(422, 'bad_implement', 'That implement is not in this farm’s fleet');
   }
   const row = {

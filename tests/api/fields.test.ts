@@ -139,3 +139,38 @@ describe('fields', () => {
     await owner.patch('/api/farm', { units: 'us' });
   });
 });
+
+describe('the last operation on each field', () => {
+  let t: TestApp;
+  beforeAll(async () => {
+    t = await startTestApp();
+  });
+  afterAll(() => t.close());
+
+  it('when jobs were finished on a field, then the list shows the latest one with its date', async () => {
+    const farm = await makeFarm(t.db, 'LastOp');
+    const owner = new Client(t.app);
+    await owner.signIn(farm.owner.email, farm.owner.password);
+    const field = (await owner.post('/api/fields', { name: 'Worked Field', boundary: rect(-99.9, 47.6, 0.01, 0.01) })).body;
+    const idle = (await owner.post('/api/fields', { name: 'Idle Field', boundary: rect(-99.8, 47.6, 0.01, 0.01) })).body;
+    const [machine] = await t.db('machines').insert({ farm_id: farm.id, name: 'Tractor', kind: 'tractor-4wd', power_hp: 400 }).returning('id');
+    const [implement] = await t.db('implements').insert({ farm_id: farm.id, name: 'Harrow', kind: 'harrow', width_m: 25.6, operations: ['harrowing'] }).returning('id');
+    const job = (day: string, operation: string, state: string) => ({
+      farm_id: farm.id,
+      day,
+      field_id: field.id,
+      operation,
+      operator_id: farm.operator.membershipId,
+      machine_id: machine.id,
+      implement_id: implement.id,
+      run_order: 1,
+      state,
+      acres_planned: 10,
+      acres_done: state === 'finished' ? 10 : null,
+    });
+    await t.db('assignments').insert([job('2026-04-20', 'harrowing', 'finished'), job('2026-05-02', 'seeding', 'finished'), job('2026-06-01', 'spraying', 'planned')]);
+    const list = (await owner.get('/api/fields')).body;
+    expect(list.find((f: { id: number }) => f.id === field.id).lastOperation).toEqual({ operation: 'seeding', date: '2026-05-02' });
+    expect(list.find((f: { id: number }) => f.id === idle.id).lastOperation).toBeNull();
+  });
+});
