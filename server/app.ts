@@ -36,7 +36,7 @@ export function createApp(deps: CreateAppOptions): Express {
   app.locals.routes = routes;
   app.disable('x-powered-by');
   if (config.trustProxy) app.set('trust proxy', 1);
-  app.use(securityHeaders(config.secureCookies));
+  app.use(securityHeaders(config.secureCookies, config.mapTileUrl));
 
   const api = express.Router();
   api.use(express.json({ limit: '1mb' }));

@@ -287,3 +287,19 @@ describe('invitations and password resets by e-mail', () => {
     expect(res.status).toBe(410);
   });
 });
+
+describe('a configured map background', () => {
+  it('when a tile URL is set, then the CSP lets images (only) come from its origin', async () => {
+    const t = await startTestApp({ MAP_TILE_URL: 'https://{s}.tiles.farm.example/{z}/{x}/{y}.png', MAP_TILE_ATTRIBUTION: 'Our own tiles' });
+    try {
+      const res = await new Client(t.app).get('/api/config');
+      expect(res.body).toEqual({ mapTileUrl: 'https://{s}.tiles.farm.example/{z}/{x}/{y}.png', mapTileAttribution: 'Our own tiles' });
+      const csp = res.headers['content-security-policy'];
+      expect(csp).toMatch(/img-src 'self' data: blob: https:\/\/\*\.tiles\.farm\.example;/);
+      expect(csp).toMatch(/connect-src 'self';/);
+      expect(csp).toMatch(/script-src 'self';/);
+    } finally {
+      await t.close();
+    }
+  });
+});
