@@ -3,7 +3,10 @@
 import { spawnSync } from 'node:child_process';
 import { ensureNodeModules, log, root } from './lib/setup.mjs';
 
-const benches = [['pass plan', ['--import', 'tsx', 'scripts/bench-plan.ts']]];
+const benches = [
+  ['pass plan', ['--import', 'tsx', 'scripts/bench-plan.ts']],
+  ['server', ['--import', 'tsx', 'scripts/bench-server.ts']],
+];
 const only = process.argv.slice(2);
 
 ensureNodeModules();

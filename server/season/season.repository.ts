@@ -79,11 +79,12 @@ const IN_SEASON = 'farm_id = :farmId and day >= :from::date and day < :to::date'
 
 /**
  * The finished jobs of one farm and season: what the totals add up, as the work board counts a
- * field done. Engine hours only where both meter readings are there and run forwards.
+ * field done. Engine hours only where both meter readings are there and run forwards. Summed as
+ * double precision (fast; exact well past the hundredth of an acre the report shows).
  */
 const DONE = `done as materialized (
-  select field_id, operation, operator_id, machine_id, day, acres_done as acres, hours_worked as hours,
-         case when engine_hours_end >= engine_hours_start then engine_hours_end - engine_hours_start end as engine_hours
+  select field_id, operation, operator_id, machine_id, day, coalesce(acres_done, 0)::float8 as acres, coalesce(hours_worked, 0)::float8 as hours,
+         (case when engine_hours_end >= engine_hours_start then engine_hours_end - engine_hours_start end)::float8 as engine_hours
   from assignments where ${IN_SEASON} and state = 'finished'
 )`;
 
@@ -94,17 +95,22 @@ const PLANNED = `planned as (
   where c.farm_id = :farmId and f.farm_id = :farmId and c.season = :year
 )`;
 
-/** Per field and operation: acres, hours, and the first day the running total reached the field's acres. */
+/** The operations this farm does: one an implement of its fleet does, or one with work this season. */
+const FARM_OPS = `farm_ops as (
+  select distinct unnest(operations) as operation from implements where farm_id = :farmId
+  union
+  select distinct operation from done
+)`;
+
+/**
+ * Per field and operation: acres, hours, and the first day the running total reached the field's
+ * acres (the window's default frame takes a day's jobs together, so the order within a day is moot).
+ */
 const FIELD_OPS = `field_ops as (
   select d.field_id, d.operation, sum(d.acres) as acres, sum(d.hours) as hours,
          to_char(min(d.day) filter (where d.cum >= f.acres - :tolerance), 'YYYY-MM-DD') as date_finished
-  from (
-    select field_id, operation, day, acres, hours, sum(acres) over (partition by field_id, operation order by day) as cum
-    from (
-      select field_id, operation, day, coalesce(sum(acres), 0) as acres, coalesce(sum(hours), 0) as hours
-      from done group by field_id, operation, day
-    ) per_day
-  ) d join fields f on f.id = d.field_id
+  from (select field_id, operation, day, acres, hours, sum(acres) over (partition by field_id, operation order by day) as cum from done) d
+  join fields f on f.id = d.field_id
   group by d.field_id, d.operation, f.acres
 )`;
 
@@ -125,14 +131,15 @@ const SECTIONS: Record<keyof SeasonRows, string> = {
     from (select operation, sum(acres) as acres, sum(hours) as hours, sum(engine_hours) as engine_hours, count(*) as jobs from done group by operation) d
     full join (select operation, count(*) as jobs from assignments where ${IN_SEASON} and state = 'called-off' group by operation) c
       on c.operation = d.operation`,
-  // Acres planned (fallow only for harrowing and tillage), covered (each field capped at its
-  // acres), and the pass-plan hours of the planned fields that have a saved plan.
+  // Acres planned (for the operations the farm does; fallow fields only for harrowing and tillage),
+  // covered (each field capped at its acres), and the pass-plan hours of those fields' saved plans.
   operationPlans: `select o.operation,
       coalesce(sum(p.acres), 0)::float8 as acres_planned,
       coalesce(sum(least(coalesce(d.acres, 0), p.acres)), 0)::float8 as acres_covered,
       coalesce(sum(p.acres) filter (where h.hours is not null), 0)::float8 as acres_with_plan,
       sum(h.hours)::float8 as planned_hours
     from unnest(:ops::text[]) as o(operation)
+    join farm_ops fo on fo.operation = o.operation
     join planned p on not p.fallow or o.operation = any(:fallowOps::text[])
     left join field_ops d on d.field_id = p.id and d.operation = o.operation
     left join plan_hours h on h.field_id = p.id and h.operation = o.operation
@@ -170,7 +177,7 @@ export function seasonQuery(db: Tx, farmId: number, year: number) {
   const columns = Object.entries(SECTIONS)
     .map(([name, sql]) => `(select coalesce(json_agg(x), '[]'::json) from (${sql}) x) as "${name}"`)
     .join(',\n');
-  return db.raw(`with ${DONE}, ${PLANNED}, ${FIELD_OPS}, ${PLAN_HOURS}\nselect ${columns}`, {
+  return db.raw(`with ${DONE}, ${PLANNED}, ${FARM_OPS}, ${FIELD_OPS}, ${PLAN_HOURS}\nselect ${columns}`, {
     farmId,
     year,
     from: `${year}-01-01`,

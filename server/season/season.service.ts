@@ -1,11 +1,14 @@
 // The season report: what the farm's logged work added up to in one crop year (the calendar year
 // of each job's day). The sums come from PostgreSQL; this file only arranges them and divides.
-// Rules: a job's acres and hours count once it is finished (a part-done field is a finished job with
-// fewer acres; called-off jobs only count as called off), as the work board counts; acres planned are the
-// fields with a crop that season (fallow ones only for harrowing and tillage); planned hours add the
-// saved pass plans of those fields, and fields without a plan add nothing (acresWithPlan says how
-// many acres the planned hours cover). Pass plans are not kept per season: a past season reads the
-// plans saved now.
+// Rules:
+// - A job's acres and hours count once it is finished, as the work board counts a field done (a
+//   part-done field is a finished job with fewer acres); called-off jobs only count as called off.
+// - Acres planned for an operation: the fields with a crop that season, for each operation the farm
+//   does (an implement of its fleet does it, or work for it was logged that season); a fallow field
+//   only for harrowing and tillage. Progress is the share of those acres covered at least once.
+// - Planned hours add the saved pass plans of those fields; a field without a plan adds nothing,
+//   and acresWithPlan says how many acres the planned hours cover. Pass plans are not kept per
+//   season: a past season reads the plans saved now.
 import { OPERATIONS, type Operation } from '../../shared/operations';
 import type { FieldSeason, MachineSeason, OperationSeason, PersonSeason, SeasonIndex, SeasonSummary } from '../../shared/schemas/season';
 import type { AppDeps } from '../app-deps';

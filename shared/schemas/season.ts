@@ -24,7 +24,7 @@ const day = z.string().regex(/^\d{4}-\d{2}-\d{2}$/);
 
 export const operationSeason = z.object({
   operation,
-  /** Acres of the fields with a crop planned this season that the operation applies to. */
+  /** Acres of the fields with a crop this season, if the farm does the operation (its fleet can, or work was logged); fallow fields only for harrowing and tillage. */
   acresPlanned: num,
   /** Of those planned acres, how many were covered at least once (each field capped at its acres). */
   acresCovered: num,

@@ -41,6 +41,39 @@ export const routes: Routes = [
         canActivate: [roleGuard(['owner'])],
         loadChildren: () => import('./features/members/members.routes').then((m) => m.MEMBERS_ROUTES),
       },
+      {
+        path: 'fields',
+        loadChildren: () => import('./features/fields/fields.routes').then((m) => m.FIELDS_ROUTES),
+      },
+      {
+        path: 'pass-plan',
+        canActivate: [roleGuard(['owner', 'operator'])],
+        loadChildren: () => import('./features/pass-plan/pass-plan.routes').then((m) => m.PASS_PLAN_ROUTES),
+      },
+      {
+        path: 'board',
+        canActivate: [roleGuard(['owner'])],
+        loadChildren: () => import('./features/board/board.routes').then((m) => m.BOARD_ROUTES),
+      },
+      {
+        path: 'run-sheet',
+        canActivate: [roleGuard(['owner', 'operator'])],
+        loadChildren: () => import('./features/run-sheet/run-sheet.routes').then((m) => m.RUN_SHEET_ROUTES),
+      },
+      {
+        path: 'fleet',
+        loadChildren: () => import('./features/fleet/fleet.routes').then((m) => m.FLEET_ROUTES),
+      },
+      {
+        path: 'crew',
+        canActivate: [roleGuard(['owner'])],
+        loadChildren: () => import('./features/crew/crew.routes').then((m) => m.CREW_ROUTES),
+      },
+      {
+        path: 'season',
+        canActivate: [roleGuard(['owner', 'viewer'])],
+        loadChildren: () => import('./features/season/season.routes').then((m) => m.SEASON_ROUTES),
+      },
       // Later screens add their lazy route here and switch their entry on in nav-items.ts.
     ],
   },

@@ -66,6 +66,14 @@ const JOBS: JobFx[] = [
   { key: 'n-harrow-2025', day: '2025-12-31', field: 'north', operation: 'harrowing', operator: 'operator', machine: 'tractor', implement: 'harrow', state: 'finished', acresPlanned: 155, acres: 155, hours: 5, meter: [900, 905] },
 ];
 
+/** The fleet's implements: an operation counts as planned when one of them does it (or work was logged). */
+const IMPLEMENTS: Array<{ key: JobFx['implement'] | 'disk'; name: string; kind: string; operations: Operation[] }> = [
+  { key: 'harrow', name: 'Harrow 70', kind: 'harrow', operations: ['harrowing'] },
+  { key: 'drill', name: 'Drill 60', kind: 'air-drill', operations: ['seeding'] },
+  { key: 'boom', name: 'Boom 120', kind: 'sprayer', operations: ['spraying'] },
+  { key: 'disk', name: 'Disk 30', kind: 'disk', operations: ['tillage'] },
+];
+
 /** Saved pass plans (summary.hours); one with no hours in its summary counts as no plan. */
 const PLANS: Array<{ field: string; operation: Operation; hours: number | null }> = [
   { field: 'north', operation: 'harrowing', hours: 5.5 },
@@ -81,6 +89,7 @@ const sum = (xs: number[]) => xs.reduce((s, x) => s + x, 0);
 const fieldOf = (key: string) => FIELDS.find((f) => f.key === key)!;
 const isFallow = (crop: string | null) => !!crop && /\bfallow\b/i.test(crop);
 const appliesTo = (f: FieldFx, op: Operation) => f.crop !== null && (!isFallow(f.crop) || op === 'harrowing' || op === 'tillage');
+const fleetDoes = (op: Operation) => IMPLEMENTS.some((i) => i.operations.includes(op));
 const meterHours = (j: JobFx) => (j.meter && j.meter[1] >= j.meter[0] ? j.meter[1] - j.meter[0] : 0);
 /** Monday of the day's ISO week. */
 function mondayOf(day: string): string {
@@ -94,7 +103,8 @@ function expected(jobs: JobFx[], people: Record<JobFx['operator'], { id: number;
   const done = jobs.filter((j) => j.state === 'finished' && j.day.startsWith(`${YEAR}-`));
   const operations = OPERATIONS.map((op) => {
     const jobsOf = done.filter((j) => j.operation === op);
-    const planned = FIELDS.filter((f) => appliesTo(f, op));
+    const farmDoes = fleetDoes(op) || jobsOf.length > 0;
+    const planned = FIELDS.filter((f) => farmDoes && appliesTo(f, op));
     const withPlan = planned.filter((f) => PLANS.some((p) => p.field === f.key && p.operation === op && p.hours !== null));
     const plannedHours = withPlan.length ? sum(withPlan.map((f) => PLANS.find((p) => p.field === f.key && p.operation === op)!.hours!)) : null;
     const acresPlanned = sum(planned.map((f) => f.acres));
@@ -316,9 +326,10 @@ describe('season report', () => {
     const [sprayer] = await db('machines').insert({ farm_id: farm.id, name: 'Sprayer, "SP"', kind: 'sprayer-sp', power_hp: 300, engine_hours: 503 }).returning('id');
     machineIds.tractor = tractor.id;
     machineIds.sprayer = sprayer.id;
-    const implement = async (name: string, kind: string, ops: Operation[]) =>
-      (await db('implements').insert({ farm_id: farm.id, name, kind, width_m: 20, operations: ops }).returning('id'))[0].id as number;
-    const implementIds = { harrow: await implement('Harrow 70', 'harrow', ['harrowing']), drill: await implement('Drill 60', 'air-drill', ['seeding']), boom: await implement('Boom 120', 'sprayer', ['spraying']) };
+    const implementIds: Record<string, number> = {};
+    for (const i of IMPLEMENTS) {
+      implementIds[i.key] = (await db('implements').insert({ farm_id: farm.id, name: i.name, kind: i.kind, width_m: 20, operations: i.operations }).returning('id'))[0].id;
+    }
     for (const [i, j] of JOBS.entries()) {
       const [row] = await db('assignments')
         .insert({
@@ -423,6 +434,9 @@ describe('season report', () => {
     expect(s.byField.find((f) => f.field === 'Slough Eighty')!.operations.harrowing!.dateFinished).toBeNull();
     expect(s.operations.find((o) => o.operation === 'spraying')!.progress).toBeLessThan(1);
     expect(s.operations.find((o) => o.operation === 'seeding')!.acresPlanned).toBeCloseTo(160.25 + 80.5 + 20.4, 2);
+    // Tillage: the fleet has a disk, and the fallow field counts for it; baling: nothing does it.
+    expect(s.operations.find((o) => o.operation === 'tillage')!.acresPlanned).toBeCloseTo(160.25 + 80.5 + 320.75 + 20.4, 2);
+    expect(s.operations.find((o) => o.operation === 'baling')!.acresPlanned).toBe(0);
   });
 
   it('when the owner reads the season, then the figures are the same as the viewer sees', async () => {

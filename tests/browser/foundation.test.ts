@@ -41,9 +41,9 @@ describe('the app shell in a real browser', () => {
   });
 
   const expected: Array<[string, 'owner' | 'operator' | 'viewer', string[], string[]]> = [
-    ['owner', 'owner', ['Home', 'Members'], []],
-    ['operator', 'operator', ['Home'], ['Members']],
-    ['viewer', 'viewer', ['Home'], ['Members']],
+    ['owner', 'owner', ['Home', 'Work board', 'Run sheet', 'Fields', 'Pass plan', 'Fleet', 'Crew', 'Season', 'Members'], []],
+    ['operator', 'operator', ['Home', 'Run sheet', 'Fields', 'Pass plan', 'Fleet'], ['Work board', 'Crew', 'Season', 'Members']],
+    ['viewer', 'viewer', ['Home', 'Fields', 'Fleet', 'Season'], ['Work board', 'Run sheet', 'Pass plan', 'Crew', 'Members']],
   ];
 
   it.each(expected)('when the %s signs in, then the navigation shows what that role may use', async (_label, role, mustHave, mustNot) => {

@@ -9,6 +9,8 @@ export class ApiError extends Error {
     readonly code: string,
     message: string,
     readonly fields: Record<string, string> = {},
+    /** Anything else the server put in `error` (an import's `problems` list). */
+    readonly details: Record<string, unknown> = {},
   ) {
     super(message);
   }

@@ -43,6 +43,17 @@ describe('errorInterceptor', () => {
     );
   }
 
+  it('when the error carries more than code, message and fields, then the rest arrives as details', async () => {
+    const failure = failureOf('/api/fields/import');
+    httpTesting
+      .expectOne('/api/fields/import')
+      .flush(
+        { error: { code: 'import_refused', message: 'Nothing was saved.', problems: ['Feature 2 crosses itself'] } },
+        { status: 422, statusText: 'Unprocessable Entity' },
+      );
+    expect(await failure).toMatchObject({ code: 'import_refused', details: { problems: ['Feature 2 crosses itself'] } });
+  });
+
   it('when the server answers with its error shape, then the ApiError carries its code, message and fields', async () => {
     const failure = failureOf('/api/members');
     httpTesting

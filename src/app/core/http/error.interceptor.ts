@@ -51,8 +51,8 @@ export function toApiError(failure: HttpErrorResponse): ApiError {
   if (failure.status === 0) return new ApiError(0, 'offline', OFFLINE_MESSAGE);
   const body: unknown = failure.error;
   if (isApiErrorBody(body)) {
-    const { code, message, fields } = body.error;
-    return new ApiError(failure.status, code, message, fields ?? {});
+    const { code, message, fields, ...details } = body.error;
+    return new ApiError(failure.status, code, message, fields ?? {}, details);
   }
   const fallback =
     FALLBACK_MESSAGES[failure.status] ??

@@ -3,16 +3,16 @@ import { NAV_ITEMS, type NavItem, navItemsFor } from './nav-items';
 const labels = (items: NavItem[]) => items.map((item) => item.label);
 
 describe('navItemsFor', () => {
-  it('when the owner signs in, then Home and Members show (the screens that exist so far)', () => {
-    expect(labels(navItemsFor('owner'))).toEqual(['Home', 'Members']);
+  it('when the owner signs in, then every screen shows', () => {
+    expect(labels(navItemsFor('owner'))).toEqual(['Home', 'Work board', 'Run sheet', 'Fields', 'Pass plan', 'Fleet', 'Crew', 'Season', 'Members']);
   });
 
-  it('when an operator signs in, then Members does not show', () => {
-    expect(labels(navItemsFor('operator'))).toEqual(['Home']);
+  it('when an operator signs in, then their run sheet and the read-only screens show, not the board or the season', () => {
+    expect(labels(navItemsFor('operator'))).toEqual(['Home', 'Run sheet', 'Fields', 'Pass plan', 'Fleet']);
   });
 
-  it('when a viewer signs in, then Members does not show', () => {
-    expect(labels(navItemsFor('viewer'))).toEqual(['Home']);
+  it('when a viewer signs in, then the season and the read-only screens show, not the board or run sheets', () => {
+    expect(labels(navItemsFor('viewer'))).toEqual(['Home', 'Fields', 'Fleet', 'Season']);
   });
 
   it('when nobody is signed in, then nothing shows', () => {
@@ -36,7 +36,17 @@ describe('navItemsFor', () => {
     expect(new Set(NAV_ITEMS.map((item) => item.path)).size).toBe(NAV_ITEMS.length);
   });
 
-  it('then only Home and Members are switched on until their screens land', () => {
-    expect(NAV_ITEMS.filter((item) => item.ready).map((item) => item.path)).toEqual(['/home', '/members']);
+  it('then every screen that exists is switched on, in the order of the day', () => {
+    expect(NAV_ITEMS.filter((item) => item.ready).map((item) => item.path)).toEqual([
+      '/home',
+      '/board',
+      '/run-sheet',
+      '/fields',
+      '/pass-plan',
+      '/fleet',
+      '/crew',
+      '/season',
+      '/members',
+    ]);
   });
 });

@@ -16,13 +16,13 @@ export interface NavItem {
 /** The whole main navigation, in display order. The server still enforces every permission. */
 export const NAV_ITEMS: readonly NavItem[] = [
   { path: '/home', label: 'Home', icon: 'home', roles: ['owner', 'operator', 'viewer'], ready: true },
-  { path: '/board', label: 'Work board', icon: 'view_kanban', roles: ['owner'], ready: false },
-  { path: '/run-sheet', label: 'Run sheet', icon: 'checklist', roles: ['owner', 'operator'], ready: false },
-  { path: '/fields', label: 'Fields', icon: 'landscape', roles: ['owner', 'operator', 'viewer'], ready: false },
-  { path: '/pass-plan', label: 'Pass plan', icon: 'route', roles: ['owner', 'operator'], ready: false },
-  { path: '/fleet', label: 'Fleet', icon: 'agriculture', roles: ['owner', 'operator', 'viewer'], ready: false },
-  { path: '/crew', label: 'Crew', icon: 'badge', roles: ['owner'], ready: false },
-  { path: '/season', label: 'Season', icon: 'bar_chart', roles: ['owner', 'viewer'], ready: false },
+  { path: '/board', label: 'Work board', icon: 'view_kanban', roles: ['owner'], ready: true },
+  { path: '/run-sheet', label: 'Run sheet', icon: 'checklist', roles: ['owner', 'operator'], ready: true },
+  { path: '/fields', label: 'Fields', icon: 'landscape', roles: ['owner', 'operator', 'viewer'], ready: true },
+  { path: '/pass-plan', label: 'Pass plan', icon: 'route', roles: ['owner', 'operator'], ready: true },
+  { path: '/fleet', label: 'Fleet', icon: 'agriculture', roles: ['owner', 'operator', 'viewer'], ready: true },
+  { path: '/crew', label: 'Crew', icon: 'badge', roles: ['owner'], ready: true },
+  { path: '/season', label: 'Season', icon: 'bar_chart', roles: ['owner', 'viewer'], ready: true },
   { path: '/members', label: 'Members', icon: 'manage_accounts', roles: ['owner'], ready: true },
 ];
 

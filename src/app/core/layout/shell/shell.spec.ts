@@ -53,15 +53,15 @@ describe('Shell', () => {
       a.querySelector('[matListItemTitle]')?.textContent?.trim(),
     );
 
-  it('when an owner is signed in, then the main navigation offers Home and Members', async () => {
+  it('when an owner is signed in, then the main navigation offers every screen', async () => {
     await render('owner');
-    expect(navLabels()).toEqual(['Home', 'Members']);
+    expect(navLabels()).toEqual(['Home', 'Work board', 'Run sheet', 'Fields', 'Pass plan', 'Fleet', 'Crew', 'Season', 'Members']);
     expect(page.querySelector('nav[aria-label="Main"] a[href="/members"]')).not.toBeNull();
   });
 
   it('when an operator is signed in, then Members is not offered', async () => {
     await render('operator');
-    expect(navLabels()).toEqual(['Home']);
+    expect(navLabels()).toEqual(['Home', 'Run sheet', 'Fields', 'Pass plan', 'Fleet']);
     expect(page.querySelector('a[href="/members"]')).toBeNull();
   });
 

@@ -1,0 +1,54 @@
+import { Component, computed, input, output } from '@angular/core';
+import { DragDropModule } from '@angular/cdk/drag-drop';
+import { MatButtonModule } from '@angular/material/button';
+import { MatIconModule } from '@angular/material/icon';
+import { MatMenuModule } from '@angular/material/menu';
+import { OPERATION_INFO } from '@shared/operations';
+import { type BoardAssignment, type Conflict, STATE_LABELS } from '@shared/schemas/board';
+import { AreaPipe } from '../../../shared/units/area-pipe';
+import { hoursText } from '../board-day';
+
+export interface MoveTarget {
+  membershipId: number;
+  name: string;
+}
+
+/**
+ * One job on the work board. Lives inside a `cdkDrag` (its handle is here); the Move menu is the
+ * keyboard way to do what dragging does.
+ */
+@Component({
+  selector: 'app-assignment-card',
+  imports: [AreaPipe, DragDropModule, MatButtonModule, MatIconModule, MatMenuModule],
+  templateUrl: './assignment-card.html',
+  styleUrl: './assignment-card.scss',
+})
+export class AssignmentCard {
+  readonly assignment = input.required<BoardAssignment>();
+  readonly conflicts = input<readonly Conflict[]>([]);
+  readonly moveTargets = input<readonly MoveTarget[]>([]);
+  readonly first = input(false);
+  readonly last = input(false);
+  /** Off while a save runs, and for jobs already started or done. */
+  readonly movable = input(true);
+
+  readonly edit = output<void>();
+  readonly remove = output<void>();
+  readonly moveUp = output<void>();
+  readonly moveDown = output<void>();
+  readonly moveTo = output<number>();
+
+  protected readonly title = computed(
+    () => `${this.assignment().field.name} ${OPERATION_INFO[this.assignment().operation].label.toLowerCase()}`,
+  );
+  protected readonly operationLabel = computed(() => OPERATION_INFO[this.assignment().operation].label);
+  protected readonly stateLabel = computed(() => STATE_LABELS[this.assignment().state]);
+  protected readonly hours = computed(() => hoursText(this.assignment().planHours));
+  protected readonly source = computed(() => (this.assignment().planSource === 'pass-plan' ? 'from pass plan' : 'estimate'));
+  protected readonly timesSet = computed(() => this.assignment().plannedStart !== null || this.assignment().plannedEnd !== null);
+  protected readonly hard = computed(() => this.conflicts().filter((c) => c.severity === 'hard'));
+  protected readonly soft = computed(() => this.conflicts().filter((c) => c.severity === 'soft'));
+  /** A started or finished job is called off or kept, not deleted. */
+  protected readonly removable = computed(() => this.assignment().state === 'planned' || this.assignment().state === 'called-off');
+  protected readonly headingId = computed(() => `card-${this.assignment().id}-title`);
+}

@@ -1,0 +1,45 @@
+/** A day as the API writes it (YYYY-MM-DD), in the browser's own calendar, not UTC. */
+export function isoDay(date: Date): string {
+  const y = date.getFullYear();
+  const m = String(date.getMonth() + 1).padStart(2, '0');
+  const d = String(date.getDate()).padStart(2, '0');
+  return `${y}-${m}-${d}`;
+}
+
+/** The local midnight of a YYYY-MM-DD day. */
+export function dateOf(day: string): Date {
+  const [y, m, d] = day.split('-').map(Number);
+  return new Date(y, m - 1, d);
+}
+
+/** True for a real calendar day written YYYY-MM-DD. */
+export function isIsoDay(value: unknown): value is string {
+  if (typeof value !== 'string' || !/^\d{4}-\d{2}-\d{2}$/.test(value)) return false;
+  return isoDay(dateOf(value)) === value;
+}
+
+/** The day `n` days after `day` (before, when negative). */
+export function addDays(day: string, n: number): string {
+  const date = dateOf(day);
+  date.setDate(date.getDate() + n);
+  return isoDay(date);
+}
+
+export const today = (now = new Date()): string => isoDay(now);
+export const tomorrow = (now = new Date()): string => addDays(isoDay(now), 1);
+
+const LONG = new Intl.DateTimeFormat('en-US', { weekday: 'long', month: 'long', day: 'numeric', year: 'numeric' });
+const CLOCK = new Intl.DateTimeFormat('en-US', { hour: '2-digit', minute: '2-digit', hourCycle: 'h23' });
+const STAMP = new Intl.DateTimeFormat('en-US', { month: 'short', day: 'numeric', hour: '2-digit', minute: '2-digit', hourCycle: 'h23' });
+
+/** "Thursday, May 15, 2031". */
+export const longDay = (day: string): string => LONG.format(dateOf(day));
+
+/** An ISO instant as the local clock reads it: "14:05". */
+export const clockTime = (iso: string): string => CLOCK.format(new Date(iso));
+
+/** An ISO instant with its day: "May 15, 14:05". */
+export const stampTime = (iso: string): string => STAMP.format(new Date(iso));
+
+/** Hours to one decimal, as "5.4 h". */
+export const hoursText = (hours: number): string => `${(Math.round(hours * 10) / 10).toLocaleString('en-US')} h`;

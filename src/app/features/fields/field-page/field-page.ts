@@ -1,0 +1,285 @@
+import { httpResource } from '@angular/common/http';
+import { Component, computed, effect, inject, input, signal } from '@angular/core';
+import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatDialog } from '@angular/material/dialog';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSnackBar } from '@angular/material/snack-bar';
+import { Router, RouterLink } from '@angular/router';
+import type { Geometry } from 'geojson';
+import type * as L from 'leaflet';
+import { type Observable, filter, switchMap } from 'rxjs';
+import { AuthStore } from '../../../core/auth/auth-store';
+import { messageOf } from '../../../core/http/api-error';
+import { applyServerErrors } from '../../../shared/forms/server-errors';
+import { type DrawnShape, drawShape, stopDrawing } from '../../../shared/map/draw-shape';
+import { FieldMap } from '../../../shared/map/field-map/field-map';
+import { HazardLegend } from '../../../shared/map/hazard-legend/hazard-legend';
+import type { HazardFeature, MapField } from '../../../shared/map/map-types';
+import { ConfirmDialog, type ConfirmDialogData } from '../../../shared/ui/confirm-dialog/confirm-dialog';
+import { AreaPipe } from '../../../shared/units/area-pipe';
+import { BoundaryEditor } from '../boundary-editor/boundary-editor';
+import { measureBoundary } from '../boundary-measure';
+import { CropPlans } from '../crop-plans/crop-plans';
+import { type Boundary, type FieldDetail, FieldsApi, fieldUrl } from '../fields-api';
+import { HazardForm, type HazardFormValue } from '../hazard-form/hazard-form';
+import { HazardList } from '../hazard-list/hazard-list';
+
+const SHAPE_NAMES: Record<DrawnShape, string> = { Marker: 'point', Line: 'line', Polygon: 'area' };
+
+/** Hazard being added (drawn geometry) or edited (existing feature). */
+interface HazardEdit {
+  hazard: HazardFeature | null;
+  geometry: Geometry | null;
+  shape: string;
+}
+
+/**
+ * One field: its map with hazards and clearance zones, acres, crop plan, hazards and notes. The
+ * owner edits everything here; operators and viewers read it with no edit controls at all.
+ */
+@Component({
+  selector: 'app-field-page',
+  imports: [
+    AreaPipe,
+    BoundaryEditor,
+    CropPlans,
+    FieldMap,
+    HazardForm,
+    HazardLegend,
+    HazardList,
+    MatButtonModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatProgressBarModule,
+    ReactiveFormsModule,
+    RouterLink,
+  ],
+  templateUrl: './field-page.html',
+  styleUrl: './field-page.scss',
+})
+export class FieldPage {
+  private readonly api = inject(FieldsApi);
+  private readonly dialog = inject(MatDialog);
+  private readonly router = inject(Router);
+  private readonly snackBar = inject(MatSnackBar);
+
+  /** The `:id` route parameter. */
+  readonly id = input.required<string>();
+
+  protected readonly isOwner = inject(AuthStore).isOwner;
+  protected readonly season = new Date().getFullYear();
+  protected readonly field = httpResource<FieldDetail>(() => fieldUrl(Number(this.id()), this.season));
+  protected readonly detail = computed(() => (this.field.hasValue() ? this.field.value() : null));
+  protected readonly loadError = computed(() => {
+    const error = this.field.error();
+    return error ? messageOf(error) : null;
+  });
+  protected readonly mapFields = computed<MapField[]>(() => {
+    const f = this.detail();
+    return f ? [{ id: f.id, name: f.name, boundary: f.boundary }] : [];
+  });
+  protected readonly hazards = computed(() => this.detail()?.hazards.features ?? []);
+  protected readonly hazardKinds = computed(() => [...new Set(this.hazards().map((h) => h.properties.kind))]);
+
+  protected readonly editingBoundary = signal(false);
+  protected readonly draft = signal<Boundary | null>(null);
+  protected readonly draftMeasure = computed(() => measureBoundary(this.draft(), this.detail()?.name));
+  protected readonly drawing = signal<DrawnShape | null>(null);
+  protected readonly hazardEdit = signal<HazardEdit | null>(null);
+  protected readonly highlighted = signal<number | null>(null);
+  protected readonly busy = signal(false);
+  protected readonly boundaryError = signal<string | null>(null);
+  protected readonly hazardError = signal<string | null>(null);
+  protected readonly detailsError = signal<string | null>(null);
+
+  protected readonly details = new FormGroup({
+    name: new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.maxLength(120)] }),
+    notes: new FormControl('', { nonNullable: true, validators: [Validators.maxLength(2000)] }),
+  });
+
+  private map: L.Map | null = null;
+
+  constructor() {
+    // Fill the owner's form from what is saved, but never over what they are typing.
+    effect(() => {
+      const f = this.detail();
+      if (f && !this.details.dirty) this.details.reset({ name: f.name, notes: f.notes ?? '' });
+    });
+  }
+
+  protected mapReady(map: L.Map): void {
+    this.map = map;
+  }
+
+  protected showHazard(id: number): void {
+    this.highlighted.set(id);
+    document.getElementById(`hazard-${id}`)?.scrollIntoView({ block: 'nearest' });
+  }
+
+  // Boundary
+
+  protected editBoundary(): void {
+    this.stopHazardDrawing();
+    this.boundaryError.set(null);
+    this.draft.set(this.detail()?.boundary ?? null);
+    this.editingBoundary.set(true);
+  }
+
+  protected cancelBoundary(): void {
+    this.editingBoundary.set(false);
+    this.boundaryError.set(null);
+  }
+
+  protected saveBoundary(): void {
+    const f = this.detail();
+    const boundary = this.draft();
+    if (!f || this.busy()) return;
+    if (!boundary) {
+      this.boundaryError.set('The field needs a boundary: draw at least one part before saving.');
+      return;
+    }
+    this.write(this.api.update(f.id, { boundary }), this.boundaryError, () => {
+      this.editingBoundary.set(false);
+      this.tell('Boundary saved.');
+    });
+  }
+
+  // Hazards
+
+  protected startHazard(shape: DrawnShape): void {
+    const map = this.map;
+    if (!map) return;
+    this.hazardError.set(null);
+    this.hazardEdit.set(null);
+    this.drawing.set(shape);
+    void drawShape(map, shape).then((geometry) => {
+      this.drawing.set(null);
+      if (geometry) this.hazardEdit.set({ hazard: null, geometry, shape: SHAPE_NAMES[shape] });
+    });
+  }
+
+  protected stopHazardDrawing(): void {
+    if (this.map && this.drawing()) stopDrawing(this.map);
+  }
+
+  protected editHazard(hazard: HazardFeature): void {
+    this.hazardError.set(null);
+    this.hazardEdit.set({ hazard, geometry: null, shape: '' });
+  }
+
+  protected saveHazard(value: HazardFormValue): void {
+    const f = this.detail();
+    const edit = this.hazardEdit();
+    if (!f || !edit || this.busy()) return;
+    const request = edit.hazard
+      ? this.api.updateHazard(f.id, edit.hazard.properties.id, value)
+      : this.api.addHazard(f.id, { ...value, geometry: edit.geometry as Geometry });
+    this.write(request, this.hazardError, () => {
+      this.hazardEdit.set(null);
+      this.tell(edit.hazard ? 'Hazard saved.' : 'Hazard added.');
+    });
+  }
+
+  protected confirmHazard(hazard: HazardFeature): void {
+    const f = this.detail();
+    if (f) this.write(this.api.updateHazard(f.id, hazard.properties.id, { status: 'confirmed' }), this.hazardError, () => this.tell('Hazard confirmed.'));
+  }
+
+  protected removeHazard(hazard: HazardFeature): void {
+    const f = this.detail();
+    if (!f) return;
+    this.ask({ title: 'Remove this hazard?', message: 'It will no longer show on maps, pass plans or run sheets.', confirm: 'Remove' }, () =>
+      this.api.removeHazard(f.id, hazard.properties.id),
+    ).subscribe({
+      next: () => {
+        this.field.reload();
+        this.tell('Hazard removed.');
+      },
+      error: (err: unknown) => this.tell(messageOf(err)),
+    });
+  }
+
+  // Name, notes, crops, the field itself
+
+  protected saveDetails(): void {
+    const f = this.detail();
+    if (!f || this.busy()) return;
+    if (this.details.invalid) {
+      this.details.markAllAsTouched();
+      return;
+    }
+    const { name, notes } = this.details.getRawValue();
+    this.busy.set(true);
+    this.detailsError.set(null);
+    this.api.update(f.id, { name: name.trim(), notes: notes.trim() || null }).subscribe({
+      next: () => {
+        this.busy.set(false);
+        this.details.markAsPristine();
+        this.field.reload();
+        this.tell('Details saved.');
+      },
+      error: (err: unknown) => {
+        this.busy.set(false);
+        this.detailsError.set(applyServerErrors(this.details, err) ?? messageOf(err));
+      },
+    });
+  }
+
+  protected cropsChanged(): void {
+    this.field.reload();
+    this.tell('Crop plan saved.');
+  }
+
+  protected deleteField(): void {
+    const f = this.detail();
+    if (!f) return;
+    const data: ConfirmDialogData = {
+      title: `Delete ${f.name}?`,
+      message: `${f.name}, its boundary, hazards and crop plans will be deleted. This cannot be undone.`,
+      confirm: 'Delete field',
+    };
+    this.ask(data, () => this.api.remove(f.id)).subscribe({
+      next: () => {
+        this.tell(`${f.name} was deleted.`);
+        void this.router.navigateByUrl('/fields');
+      },
+      error: (err: unknown) => this.tell(messageOf(err)),
+    });
+  }
+
+  private ask<T>(data: ConfirmDialogData, then: () => Observable<T>): Observable<T> {
+    return this.dialog
+      .open<ConfirmDialog, ConfirmDialogData, boolean>(ConfirmDialog, { data, autoFocus: 'dialog' })
+      .afterClosed()
+      .pipe(
+        filter((yes) => yes === true),
+        switchMap(then),
+      );
+  }
+
+  /** Sends a change, reloads the field on success, and shows the server's message on failure. */
+  private write<T>(request: Observable<T>, error: ReturnType<typeof signal<string | null>>, done: () => void): void {
+    this.busy.set(true);
+    error.set(null);
+    request.subscribe({
+      next: () => {
+        this.busy.set(false);
+        this.field.reload();
+        done();
+      },
+      error: (err: unknown) => {
+        this.busy.set(false);
+        error.set(messageOf(err));
+      },
+    });
+  }
+
+  private tell(message: string): void {
+    this.snackBar.open(message, 'Close', { duration: 6000 });
+  }
+}

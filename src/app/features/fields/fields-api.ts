@@ -1,0 +1,127 @@
+import { HttpClient, type HttpEvent } from '@angular/common/http';
+import { Injectable, inject } from '@angular/core';
+import type { UnitSystem } from '@shared/schemas/auth';
+import type { ImportPreview } from '@shared/schemas/fields';
+import type { Geometry, MultiPolygon, Polygon } from 'geojson';
+import { type Observable } from 'rxjs';
+import type { HazardCollection, HazardFeature } from '../../shared/map/map-types';
+
+export const FIELDS_URL = '/api/fields';
+export const fieldsUrl = (season: number) => `${FIELDS_URL}?season=${season}`;
+export const fieldUrl = (id: number, season: number) => `${FIELDS_URL}/${id}?season=${season}`;
+export const EXPORT_URL = `${FIELDS_URL}/export.geojson`;
+
+export type Boundary = Polygon | MultiPolygon;
+
+export interface CropPlan {
+  season: number;
+  crop: string;
+  varietyNote: string | null;
+}
+
+/** `GET /api/fields/:id` */
+export interface FieldDetail {
+  id: number;
+  name: string;
+  acres: number;
+  hectares: number;
+  areaM2: number;
+  notes: string | null;
+  boundary: Boundary;
+  hazards: HazardCollection;
+  crop: string | null;
+  crops: CropPlan[];
+  updatedAt: string;
+}
+
+export interface HazardInput {
+  kind: string;
+  geometry: Geometry;
+  /** Metres (0–500). */
+  clearanceM: number;
+  note?: string | null;
+}
+
+export interface FarmSettings {
+  id: number;
+  name: string;
+  units: UnitSystem;
+  dayHoursLimit: number;
+}
+
+export interface ImportSaved {
+  saved: { id: number; name: string; acres: number }[];
+}
+
+/** Writes for the Fields screens (owner only on the server). Reads use httpResource on the URLs above. */
+@Injectable({ providedIn: 'root' })
+export class FieldsApi {
+  private readonly http = inject(HttpClient);
+
+  create(body: { name: string; boundary: Boundary; notes?: string }): Observable<FieldDetail> {
+    return this.http.post<FieldDetail>(FIELDS_URL, body);
+  }
+
+  update(id: number, patch: { name?: string; boundary?: Boundary; notes?: string | null }): Observable<FieldDetail> {
+    return this.http.patch<FieldDetail>(`${FIELDS_URL}/${id}`, patch);
+  }
+
+  remove(id: number): Observable<void> {
+    return this.http.delete<void>(`${FIELDS_URL}/${id}`);
+  }
+
+  addHazard(fieldId: number, body: HazardInput): Observable<HazardFeature> {
+    return this.http.post<HazardFeature>(`${FIELDS_URL}/${fieldId}/hazards`, body);
+  }
+
+  updateHazard(fieldId: number, hazardId: number, patch: Partial<HazardInput> & { status?: 'confirmed' }): Observable<HazardFeature> {
+    return this.http.patch<HazardFeature>(`${FIELDS_URL}/${fieldId}/hazards/${hazardId}`, patch);
+  }
+
+  removeHazard(fieldId: number, hazardId: number): Observable<void> {
+    return this.http.delete<void>(`${FIELDS_URL}/${fieldId}/hazards/${hazardId}`);
+  }
+
+  setCrop(fieldId: number, season: number, body: { crop: string; varietyNote?: string | null }): Observable<CropPlan & { fieldId: number }> {
+    return this.http.put<CropPlan & { fieldId: number }>(`${FIELDS_URL}/${fieldId}/crops/${season}`, body);
+  }
+
+  clearCrop(fieldId: number, season: number): Observable<void> {
+    return this.http.delete<void>(`${FIELDS_URL}/${fieldId}/crops/${season}`);
+  }
+
+  copyCrops(from: number, to: number): Observable<{ copied: number }> {
+    return this.http.post<{ copied: number }>(`/api/crop-plans/${to}/copy`, { from });
+  }
+
+  setUnits(units: UnitSystem): Observable<FarmSettings> {
+    return this.http.patch<FarmSettings>('/api/farm', { units });
+  }
+
+  /** Uploads a boundary file for a preview; events carry the upload progress. */
+  previewImport(file: File, nameAttribute: string | null): Observable<HttpEvent<ImportPreview>> {
+    return this.http.post<ImportPreview>(`${FIELDS_URL}/import`, formOf(file), {
+      params: { dryRun: 'true', ...(nameAttribute ? { nameAttribute } : {}) },
+      reportProgress: true,
+      observe: 'events',
+    });
+  }
+
+  /** Uploads the same file again with the owner's choices; saves all of them or none. */
+  saveImport(file: File, nameAttribute: string | null, selection: { index: number; name: string }[]): Observable<HttpEvent<ImportSaved>> {
+    const form = formOf(file);
+    form.append('selection', JSON.stringify(selection));
+    return this.http.post<ImportSaved>(`${FIELDS_URL}/import`, form, {
+      params: nameAttribute ? { nameAttribute } : {},
+      reportProgress: true,
+      observe: 'events',
+    });
+  }
+}
+
+function formOf(file: File): FormData {
+  const form = new FormData();
+  form.append('file', file, file.name);
+  return form;
+}
+

@@ -1,0 +1,48 @@
+import type { ImportPreview } from '@shared/schemas/fields';
+import { rename, rowsFromPreview, selectionOf, selectionProblems, setAllTicked, setTicked } from './import-selection';
+
+const preview = (names: string[], nameAttribute = 'name'): ImportPreview => ({
+  format: 'kml',
+  attributes: ['name', 'legal'],
+  nameAttribute,
+  features: [
+    { index: 0, name: names[0], acres: 158.2, geometry: {}, properties: {}, errors: [] },
+    { index: 1, name: names[1], acres: null, geometry: {}, properties: {}, errors: ['Ring 1 crosses itself near 47.6° N, 99.9° W'] },
+    { index: 2, name: names[2], acres: 79.9, geometry: {}, properties: {}, errors: [] },
+  ],
+});
+
+describe('upload preview selection', () => {
+  it('when a preview arrives, then usable features are ticked and features with errors are not and cannot be', () => {
+    const rows = rowsFromPreview(preview(['North', 'Bowtie', 'South']));
+    expect(rows.map((r) => [r.ticked, r.tickable])).toEqual([
+      [true, true],
+      [false, false],
+      [true, true],
+    ]);
+    expect(setTicked(rows, 1, true)[1].ticked).toBe(false);
+    expect(setAllTicked(rows, true).map((r) => r.ticked)).toEqual([true, false, true]);
+  });
+
+  it('when the owner unticks one and renames another, then the selection carries exactly those', () => {
+    let rows = rowsFromPreview(preview(['North', 'Bowtie', 'South']));
+    rows = setTicked(rows, 0, false);
+    rows = rename(rows, 2, '  South quarter ');
+    expect(selectionOf(rows)).toEqual([{ index: 2, name: 'South quarter' }]);
+    expect(selectionProblems(rows)).toEqual([]);
+  });
+
+  it('when the preview is re-run with another name attribute, then the new names show and unticked stays unticked', () => {
+    const first = setTicked(rowsFromPreview(preview(['North', 'Bowtie', 'South'])), 2, false);
+    const again = rowsFromPreview(preview(['NE 12-140-71', 'x', 'SW 12-140-71'], 'legal'), first);
+    expect(again.map((r) => r.name)).toEqual(['NE 12-140-71', 'x', 'SW 12-140-71']);
+    expect(again.map((r) => r.ticked)).toEqual([true, false, false]);
+  });
+
+  it('when nothing is ticked, a name is blank or two names repeat, then saving is refused with a reason', () => {
+    const rows = rowsFromPreview(preview(['North', 'Bowtie', 'South']));
+    expect(selectionProblems(setAllTicked(rows, false))).toEqual(['Tick at least one field to save.']);
+    expect(selectionProblems(rename(rows, 0, '  '))).toEqual(['Feature 1 needs a name.']);
+    expect(selectionProblems(rename(rows, 2, 'north'))[0]).toMatch(/Two ticked fields are called “north”/);
+  });
+});

@@ -1,0 +1,87 @@
+import { httpResource } from '@angular/common/http';
+import { Component, computed, inject, signal } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
+import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
+import { MatSnackBar } from '@angular/material/snack-bar';
+import { Router, RouterLink } from '@angular/router';
+import type { FieldSummary } from '@shared/schemas/fields';
+import { messageOf } from '../../../core/http/api-error';
+import { applyServerErrors } from '../../../shared/forms/server-errors';
+import type { MapField } from '../../../shared/map/map-types';
+import { AreaPipe } from '../../../shared/units/area-pipe';
+import { BoundaryEditor } from '../boundary-editor/boundary-editor';
+import { measureBoundary } from '../boundary-measure';
+import { type Boundary, FieldsApi, fieldsUrl } from '../fields-api';
+
+/** The owner draws a new field (parts and holes), sees its acres live, names it and saves it. */
+@Component({
+  selector: 'app-new-field',
+  imports: [AreaPipe, BoundaryEditor, MatButtonModule, MatFormFieldModule, MatInputModule, ReactiveFormsModule, RouterLink],
+  templateUrl: './new-field.html',
+  styleUrl: './new-field.scss',
+})
+export class NewField {
+  private readonly api = inject(FieldsApi);
+  private readonly router = inject(Router);
+  private readonly snackBar = inject(MatSnackBar);
+
+  protected readonly form = new FormGroup({
+    name: new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.maxLength(120)] }),
+    notes: new FormControl('', { nonNullable: true, validators: [Validators.maxLength(2000)] }),
+  });
+  private readonly name = toSignal(this.form.controls.name.valueChanges, { initialValue: '' });
+
+  /** The other fields of the farm, drawn dashed so the new one can be placed beside them. */
+  private readonly existing = httpResource<FieldSummary[]>(() => fieldsUrl(new Date().getFullYear()), { defaultValue: [] });
+  protected readonly context = computed<MapField[]>(() =>
+    (this.existing.hasValue() ? this.existing.value() : []).map((f) => ({ id: f.id, name: f.name, boundary: f.boundary as MapField['boundary'], muted: true })),
+  );
+
+  protected readonly boundary = signal<Boundary | null>(null);
+  protected readonly measure = computed(() => measureBoundary(this.boundary(), this.name()));
+  protected readonly partCount = computed(() => {
+    const b = this.boundary();
+    return b === null ? 0 : b.type === 'Polygon' ? 1 : b.coordinates.length;
+  });
+  protected readonly holeCount = computed(() => {
+    const b = this.boundary();
+    if (!b) return 0;
+    const parts = b.type === 'Polygon' ? [b.coordinates] : b.coordinates;
+    return parts.reduce((n, rings) => n + rings.length - 1, 0);
+  });
+  protected readonly busy = signal(false);
+  protected readonly error = signal<string | null>(null);
+
+  protected drawn(boundary: Boundary | null): void {
+    this.boundary.set(boundary);
+    this.error.set(null);
+  }
+
+  protected save(): void {
+    if (this.busy()) return;
+    const boundary = this.boundary();
+    if (this.form.invalid || !boundary) {
+      this.form.markAllAsTouched();
+      this.error.set(boundary ? null : 'Draw the boundary on the map first: choose “Draw a part” and click its corners.');
+      return;
+    }
+    this.busy.set(true);
+    this.error.set(null);
+    const { name, notes } = this.form.getRawValue();
+    this.api.create({ name: name.trim(), boundary, ...(notes.trim() ? { notes: notes.trim() } : {}) }).subscribe({
+      next: (field) => {
+        this.busy.set(false);
+        this.snackBar.open(`${field.name} saved.`, 'Close', { duration: 6000 });
+        void this.router.navigate(['/fields', field.id]);
+      },
+      error: (err: unknown) => {
+        this.busy.set(false);
+        // The server's own words always show; a per-field note also lands on its input.
+        this.error.set(applyServerErrors(this.form, err) ?? messageOf(err));
+      },
+    });
+  }
+}

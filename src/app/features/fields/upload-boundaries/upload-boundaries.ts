@@ -1,0 +1,161 @@
+import { HttpEventType, type HttpEvent } from '@angular/common/http';
+import { Component, computed, inject, signal } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatCheckboxModule } from '@angular/material/checkbox';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSelectModule } from '@angular/material/select';
+import { MatSnackBar } from '@angular/material/snack-bar';
+import { Router, RouterLink } from '@angular/router';
+import type { ImportPreview } from '@shared/schemas/fields';
+import type { Observable } from 'rxjs';
+import { ApiError, messageOf } from '../../../core/http/api-error';
+import { FieldMap } from '../../../shared/map/field-map/field-map';
+import type { MapField } from '../../../shared/map/map-types';
+import { AreaPipe } from '../../../shared/units/area-pipe';
+import { FieldsApi } from '../fields-api';
+import { type ImportRow, rename, rowsFromPreview, selectionOf, selectionProblems, setAllTicked, setTicked } from '../import-selection';
+
+/** Largest file the server takes, bytes (it answers 413 above). */
+export const MAX_UPLOAD_BYTES = 10 * 1024 * 1024;
+
+const isPolygonal = (g: unknown): g is MapField['boundary'] =>
+  typeof g === 'object' && g !== null && ['Polygon', 'MultiPolygon'].includes((g as { type?: string }).type ?? '');
+
+/**
+ * Upload boundaries from a GeoJSON, KML, KMZ or zipped shapefile: the server previews the file
+ * (nothing saved), the owner ticks and names the fields to keep, then the same file goes up again
+ * with that selection and is saved all at once, or not at all.
+ */
+@Component({
+  selector: 'app-upload-boundaries',
+  imports: [
+    AreaPipe,
+    FieldMap,
+    MatButtonModule,
+    MatCheckboxModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatProgressBarModule,
+    MatSelectModule,
+    RouterLink,
+  ],
+  templateUrl: './upload-boundaries.html',
+  styleUrl: './upload-boundaries.scss',
+})
+export class UploadBoundaries {
+  private readonly api = inject(FieldsApi);
+  private readonly router = inject(Router);
+  private readonly snackBar = inject(MatSnackBar);
+
+  protected readonly file = signal<File | null>(null);
+  protected readonly preview = signal<ImportPreview | null>(null);
+  protected readonly rows = signal<ImportRow[]>([]);
+  /** Upload progress in percent; null when not sending. */
+  protected readonly progress = signal<number | null>(null);
+  protected readonly sending = signal<'preview' | 'save' | null>(null);
+  protected readonly error = signal<string | null>(null);
+  protected readonly serverProblems = signal<string[]>([]);
+  protected readonly triedSave = signal(false);
+
+  protected readonly chosen = computed(() => selectionOf(this.rows()));
+  protected readonly problems = computed(() => selectionProblems(this.rows()));
+  protected readonly allTicked = computed(() => {
+    const tickable = this.rows().filter((r) => r.tickable);
+    return tickable.length > 0 && tickable.every((r) => r.ticked);
+  });
+  protected readonly someTicked = computed(() => this.rows().some((r) => r.ticked) && !this.allTicked());
+  protected readonly mapFields = computed<MapField[]>(() =>
+    this.rows()
+      .filter((r) => r.tickable && isPolygonal(r.geometry))
+      .map((r) => ({ id: r.index, name: r.name || `Feature ${r.index + 1}`, boundary: r.geometry as MapField['boundary'], muted: !r.ticked })),
+  );
+
+  protected choose(input: HTMLInputElement): void {
+    const file = input.files?.[0] ?? null;
+    if (!file) return;
+    this.error.set(null);
+    this.serverProblems.set([]);
+    if (file.size > MAX_UPLOAD_BYTES) {
+      this.error.set(`${file.name} is ${(file.size / 1048576).toFixed(1)} MB; files up to 10 MB can be uploaded.`);
+      return;
+    }
+    this.file.set(file);
+    this.preview.set(null);
+    this.rows.set([]);
+    this.runPreview(null);
+  }
+
+  protected changeNameAttribute(attribute: string): void {
+    this.runPreview(attribute);
+  }
+
+  protected tick(index: number, ticked: boolean): void {
+    this.rows.update((rows) => setTicked(rows, index, ticked));
+  }
+
+  protected tickAll(ticked: boolean): void {
+    this.rows.update((rows) => setAllTicked(rows, ticked));
+  }
+
+  protected rename(index: number, name: string): void {
+    this.rows.update((rows) => rename(rows, index, name));
+  }
+
+  protected save(): void {
+    const file = this.file();
+    if (!file || this.sending()) return;
+    this.triedSave.set(true);
+    if (this.problems().length) return;
+    this.error.set(null);
+    this.serverProblems.set([]);
+    this.send('save', this.api.saveImport(file, this.preview()?.nameAttribute ?? null, this.chosen()), (result) => {
+      const names = result.saved.map((s) => s.name).join(', ');
+      this.snackBar.open(`Saved ${result.saved.length} ${result.saved.length === 1 ? 'field' : 'fields'}: ${names}.`, 'Close', { duration: 8000 });
+      void this.router.navigateByUrl('/fields');
+    });
+  }
+
+  private runPreview(nameAttribute: string | null): void {
+    const file = this.file();
+    if (!file) return;
+    this.error.set(null);
+    this.serverProblems.set([]);
+    this.send('preview', this.api.previewImport(file, nameAttribute), (preview) => {
+      this.preview.set(preview);
+      this.rows.update((previous) => rowsFromPreview(preview, previous));
+      this.triedSave.set(false);
+    });
+  }
+
+  private send<T>(kind: 'preview' | 'save', request: Observable<HttpEvent<T>>, done: (body: T) => void): void {
+    this.sending.set(kind);
+    this.progress.set(0);
+    request.subscribe({
+      next: (event) => {
+        if (event.type === HttpEventType.UploadProgress) {
+          this.progress.set(event.total ? Math.round((100 * event.loaded) / event.total) : null);
+        } else if (event.type === HttpEventType.Response) {
+          this.sending.set(null);
+          this.progress.set(null);
+          if (event.body) done(event.body);
+        }
+      },
+      error: (err: unknown) => {
+        this.sending.set(null);
+        this.progress.set(null);
+        this.error.set(messageOf(err));
+        this.serverProblems.set(err instanceof ApiError ? problemsOf(err) : []);
+      },
+    });
+  }
+}
+
+/** The list a 422 `import_refused` carries beside its message. */
+function problemsOf(error: ApiError): string[] {
+  const extra = error.details['problems'];
+  return Array.isArray(extra) ? extra.filter((p): p is string => typeof p === 'string') : [];
+}

@@ -1,0 +1,88 @@
+import { Component, inject, signal } from '@angular/core';
+import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
+import { MatSelectModule } from '@angular/material/select';
+import { MACHINE_KIND_LABELS, MACHINE_KINDS, type Machine, type MachineInput, type MachineKind, machineBody } from '@shared/schemas/fleet';
+import type { Observable } from 'rxjs';
+import { applyServerErrors } from '../../../shared/forms/server-errors';
+import { zodValidator } from '../../../shared/forms/zod-validator';
+import { problemOf } from '../control-problem';
+import { FleetApi } from '../fleet-api';
+
+export interface MachineFormData {
+  /** The machine to edit; null to add one. */
+  machine: Machine | null;
+}
+
+const shape = machineBody.shape;
+
+/** Adds or edits a tractor or self-propelled machine; closes with the saved machine. */
+@Component({
+  selector: 'app-machine-form',
+  imports: [MatButtonModule, MatDialogModule, MatFormFieldModule, MatInputModule, MatSelectModule, ReactiveFormsModule],
+  templateUrl: './machine-form.html',
+  styleUrl: './machine-form.scss',
+})
+export class MachineForm {
+  private readonly api = inject(FleetApi);
+  private readonly dialogRef = inject<MatDialogRef<MachineForm, Machine>>(MatDialogRef);
+  protected readonly data = inject<MachineFormData>(MAT_DIALOG_DATA);
+
+  protected readonly kinds = MACHINE_KINDS.map((kind) => ({ kind, label: MACHINE_KIND_LABELS[kind] }));
+  protected readonly problemOf = problemOf;
+  protected readonly busy = signal(false);
+  protected readonly error = signal<string | null>(null);
+
+  protected readonly form = new FormGroup({
+    name: new FormControl(this.data.machine?.name ?? '', {
+      nonNullable: true,
+      validators: [Validators.required, zodValidator(shape.name)],
+    }),
+    kind: new FormControl<MachineKind | null>(this.data.machine?.kind ?? null, { validators: [Validators.required] }),
+    powerHp: new FormControl<number | null>(this.data.machine?.powerHp ?? null, {
+      validators: [Validators.required, zodValidator(shape.powerHp)],
+    }),
+    engineHours: new FormControl<number | null>(this.data.machine?.engineHours ?? 0, {
+      validators: [Validators.required, zodValidator(shape.engineHours)],
+    }),
+    serviceIntervalHours: new FormControl<number | null>(this.data.machine?.serviceIntervalHours ?? null, {
+      validators: [zodValidator(shape.serviceIntervalHours)],
+    }),
+    hoursAtLastService: new FormControl<number | null>(this.data.machine?.hoursAtLastService ?? null, {
+      validators: [zodValidator(shape.hoursAtLastService)],
+    }),
+    notes: new FormControl(this.data.machine?.notes ?? '', { nonNullable: true, validators: [zodValidator(shape.notes)] }),
+  });
+
+  protected submit(): void {
+    if (this.busy()) return;
+    if (this.form.invalid) {
+      this.form.markAllAsTouched();
+      return;
+    }
+    const v = this.form.getRawValue();
+    const body: MachineInput = {
+      name: v.name.trim(),
+      kind: v.kind as MachineKind,
+      powerHp: v.powerHp as number,
+      engineHours: v.engineHours ?? 0,
+      serviceIntervalHours: v.serviceIntervalHours,
+      hoursAtLastService: v.hoursAtLastService,
+      notes: v.notes.trim() || null,
+    };
+    const id = this.data.machine?.id;
+    const save: Observable<Machine> = id ? this.api.updateMachine(id, body) : this.api.createMachine(body);
+    this.busy.set(true);
+    this.error.set(null);
+    save.subscribe({
+      next: (machine) => this.dialogRef.close(machine),
+      error: (err: unknown) => {
+        this.busy.set(false);
+        this.error.set(applyServerErrors(this.form, err));
+      },
+    });
+  }
+}

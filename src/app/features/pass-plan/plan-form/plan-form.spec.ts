@@ -1,0 +1,103 @@
+import { type ComponentFixture, TestBed } from '@angular/core/testing';
+import { MATERIAL_ANIMATIONS } from '@angular/material/core';
+import type { Implement } from '@shared/schemas/fleet';
+import type { PlanSettings } from '../plan-settings';
+import { PlanForm } from './plan-form';
+
+const HARROW: Implement = {
+  id: 4,
+  name: '84 ft heavy harrow',
+  kind: 'harrow',
+  widthM: 25.6032,
+  transportWidthM: null,
+  operations: ['harrowing'],
+  machineIds: [],
+  minPowerHp: null,
+  notes: null,
+};
+
+const SETTINGS: PlanSettings = {
+  implementId: null,
+  implementKind: 'harrow',
+  width: 60,
+  headlandPasses: 2,
+  autoHeading: true,
+  headingDeg: 0,
+  speed: 8,
+  efficiencyPct: 70,
+  turnSeconds: 30,
+  coverage: 'gaps-ok',
+};
+
+describe('PlanForm', () => {
+  let fixture: ComponentFixture<PlanForm>;
+  let form: HTMLElement;
+  let changes: PlanSettings[];
+
+  beforeEach(async () => {
+    TestBed.configureTestingModule({ providers: [{ provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } }] });
+    fixture = TestBed.createComponent(PlanForm);
+    form = fixture.nativeElement as HTMLElement;
+    changes = [];
+    fixture.componentRef.setInput('settings', SETTINGS);
+    fixture.componentRef.setInput('operation', 'harrowing');
+    fixture.componentRef.setInput('headingUsed', 87.4);
+    fixture.componentInstance.settings.subscribe((s) => changes.push(s));
+    await fixture.whenStable();
+  });
+
+  afterEach(() => document.querySelectorAll('.cdk-overlay-container').forEach((el) => (el.innerHTML = '')));
+
+  const input = (name: string) => form.querySelector(`input[name="${name}"]`) as HTMLInputElement;
+
+  it('when Auto is on, then the heading boxes are off and show the heading the planner chose', async () => {
+    await fixture.whenStable();
+    expect(input('heading').disabled).toBe(true);
+    expect(input('heading').value).toBe('87');
+  });
+
+  it('when Auto is switched off, then the heading starts from the one Auto chose', async () => {
+    (form.querySelector('mat-slide-toggle button') as HTMLButtonElement).click();
+    await fixture.whenStable();
+    expect(changes.at(-1)).toMatchObject({ autoHeading: false, headingDeg: 87 });
+  });
+
+  it('when the slider moves, then the heading follows while dragging', async () => {
+    fixture.componentRef.setInput('settings', { ...SETTINGS, autoHeading: false });
+    await fixture.whenStable();
+    const thumb = form.querySelector('input[matSliderThumb]') as HTMLInputElement;
+    thumb.value = '120';
+    thumb.dispatchEvent(new Event('input'));
+    expect(changes.at(-1)?.headingDeg).toBe(120);
+  });
+
+  it('when a fleet implement is picked, then its kind, width and the kind defaults fill in', async () => {
+    fixture.componentRef.setInput('implements', [HARROW]);
+    await fixture.whenStable();
+    (form.querySelector('mat-select .mat-mdc-select-trigger') as HTMLElement).click();
+    await fixture.whenStable();
+    const option = [...document.querySelectorAll('mat-option')].find((o) => o.textContent?.trim() === '84 ft heavy harrow') as HTMLElement;
+    option.click();
+    await fixture.whenStable();
+    // ASABE D497.7 Table 3, from memory: spring-tooth harrow 7.0 mph, 85 %.
+    expect(changes.at(-1)).toMatchObject({ implementId: 4, implementKind: 'harrow', width: 84, speed: 7, efficiencyPct: 85 });
+  });
+
+  it('when the defaults are asked for, then speed, efficiency and turn time come back with their source shown', async () => {
+    expect(form.textContent).toContain('ASABE D497.7 Table 3, from memory (spring-tooth harrow)');
+    expect(form.textContent).toContain('common practice, no published source');
+    [...form.querySelectorAll('button')].find((b) => b.textContent?.trim() === 'Use the defaults')?.click();
+    await fixture.whenStable();
+    expect(changes.at(-1)).toMatchObject({ speed: 7, efficiencyPct: 85, turnSeconds: 20 });
+  });
+
+  it('when read-only, then the settings show as text with no inputs', async () => {
+    fixture.componentRef.setInput('readonly', true);
+    await fixture.whenStable();
+    expect(form.querySelectorAll('input')).toHaveLength(0);
+    const rows = Object.fromEntries(
+      [...form.querySelectorAll('dt')].map((dt) => [dt.textContent?.trim(), dt.nextElementSibling?.textContent?.trim()]),
+    );
+    expect(rows).toMatchObject({ 'Working width': '60 ft', Heading: '87° (auto, fewest turns)', Coverage: 'Gaps allowed', Speed: '8 mph' });
+  });
+});

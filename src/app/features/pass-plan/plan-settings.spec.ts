@@ -1,0 +1,104 @@
+import type { Implement } from '@shared/schemas/fleet';
+import { FIELD, savedPlan } from './plan-fixtures';
+import { type PlanSettings, defaultSettings, sameAsSaved, settingsBody, settingsFromSaved, toPlanInput } from './plan-settings';
+
+const HARROW: Implement = {
+  id: 4,
+  name: '84 ft heavy harrow',
+  kind: 'harrow',
+  widthM: 25.6032,
+  transportWidthM: null,
+  operations: ['harrowing'],
+  machineIds: [],
+  minPowerHp: null,
+  notes: null,
+};
+
+const US: PlanSettings = {
+  implementId: null,
+  implementKind: 'harrow',
+  width: 60,
+  headlandPasses: 2,
+  autoHeading: false,
+  headingDeg: 35,
+  speed: 7,
+  efficiencyPct: 85,
+  turnSeconds: 20,
+  coverage: 'gaps-ok',
+};
+
+describe('plan settings', () => {
+  it('when the farm uses feet and mph, then the input is in metres, mph and a fraction', () => {
+    // 1 ft = 0.3048 m exactly (NIST & NOAA/NGS, 85 FR 62698).
+    const input = toPlanInput(US, FIELD, 'us');
+    expect(input.widthM).toBeCloseTo(18.288, 9);
+    expect(input.speedMph).toBe(7);
+    expect(input.efficiency).toBeCloseTo(0.85, 12);
+    expect(input.headingDeg).toBe(35);
+    expect(input.headlandPasses).toBe(2);
+    expect(input.implementKind).toBe('harrow');
+    expect(input.coverage).toBe('gaps-ok');
+    expect(input.boundary).toBe(FIELD.boundary);
+    expect(input.hazards).toBe(FIELD.hazards);
+    expect(input.fieldName).toBe('Home Quarter');
+    expect('implementId' in input).toBe(false);
+  });
+
+  it('when the farm is metric, then metres stay metres and km/h become mph', () => {
+    // 1 mile = 1609.344 m, so 12 km/h = 12000 / 1609.344 mph.
+    const body = settingsBody({ ...US, width: 12, speed: 12, autoHeading: true }, 'metric');
+    expect(body.widthM).toBe(12);
+    expect(body.speedMph).toBeCloseTo(12_000 / 1609.344, 9);
+    expect(body.headingDeg).toBe('auto');
+  });
+
+  it('when a box is empty, then the error names it in the farm units', () => {
+    expect(() => toPlanInput({ ...US, width: null }, FIELD, 'us')).toThrow('Enter the working width in feet.');
+    expect(() => settingsBody({ ...US, width: null }, 'metric')).toThrow('Enter the working width in metres.');
+    expect(() => settingsBody({ ...US, speed: null }, 'metric')).toThrow('Enter the working speed in km/h.');
+    expect(() => settingsBody({ ...US, headlandPasses: null }, 'us')).toThrow(/headland passes/);
+  });
+
+  it('when out-of-range values are typed, then they pass through for the planner to explain', () => {
+    expect(settingsBody({ ...US, width: -5, headingDeg: 200 }, 'us')).toMatchObject({ widthM: -5 * 0.3048, headingDeg: 200 });
+  });
+
+  it('when an operation is chosen on a farm with a fleet, then its implement, width and the coverage rule are the defaults', () => {
+    const s = defaultSettings('harrowing', [HARROW], 'us');
+    expect(s).toMatchObject({
+      implementId: 4,
+      implementKind: 'harrow',
+      width: 84,
+      coverage: 'gaps-ok',
+      autoHeading: true,
+      headlandPasses: 2,
+    });
+    // ASABE D497.7 Table 3, from memory: spring-tooth harrow 7.0 mph, 85 %.
+    expect(s).toMatchObject({ speed: 7, efficiencyPct: 85, turnSeconds: 20 });
+  });
+
+  it('when there is no fleet implement for it, then the kind comes from the operation and the width is empty', () => {
+    const s = defaultSettings('seeding', [HARROW], 'metric');
+    expect(s).toMatchObject({ implementId: null, implementKind: 'air-drill', width: null, coverage: 'full' });
+    // 5 mph = 8.04672 km/h.
+    expect(s.speed).toBe(8);
+  });
+
+  it('when a plan is saved, then the form reads it back and matches it', () => {
+    const saved = savedPlan({ headingDeg: null, implementId: 4 });
+    const s = settingsFromSaved(saved, [HARROW], 'us');
+    expect(s).toMatchObject({
+      implementId: 4,
+      implementKind: 'harrow',
+      width: 84,
+      autoHeading: true,
+      headingDeg: 90,
+      speed: 7,
+      efficiencyPct: 85,
+    });
+    expect(sameAsSaved(s, saved, 'us')).toBe(true);
+    expect(sameAsSaved({ ...s, autoHeading: false }, saved, 'us')).toBe(false);
+    expect(sameAsSaved({ ...s, width: 80 }, saved, 'us')).toBe(false);
+    expect(sameAsSaved({ ...s, width: null }, saved, 'us')).toBe(false);
+  });
+});

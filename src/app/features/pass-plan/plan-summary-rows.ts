@@ -1,0 +1,97 @@
+import type { PlanResult } from '@shared/plan/types';
+import type { UnitSystem } from '@shared/schemas/auth';
+import { MILE_M, mphToKmh } from '@shared/units';
+import { formatArea } from '../../shared/units/units';
+
+/** One line of the plan's summary card. */
+export interface SummaryRow {
+  /** Stable key, for tests and tracking. */
+  key: string;
+  label: string;
+  value: string;
+  /** Smaller text under the value: how it was worked out. */
+  note?: string;
+}
+
+const oneDecimal = new Intl.NumberFormat('en-US', { minimumFractionDigits: 1, maximumFractionDigits: 1 });
+const whole = new Intl.NumberFormat('en-US', { maximumFractionDigits: 0 });
+const ok = (v: number): boolean => Number.isFinite(v);
+const dec = (v: number): string => (ok(v) ? oneDecimal.format(v) : '—');
+const int = (v: number): string => (ok(v) ? whole.format(v) : '—');
+const plural = (n: number, one: string, many: string): string => `${int(n)} ${n === 1 ? one : many}`;
+
+/** A distance in miles or kilometres, one decimal. */
+export function formatDistance(metres: number, system: UnitSystem): string {
+  if (!ok(metres)) return '—';
+  return system === 'metric' ? `${dec(metres / 1000)} km` : `${dec(metres / MILE_M)} mi`;
+}
+
+/** A speed given in mph, in mph or km/h. */
+export function formatSpeed(mph: number, system: UnitSystem): string {
+  if (!ok(mph)) return '—';
+  return system === 'metric' ? `${dec(mphToKmh(mph))} km/h` : `${dec(mph)} mph`;
+}
+
+/**
+ * The figures of a plan as the summary card shows them, in the farm's units. Anything that is not
+ * a finite number shows as "—", never as NaN.
+ *
+ * @param autoHeading whether the planner chose the heading (fewest turns)
+ */
+export function summaryRows(r: PlanResult, system: UnitSystem, autoHeading: boolean): SummaryRow[] {
+  const area = (acres: number) => formatArea(acres, system);
+  const metric = system === 'metric';
+  const strip =
+    r.coverage === 'full'
+      ? { key: 'overlap', label: 'Overlap', value: area(r.overlapAcres), note: 'worked twice, where the last pass overlaps the one before' }
+      : { key: 'unworked', label: 'Unworked', value: area(r.unworkedAcres), note: 'corners and strips the passes leave' };
+  return [
+    { key: 'field', label: 'Field', value: area(r.fieldAcres) },
+    {
+      key: 'headland',
+      label: 'Headland',
+      value: area(r.headlandAcres),
+      note: plural(r.headlandPasses, 'lap', 'laps') + ' around the edge',
+    },
+    { key: 'worked', label: 'Worked by the passes', value: area(r.workedAcres) },
+    strip,
+    {
+      key: 'passes',
+      label: 'Passes',
+      value: int(r.passCount),
+      note: r.segmentCount > r.passCount ? `${int(r.segmentCount)} segments: some passes are split by hazards or holes` : undefined,
+    },
+    { key: 'turns', label: 'Turns', value: int(r.turns) },
+    {
+      key: 'distance',
+      label: 'Total distance',
+      value: formatDistance(r.totalDistanceM, system),
+      note: `passes ${formatDistance(r.passLengthM, system)} + headland ${formatDistance(r.headlandLengthM, system)}`,
+    },
+    {
+      key: 'hours',
+      label: 'Hours',
+      value: `${dec(r.hours)} h`,
+      note: `driving at ${formatSpeed(r.speedMph, system)} plus ${int(r.turnSeconds)} s per turn; capacity rule ${dec(r.capacityHours)} h`,
+    },
+    metric
+      ? {
+          key: 'capacity',
+          label: 'Hectares per hour',
+          value: `${dec(r.capacityHaPerHour)} ha/h`,
+          note: 'effective field capacity = speed (km/h) × width (m) × field efficiency ÷ 10 (GRDC)',
+        }
+      : {
+          key: 'capacity',
+          label: 'Acres per hour',
+          value: `${dec(r.capacityAcresPerHour)} ac/h`,
+          note: 'effective field capacity = width (ft) × speed (mph) × field efficiency ÷ 8.25 (AEN-73)',
+        },
+    {
+      key: 'heading',
+      label: 'Heading',
+      value: ok(r.headingDeg) ? `${int(r.headingDeg)}°` : '—',
+      note: autoHeading ? 'chosen for the fewest turns' : 'degrees clockwise from north',
+    },
+  ];
+}

@@ -1,0 +1,61 @@
+import { Component, inject, signal } from '@angular/core';
+import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
+import { MatRadioModule } from '@angular/material/radio';
+import { CALL_OFF_REASONS, type RunSheetItem } from '@shared/schemas/board';
+import { RunSheetApi } from '../run-sheet-api';
+import { sendFailure } from '../send-failure';
+import type { JobDialogData } from '../start-dialog/start-dialog';
+
+type Reason = (typeof CALL_OFF_REASONS)[number];
+const REASON_LABELS: Record<Reason, string> = { weather: 'Weather', breakdown: 'Breakdown', other: 'Other' };
+
+/** Call a job off: why (weather, breakdown, other) and a note, needed for "other". */
+@Component({
+  selector: 'app-call-off-dialog',
+  imports: [MatButtonModule, MatDialogModule, MatFormFieldModule, MatInputModule, MatRadioModule, ReactiveFormsModule],
+  templateUrl: './call-off-dialog.html',
+  styleUrl: '../job-dialog.scss',
+})
+export class CallOffDialog {
+  private readonly api = inject(RunSheetApi);
+  private readonly ref = inject<MatDialogRef<CallOffDialog, RunSheetItem>>(MatDialogRef);
+  protected readonly data = inject<JobDialogData>(MAT_DIALOG_DATA);
+
+  protected readonly reasons = CALL_OFF_REASONS.map((value) => ({ value, label: REASON_LABELS[value] }));
+  protected readonly form = new FormGroup({
+    reason: new FormControl<Reason | null>(null, Validators.required),
+    note: new FormControl('', { nonNullable: true, validators: [Validators.maxLength(1000)] }),
+  });
+  protected readonly busy = signal(false);
+  protected readonly error = signal<string | null>(null);
+
+  protected submit(): void {
+    if (this.busy()) return;
+    const v = this.form.getRawValue();
+    if (v.reason === 'other' && !v.note.trim()) this.form.controls.note.setErrors({ required: true });
+    if (this.form.invalid) {
+      this.form.markAllAsTouched();
+      return;
+    }
+    this.busy.set(true);
+    this.error.set(null);
+    this.api
+      .event(this.data.item.id, {
+        type: 'call-off',
+        reason: v.reason!,
+        ...(v.note.trim() ? { note: v.note.trim() } : {}),
+        at: this.data.at,
+      })
+      .subscribe({
+        next: (item) => this.ref.close(item),
+        error: (err: unknown) => {
+          this.busy.set(false);
+          this.error.set(sendFailure(err, 'Call off', this.form));
+        },
+      });
+  }
+}

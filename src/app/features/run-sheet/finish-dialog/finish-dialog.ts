@@ -1,0 +1,78 @@
+import { Component, computed, inject, signal } from '@angular/core';
+import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
+import type { RunSheetItem } from '@shared/schemas/board';
+import { ACRE_M2, HA_M2, acresToHa } from '@shared/units';
+import { Units } from '../../../shared/units/units';
+import { finishDefaults } from '../job-actions';
+import { RunSheetApi } from '../run-sheet-api';
+import { sendFailure } from '../send-failure';
+import type { JobDialogData } from '../start-dialog/start-dialog';
+
+const round2 = (n: number) => Math.round(n * 100) / 100;
+
+/** Finish a job: area done (acres, or hectares on a metric farm) and the engine-hour meter at the end. */
+@Component({
+  selector: 'app-finish-dialog',
+  imports: [MatButtonModule, MatDialogModule, MatFormFieldModule, MatInputModule, ReactiveFormsModule],
+  templateUrl: './finish-dialog.html',
+  styleUrl: '../job-dialog.scss',
+})
+export class FinishDialog {
+  private readonly api = inject(RunSheetApi);
+  private readonly ref = inject<MatDialogRef<FinishDialog, RunSheetItem>>(MatDialogRef);
+  private readonly units = inject(Units);
+  protected readonly data = inject<JobDialogData>(MAT_DIALOG_DATA);
+
+  protected readonly metric = computed(() => this.units.system() === 'metric');
+  protected readonly areaLabel = computed(() => (this.metric() ? 'Hectares done' : 'Acres done'));
+  protected readonly areaUnit = computed(() => (this.metric() ? 'ha' : 'ac'));
+  protected readonly planned = this.units.area(this.data.item.acresPlanned);
+
+  private readonly defaults = finishDefaults(this.data.item);
+  protected readonly form = new FormGroup({
+    acres: new FormControl<number | null>(this.metric() ? round2(acresToHa(this.defaults.acres)) : this.defaults.acres, [
+      Validators.required,
+      Validators.min(0.01),
+      Validators.max(100_000),
+    ]),
+    engineHours: new FormControl<number | null>(this.defaults.engineHours, [
+      Validators.required,
+      Validators.min(0),
+      Validators.max(200_000),
+    ]),
+    note: new FormControl('', { nonNullable: true, validators: [Validators.maxLength(1000)] }),
+  });
+  protected readonly busy = signal(false);
+  protected readonly error = signal<string | null>(null);
+
+  protected submit(): void {
+    if (this.busy()) return;
+    if (this.form.invalid) {
+      this.form.markAllAsTouched();
+      return;
+    }
+    const v = this.form.getRawValue();
+    const acres = this.metric() ? round2((v.acres! * HA_M2) / ACRE_M2) : v.acres!;
+    this.busy.set(true);
+    this.error.set(null);
+    this.api
+      .event(this.data.item.id, {
+        type: 'finish',
+        acres,
+        engineHours: v.engineHours!,
+        ...(v.note.trim() ? { note: v.note.trim() } : {}),
+        at: this.data.at,
+      })
+      .subscribe({
+        next: (item) => this.ref.close(item),
+        error: (err: unknown) => {
+          this.busy.set(false);
+          this.error.set(sendFailure(err, 'Finish', this.form));
+        },
+      });
+  }
+}

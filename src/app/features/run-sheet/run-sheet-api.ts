@@ -1,0 +1,20 @@
+import { HttpClient } from '@angular/common/http';
+import { Injectable, inject } from '@angular/core';
+import type { EventInput, ProblemInput, RunSheetItem } from '@shared/schemas/board';
+import { type Observable } from 'rxjs';
+
+export const runSheetUrl = (day: string) => `/api/run-sheet?date=${day}`;
+
+/** What an operator logs on a job; each call answers with the job as it now is. Reads use httpResource on runSheetUrl. */
+@Injectable({ providedIn: 'root' })
+export class RunSheetApi {
+  private readonly http = inject(HttpClient);
+
+  event(id: number, body: EventInput): Observable<RunSheetItem> {
+    return this.http.post<RunSheetItem>(`/api/assignments/${id}/events`, body);
+  }
+
+  problem(id: number, body: ProblemInput): Observable<RunSheetItem> {
+    return this.http.post<RunSheetItem>(`/api/assignments/${id}/problems`, body);
+  }
+}

@@ -1,0 +1,95 @@
+import { provideHttpClient, withInterceptors } from '@angular/common/http';
+import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { type ComponentFixture, TestBed } from '@angular/core/testing';
+import { MATERIAL_ANIMATIONS } from '@angular/material/core';
+import { provideRouter } from '@angular/router';
+import type { RunSheet } from '@shared/schemas/board';
+import { AuthStore } from '../../../core/auth/auth-store';
+import { errorInterceptor } from '../../../core/http/error.interceptor';
+import { FieldMap } from '../../../shared/map/field-map/field-map';
+import { FieldMapStub } from '../../../shared/map/field-map/field-map-stub';
+import { MILO, TOMAS, job } from '../../board/testing/board-fixtures';
+import { RunSheetJob } from '../run-sheet-job/run-sheet-job';
+import { RunSheetPage, firstOpen } from './run-sheet-page';
+
+describe('RunSheetPage', () => {
+  let fixture: ComponentFixture<RunSheetPage>;
+  let http: HttpTestingController;
+  let el: HTMLElement;
+
+  beforeEach(() => {
+    TestBed.configureTestingModule({
+      imports: [RunSheetPage],
+      providers: [
+        provideRouter([]),
+        provideHttpClient(withInterceptors([errorInterceptor])),
+        provideHttpClientTesting(),
+        { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
+      ],
+    });
+    TestBed.overrideComponent(RunSheetJob, { remove: { imports: [FieldMap] }, add: { imports: [FieldMapStub] } });
+    TestBed.inject(AuthStore).signedInAs({
+      user: { id: 2, email: 't@example.test', name: 'Tomas Reyes' },
+      farm: { id: 1, name: 'F', units: 'us' },
+      role: 'operator',
+    });
+    http = TestBed.inject(HttpTestingController);
+    fixture = TestBed.createComponent(RunSheetPage);
+    fixture.componentRef.setInput('date', '2031-05-15');
+    el = fixture.nativeElement as HTMLElement;
+    fixture.detectChanges();
+  });
+
+  afterEach(() => http.verify());
+
+  const sheet = (assignments: RunSheet['assignments']): RunSheet => ({ date: '2031-05-15', person: TOMAS, assignments });
+
+  it('when the day is in the address, then that day is asked for and its jobs show in time order under one h1', async () => {
+    const harrow = job({ id: 1, role: 'mentor', operator: MILO, startTime: '07:00', field: { ...job().field, name: 'North Section' } });
+    const seed = job({ id: 2, operation: 'seeding', startTime: '11:00', field: { ...job().field, name: 'Tamarack Flats' } });
+    http.expectOne('/api/run-sheet?date=2031-05-15').flush(sheet([seed, harrow]));
+    await fixture.whenStable();
+    expect(el.querySelectorAll('h1')).toHaveLength(1);
+    expect([...el.querySelectorAll('.job-title')].map((t) => t.textContent?.trim())).toEqual([
+      '1. North Section · Harrowing',
+      '2. Tamarack Flats · Seeding',
+    ]);
+    expect(el.textContent).toContain('mentoring Milo Sorensen');
+    // The person's own job opens first, not the one they mentor.
+    expect(el.querySelector('[data-job="2"] app-run-sheet-job')).not.toBeNull();
+    expect(el.querySelector('[data-job="1"] app-run-sheet-job')).toBeNull();
+  });
+
+  it('when a logged action answers with the job, then the sheet shows its new state', async () => {
+    http.expectOne('/api/run-sheet?date=2031-05-15').flush(sheet([job({ id: 7 })]));
+    await fixture.whenStable();
+    const jobView = fixture.debugElement.query((d) => d.componentInstance instanceof RunSheetJob);
+    (jobView.componentInstance as RunSheetJob).changed.emit(job({ id: 7, state: 'underway' }));
+    await fixture.whenStable();
+    expect(el.querySelector('.job-sub .state')?.textContent?.trim()).toBe('underway');
+  });
+
+  it('when the day has no jobs, then it says so', async () => {
+    http.expectOne('/api/run-sheet?date=2031-05-15').flush(sheet([]));
+    await fixture.whenStable();
+    expect(el.textContent).toContain('Nothing on your run sheet for this day.');
+  });
+
+  it('when the sheet cannot load, then the server message shows with Try again', async () => {
+    http.expectOne('/api/run-sheet?date=2031-05-15').error(new ProgressEvent('error'), { status: 0, statusText: '' });
+    await fixture.whenStable();
+    expect(el.querySelector('[role="alert"]')?.textContent).toContain('Cannot reach Furlong');
+    (el.querySelector('[role="alert"] button') as HTMLButtonElement).click();
+    TestBed.tick();
+    http.expectOne('/api/run-sheet?date=2031-05-15').flush(sheet([]));
+    await fixture.whenStable();
+  });
+});
+
+describe('firstOpen', () => {
+  it('when one job is underway, then it opens before planned ones; with none of the person’s own, a mentored one opens', () => {
+    expect(firstOpen([job({ id: 1 }), job({ id: 2, state: 'underway' })])).toBe(2);
+    expect(firstOpen([job({ id: 1, state: 'finished' }), job({ id: 3, role: 'mentor' })])).toBe(3);
+    expect(firstOpen([job({ id: 1, state: 'finished' })])).toBeNull();
+  });
+});

@@ -1,0 +1,110 @@
+import { httpResource } from '@angular/common/http';
+import { Component, computed, inject, input, signal } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { provideNativeDateAdapter } from '@angular/material/core';
+import { type MatDatepickerInputEvent, MatDatepickerModule } from '@angular/material/datepicker';
+import { MatExpansionModule } from '@angular/material/expansion';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { Router } from '@angular/router';
+import { OPERATION_INFO } from '@shared/operations';
+import { type RunSheet, type RunSheetItem, STATE_LABELS } from '@shared/schemas/board';
+import { messageOf } from '../../../core/http/api-error';
+import { addDays, dateOf, isIsoDay, isoDay, longDay, today } from '../../board/board-day';
+import { RunSheetJob } from '../run-sheet-job/run-sheet-job';
+import { runSheetUrl } from '../run-sheet-api';
+
+const OPEN_FIRST: RunSheetItem['state'][] = ['underway', 'paused', 'planned'];
+
+/** The job to open first: the person's own job that is going, else paused, else next; then one they mentor. */
+export function firstOpen(items: readonly RunSheetItem[]): number | null {
+  for (const role of ['operator', 'mentor'] as const) {
+    for (const state of OPEN_FIRST) {
+      const found = items.find((i) => i.role === role && i.state === state);
+      if (found) return found.id;
+    }
+  }
+  return null;
+}
+
+/**
+ * The signed-in person's run sheet for a day (today unless `?date=` says otherwise): their jobs in
+ * running order, each opening to its map, hazards, cautions, pass plan and the buttons to log it.
+ */
+@Component({
+  selector: 'app-run-sheet-page',
+  imports: [
+    MatButtonModule,
+    MatDatepickerModule,
+    MatExpansionModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatProgressBarModule,
+    RunSheetJob,
+  ],
+  providers: [provideNativeDateAdapter()],
+  templateUrl: './run-sheet-page.html',
+  styleUrl: './run-sheet-page.scss',
+})
+export class RunSheetPage {
+  private readonly router = inject(Router);
+
+  /** `?date=YYYY-MM-DD` from the address. */
+  readonly date = input<string | undefined>();
+
+  protected readonly day = computed(() => {
+    const asked = this.date();
+    return isIsoDay(asked) ? asked : today();
+  });
+  protected readonly dayDate = computed(() => dateOf(this.day()));
+  protected readonly dayLabel = computed(() => longDay(this.day()));
+
+  protected readonly sheet = httpResource<RunSheet>(() => runSheetUrl(this.day()));
+  protected readonly items = computed(() =>
+    this.sheet.hasValue() && this.sheet.value()
+      ? [...this.sheet.value()!.assignments].sort((a, b) => a.startTime.localeCompare(b.startTime) || a.order - b.order || a.id - b.id)
+      : [],
+  );
+  protected readonly loadError = computed(() => {
+    const error = this.sheet.error();
+    return error ? messageOf(error) : null;
+  });
+  private readonly chosen = signal<{ day: string; id: number | null } | null>(null);
+  protected readonly openId = computed(() => {
+    const chosen = this.chosen();
+    return chosen && chosen.day === this.day() ? chosen.id : firstOpen(this.items());
+  });
+
+  protected readonly stateLabels = STATE_LABELS;
+
+  protected operationLabel(item: RunSheetItem): string {
+    return OPERATION_INFO[item.operation].label;
+  }
+
+  protected opened(id: number): void {
+    this.chosen.set({ day: this.day(), id });
+  }
+
+  protected closed(id: number): void {
+    if (this.openId() === id) this.chosen.set({ day: this.day(), id: null });
+  }
+
+  protected goTo(day: string): void {
+    void this.router.navigate([], { queryParams: { date: day }, queryParamsHandling: 'merge', replaceUrl: true });
+  }
+
+  protected step(days: number): void {
+    this.goTo(addDays(this.day(), days));
+  }
+
+  protected picked(event: MatDatepickerInputEvent<Date>): void {
+    if (event.value) this.goTo(isoDay(event.value));
+  }
+
+  protected replace(item: RunSheetItem): void {
+    this.sheet.update((sheet) => (sheet ? { ...sheet, assignments: sheet.assignments.map((a) => (a.id === item.id ? item : a)) } : sheet));
+  }
+}

@@ -1,0 +1,147 @@
+import { OPERATIONS, type Operation } from '@shared/operations';
+import type { OperationSeason, SeasonSummary } from '@shared/schemas/season';
+import { activeOperations, compareTable, fieldsTable, formatCell, machinesTable, operationsTable, peopleTable, totalsOf, weekCharts, weekLabel, type Column } from './season-shaping';
+
+/** Hectares per acre: 4,046.8564224 m² (international foot, exact) ÷ 10,000 m². */
+const HA_PER_ACRE = 0.40468564224;
+
+function op(operation: Operation, over: Partial<OperationSeason> = {}): OperationSeason {
+  return {
+    operation,
+    acresPlanned: 0,
+    acresCovered: 0,
+    acresFinished: 0,
+    hoursLogged: 0,
+    engineHours: 0,
+    plannedHours: null,
+    acresWithPlan: 0,
+    acresPerHour: null,
+    plannedAcresPerHour: null,
+    progress: 0,
+    jobsFinished: 0,
+    jobsCalledOff: 0,
+    ...over,
+  };
+}
+
+function summary(year: number, ops: Partial<Record<Operation, Partial<OperationSeason>>>): SeasonSummary {
+  return {
+    year,
+    operations: OPERATIONS.map((o) => op(o, ops[o])),
+    weekly: [
+      { operation: 'seeding', week: `${year}-04-27`, acresFinished: 100, cumulativeAcres: 100 },
+      { operation: 'seeding', week: `${year}-05-04`, acresFinished: 0, cumulativeAcres: 100 },
+      { operation: 'seeding', week: `${year}-05-11`, acresFinished: 60.5, cumulativeAcres: 160.5 },
+      { operation: 'harrowing', week: `${year}-04-27`, acresFinished: 80, cumulativeAcres: 80 },
+      { operation: 'harrowing', week: `${year}-05-04`, acresFinished: 120, cumulativeAcres: 200 },
+      { operation: 'harrowing', week: `${year}-05-11`, acresFinished: 0, cumulativeAcres: 200 },
+    ],
+    byField: [
+      { fieldId: 1, field: 'North', crop: 'durum', acres: 160.5, operations: { seeding: { acres: 160.5, hours: 6, dateFinished: `${year}-05-12` }, harrowing: { acres: 120, hours: 3, dateFinished: null } }, totalAcres: 280.5, totalHours: 9 },
+      { fieldId: 2, field: 'South', crop: null, acres: 80, operations: { harrowing: { acres: 80, hours: 2, dateFinished: `${year}-04-28` } }, totalAcres: 80, totalHours: 2 },
+      { fieldId: 3, field: 'West', crop: 'canola', acres: 40, operations: {}, totalAcres: 0, totalHours: 0 },
+    ],
+    byPerson: [
+      { membershipId: 7, name: 'Ada', operations: { seeding: { acres: 160.5, hours: 6 } }, totalAcres: 160.5, totalHours: 6, acresPerHour: 26.75 },
+      { membershipId: 8, name: 'Tomas', operations: { harrowing: { acres: 200, hours: 5 } }, totalAcres: 200, totalHours: 5, acresPerHour: 40 },
+    ],
+    byMachine: [
+      { machineId: 1, machine: 'Big tractor', engineHours: 12.5, acres: 360.5, hours: 11, acresPerEngineHour: 28.84, operations: [{ operation: 'harrowing', acres: 200, hours: 5, engineHours: 5.5 }, { operation: 'seeding', acres: 160.5, hours: 6, engineHours: 7 }] },
+    ],
+    totals: { acresFinished: 360.5, hoursLogged: 11, engineHours: 12.5, acresPerHour: 32.77, jobsFinished: 4, jobsCalledOff: 1, fieldsWorked: 2 },
+  };
+}
+
+const S = summary(2026, {
+  harrowing: { acresPlanned: 280.5, acresCovered: 200, acresFinished: 200, hoursLogged: 5, acresPerHour: 40, progress: 200 / 280.5, plannedHours: 4, acresWithPlan: 160.5, plannedAcresPerHour: 160.5 / 4 },
+  seeding: { acresPlanned: 200.5, acresCovered: 160.5, acresFinished: 160.5, hoursLogged: 6, acresPerHour: 26.75, progress: 160.5 / 200.5, jobsCalledOff: 1 },
+  spraying: { acresPlanned: 200.5 },
+});
+
+describe('season shaping', () => {
+  it('when an operation has nothing planned, done or called off, then it gets no row or card', () => {
+    expect(activeOperations(S)).toEqual(['harrowing', 'seeding', 'spraying']);
+    expect(operationsTable(S, 'us').rows.map((r) => r['operation'])).toEqual(['Harrowing', 'Seeding', 'Spraying']);
+  });
+
+  it('when weeks come per operation, then each chart follows the season order with its own running total and busiest week', () => {
+    const charts = weekCharts(S.weekly, 'us');
+    expect(charts.map((c) => c.operation)).toEqual(['harrowing', 'seeding']);
+    const seeding = S.weekly.filter((w) => w.operation === 'seeding');
+    expect(charts[1].weekly).toEqual(seeding.map((w) => w.acresFinished));
+    expect(charts[1].cumulative).toEqual(seeding.map((w) => w.cumulativeAcres));
+    expect(charts[1].total).toBe(seeding[seeding.length - 1].cumulativeAcres);
+    expect(charts[0].busiestWeek).toBe('2026-05-04');
+    expect(weekLabel('2026-05-04')).toBe('May 4');
+  });
+
+  it('when the farm is metric, then chart and table areas are hectares', () => {
+    const [harrow] = weekCharts(S.weekly, 'metric');
+    expect(harrow.total).toBeCloseTo(200 * HA_PER_ACRE, 9);
+    const t = fieldsTable(S, 'metric');
+    expect(t.columns.find((c) => c.key === 'area')!.label).toBe('Area (ha)');
+    expect(t.rows[0]['area']).toBeCloseTo(160.5 * HA_PER_ACRE, 9);
+    expect(t.totals['area']).toBeCloseTo((160.5 + 80 + 40) * HA_PER_ACRE, 9);
+    expect(operationsTable(S, 'metric').rows[0]['rate']).toBeCloseTo(40 * HA_PER_ACRE, 9);
+  });
+
+  it('when totals are made, then areas and hours add up and rates are the ratio of the sums, not the sum of the rates', () => {
+    const t = operationsTable(S, 'us');
+    const planned = S.operations.reduce((s, o) => s + (activeOperations(S).includes(o.operation) ? o.acresPlanned : 0), 0);
+    expect(t.totals['planned']).toBeCloseTo(planned, 9);
+    expect(t.totals['finished']).toBeCloseTo(200 + 160.5, 9);
+    expect(t.totals['hours']).toBeCloseTo(5 + 6, 9);
+    expect(t.totals['rate']).toBeCloseTo((200 + 160.5) / (5 + 6), 9);
+    expect(t.totals['progress']).toBeCloseTo((200 + 160.5) / planned, 9);
+    expect(t.totals['plannedRate']).toBeCloseTo(160.5 / 4, 9);
+    expect(t.totals['operation']).toBe('All operations');
+  });
+
+  it('when a rate has nothing to divide by, or a column is all gaps, then its total is empty rather than infinite or zero', () => {
+    const cols: Column[] = [
+      { key: 'a', label: 'a', kind: 'area', total: { sum: true } },
+      { key: 'h', label: 'h', kind: 'hours', total: { sum: true } },
+      { key: 'r', label: 'r', kind: 'rate', total: { ratio: ['a', 'h'] } },
+    ];
+    expect(totalsOf(cols, [{ a: 10, h: 0, r: null }])).toEqual({ a: 10, h: 0, r: null });
+    expect(totalsOf(cols, [{ a: null, h: null, r: null }])).toEqual({ a: null, h: null, r: null });
+  });
+
+  it('when fields are listed, then each operation done this season is a column with the day it was finished', () => {
+    const t = fieldsTable(S, 'us');
+    expect(t.columns.map((c) => c.key)).toEqual(['field', 'crop', 'area', 'harrowing', 'seeding', 'hours']);
+    const north = t.rows.find((r) => r['field'] === 'North')!;
+    expect(north['seedingDone']).toBe('done May 12');
+    expect(north['harrowingDone']).toBeNull();
+    expect(t.rows.find((r) => r['field'] === 'West')!['harrowing']).toBeNull();
+    expect(t.totals['harrowing']).toBe(120 + 80);
+    expect(t.totals['field']).toBe('3 fields');
+  });
+
+  it('when people and machines are listed, then their totals match the season totals', () => {
+    const p = peopleTable(S, 'us');
+    expect(p.totals['area']).toBeCloseTo(S.byPerson.reduce((s, x) => s + x.totalAcres, 0), 9);
+    expect(p.totals['rate']).toBeCloseTo(S.byPerson.reduce((s, x) => s + x.totalAcres, 0) / S.byPerson.reduce((s, x) => s + x.totalHours, 0), 9);
+    const m = machinesTable(S, 'us');
+    expect(m.rows[0]['operations']).toBe('Harrowing, Seeding');
+    expect(m.totals['rate']).toBeCloseTo(360.5 / 12.5, 9);
+  });
+
+  it('when two seasons are compared, then each operation shows both years and the change', () => {
+    const before = summary(2025, { harrowing: { acresPlanned: 100, acresFinished: 90, hoursLogged: 3, acresPerHour: 30, progress: 0.9 }, baling: { acresFinished: 12, hoursLogged: 1 } });
+    const t = compareTable(before, S, 'us');
+    expect(t.rows.map((r) => r['operation'])).toEqual(['Harrowing', 'Seeding', 'Spraying', 'Baling']);
+    const h = t.rows[0];
+    expect([h['areaA'], h['areaB'], h['change']]).toEqual([90, 200, 200 - 90]);
+    expect(t.rows[3]['progressA']).toBeNull();
+    expect(t.columns[1].label).toBe('2025 (ac)');
+    expect(t.totals['change']).toBeCloseTo(S.totals.acresFinished - (90 + 12), 9);
+  });
+
+  it('when cells are formatted, then numbers get one decimal and thousands, shares whole percent, and gaps a dash', () => {
+    expect(formatCell(1234.56, 'area')).toBe('1,234.6');
+    expect(formatCell(0.8004, 'percent')).toBe('80 %');
+    expect(formatCell(null, 'rate')).toBe('—');
+    expect(formatCell('North', 'text')).toBe('North');
+  });
+});
