@@ -15,6 +15,7 @@ import { formatMinutes } from './clock';
 import type { ConflictCard, Skills } from './conflicts';
 import { planHours } from './plan-hours';
 import { schedule } from './schedule';
+import { roundTo } from '../../shared/round';
 
 export interface DayContext {
   farmId: number;
@@ -31,7 +32,6 @@ export interface DayContext {
 }
 
 export const planKey = (fieldId: number, operation: Operation) => `${fieldId}|${operation}`;
-const round2 = (n: number) => Math.round(n * 100) / 100;
 
 /** The season a day belongs to: its calendar year. */
 export const seasonOf = (day: string): number => Number(day.slice(0, 4));
@@ -39,7 +39,7 @@ export const seasonOf = (day: string): number => Number(day.slice(0, 4));
 /** Field acres less what other jobs finished this season for that operation, ≥ 0. */
 export function acresToDo(v: Pick<AssignmentView, 'field_acres' | 'state' | 'acres_done'>, doneThisSeason: number): number {
   const own = v.state === 'finished' ? (v.acres_done ?? 0) : 0;
-  return Math.max(0, round2(v.field_acres - (doneThisSeason - own)));
+  return Math.max(0, roundTo(v.field_acres - (doneThisSeason - own)));
 }
 
 function toAssignment(v: AssignmentView, done: number, plan: DbPassPlanRow | undefined): BoardAssignment {
@@ -49,7 +49,7 @@ function toAssignment(v: AssignmentView, done: number, plan: DbPassPlanRow | und
     date: v.day,
     order: v.run_order,
     state: v.state,
-    field: { id: v.field_id, name: v.field_name, acres: round2(v.field_acres) },
+    field: { id: v.field_id, name: v.field_name, acres: roundTo(v.field_acres) },
     operation: v.operation,
     operator: { membershipId: v.operator_id, name: v.operator_name },
     machine: { id: v.machine_id, name: v.machine_name, kind: v.machine_kind },
@@ -59,7 +59,7 @@ function toAssignment(v: AssignmentView, done: number, plan: DbPassPlanRow | und
     plannedEnd: v.end_min == null ? null : formatMinutes(v.end_min),
     startTime: '',
     endTime: '',
-    acresPlanned: round2(v.acres_planned),
+    acresPlanned: roundTo(v.acres_planned),
     acresToDo: acresToDo(v, done),
     planHours: hours.hours,
     planSource: hours.source,

@@ -1,6 +1,7 @@
 import { effectiveCapacityAcPerH } from '../../shared/plan/field-capacity';
 import { implementDefaults, type ImplementKind } from '../../shared/plan/implement-defaults';
 import { mToFt } from '../../shared/units';
+import { roundTo } from '../../shared/round';
 
 export interface PlanHours {
   hours: number;
@@ -25,11 +26,10 @@ export function planHours(
   planSummaryHours?: unknown,
 ): PlanHours {
   if (typeof planSummaryHours === 'number' && Number.isFinite(planSummaryHours) && planSummaryHours > 0 && fieldAcres > 0) {
-    return { hours: round2(planSummaryHours * (acresPlanned / fieldAcres)), source: 'pass-plan' };
+    return { hours: roundTo(planSummaryHours * (acresPlanned / fieldAcres)), source: 'pass-plan' };
   }
   const d = implementDefaults(implement.kind);
   const capacity = effectiveCapacityAcPerH(mToFt(implement.widthM), d.speedMph, d.efficiency);
-  return { hours: round2(capacity > 0 ? acresPlanned / capacity : 0), source: 'estimate' };
+  return { hours: roundTo(capacity > 0 ? acresPlanned / capacity : 0), source: 'estimate' };
 }
 
-const round2 = (n: number) => Math.round(n * 100) / 100;

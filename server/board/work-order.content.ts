@@ -7,6 +7,7 @@ import { HAZARD_LABELS, type HazardKind } from '../../shared/schemas/fields';
 import { mToFt } from '../../shared/units';
 import type { DayContext } from './day-context';
 import { planKey } from './day-context';
+import { roundTo } from '../../shared/round';
 
 export interface OrderHazard {
   label: string;
@@ -44,7 +45,6 @@ export interface OrderContent {
   link: string;
 }
 
-const round1 = (n: number) => Math.round(n * 10) / 10;
 const num = (v: unknown): number | null => (typeof v === 'number' && Number.isFinite(v) ? v : null);
 
 export const dateLabel = (day: string): string => DateTime.fromISO(day).setLocale('en-US').toFormat('cccc, LLLL d, yyyy');
@@ -71,7 +71,7 @@ export function orderContent(ctx: DayContext, person: { membershipId: number; na
       acresPlanned: a.acresPlanned,
       machine: a.machine.name,
       implement: a.implement.name,
-      widthFt: round1(mToFt(a.implement.widthM)),
+      widthFt: roundTo(mToFt(a.implement.widthM), 1),
       operator: a.operator.name,
       mentor: a.mentor?.name ?? null,
       hazards: ctx.hazards
@@ -79,7 +79,7 @@ export function orderContent(ctx: DayContext, person: { membershipId: number; na
         .map((h) => ({
           label: HAZARD_LABELS[h.kind as HazardKind] ?? h.kind,
           clearanceFt: Math.round(mToFt(h.clearance_m)),
-          clearanceM: round1(h.clearance_m),
+          clearanceM: roundTo(h.clearance_m, 1),
           note: h.note,
           reported: h.status === 'reported',
         })),

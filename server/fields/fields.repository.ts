@@ -42,18 +42,24 @@ export interface FieldListRow extends DbFieldRow {
 }
 
 export function listFields(db: Tx, farmId: number, season: number): Promise<FieldListRow[]> {
-  return db('fields as f')
-    .leftJoin('crop_plans as c', (j) => j.on('c.field_id', 'f.id').andOn('c.season', db.raw('?', [season])))
-    .where('f.farm_id', farmId)
-    .orderByRaw('lower(f.name)')
-    .select(
-      'f.*',
-      'c.crop',
-      db.raw('(select count(*)::int from hazards h where h.field_id = f.id) as hazard_count'),
-      // The last job finished on the field (any season), for the fields table.
-      db.raw(`(select a.operation from assignments a where a.field_id = f.id and a.state = 'finished' order by a.day desc, a.finished_at desc nulls last limit 1) as last_operation`),
-      db.raw(`(select a.day from assignments a where a.field_id = f.id and a.state = 'finished' order by a.day desc, a.finished_at desc nulls last limit 1) as last_operation_day`),
-    );
+  return (
+    db('fields as f')
+      .leftJoin('crop_plans as c', (j) => j.on('c.field_id', 'f.id').andOn('c.season', db.raw('?', [season])))
+      // The last job finished on the field (any season), for the fields table: one lookup per field.
+      .joinRaw(
+        `left join lateral (select a.operation, a.day from assignments a
+           where a.field_id = f.id and a.state = 'finished' order by a.day desc, a.finished_at desc nulls last limit 1) last on true`,
+      )
+      .where('f.farm_id', farmId)
+      .orderByRaw('lower(f.name)')
+      .select(
+        'f.*',
+        'c.crop',
+        db.raw('(select count(*)::int from hazards h where h.field_id = f.id) as hazard_count'),
+        'last.operation as last_operation',
+        'last.day as last_operation_day',
+      )
+  );
 }
 
 export const getField = (db: Tx, farmId: number, id: number) => db<DbFieldRow>('fields').where({ farm_id: farmId, id }).first();

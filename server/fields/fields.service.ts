@@ -8,6 +8,7 @@ import type { Tx } from '../db/knex';
 import { AppError, notFound } from '../http/errors';
 import { checkHazardGeometry, measureBoundary } from './geometry';
 import * as repo from './fields.repository';
+import { roundTo } from '../../shared/round';
 
 export const currentSeason = (): number => new Date().getFullYear();
 
@@ -23,15 +24,14 @@ export function hazardFeature(h: repo.DbHazardRow): Feature<Geometry> {
   };
 }
 
-const round = (n: number, d = 2) => Math.round(n * 10 ** d) / 10 ** d;
 
 export async function listFields(deps: AppDeps, farmId: number, season = currentSeason()): Promise<FieldSummary[]> {
   const rows = await repo.listFields(deps.db, farmId, season);
   return rows.map((r) => ({
     id: r.id,
     name: r.name,
-    acres: round(r.acres),
-    hectares: round(acresToHa(r.acres)),
+    acres: roundTo(r.acres),
+    hectares: roundTo(acresToHa(r.acres)),
     crop: r.crop,
     hazardCount: r.hazard_count,
     lastOperation: r.last_operation ? { operation: r.last_operation, date: r.last_operation_day! } : null,
@@ -47,8 +47,8 @@ export async function getField(deps: AppDeps, farmId: number, id: number, season
   return {
     id: f.id,
     name: f.name,
-    acres: round(f.acres, 4),
-    hectares: round(acresToHa(f.acres), 4),
+    acres: roundTo(f.acres, 4),
+    hectares: roundTo(acresToHa(f.acres), 4),
     areaM2: f.area_m2,
     notes: f.notes,
     boundary: f.boundary,
@@ -160,7 +160,7 @@ export async function exportGeoJson(deps: AppDeps, farmId: number, season = curr
   const features: Feature[] = fields.map((f) => ({
     type: 'Feature',
     geometry: f.boundary as Polygon | MultiPolygon,
-    properties: { type: 'field', id: f.id, name: f.name, acres: round(f.acres, 4), hectares: round(acresToHa(f.acres), 4), crop: f.crop, season },
+    properties: { type: 'field', id: f.id, name: f.name, acres: roundTo(f.acres, 4), hectares: roundTo(acresToHa(f.acres), 4), crop: f.crop, season },
   }));
   for (const h of hazards) {
     const feat = hazardFeature(h);

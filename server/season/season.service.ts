@@ -13,10 +13,10 @@ import { OPERATIONS, type Operation } from '../../shared/operations';
 import type { FieldSeason, MachineSeason, OperationSeason, PersonSeason, SeasonIndex, SeasonSummary } from '../../shared/schemas/season';
 import type { AppDeps } from '../app-deps';
 import * as repo from './season.repository';
+import { roundTo } from '../../shared/round';
 
-const round2 = (n: number) => Math.round(n * 100) / 100;
 /** a ÷ b to 2 decimals, or null when there is nothing to divide by. */
-const ratio = (a: number, b: number | null) => (b && b > 0 ? round2(a / b) : null);
+const ratio = (a: number, b: number | null) => (b && b > 0 ? roundTo(a / b) : null);
 
 export async function seasonSummary(deps: AppDeps, farmId: number, year: number): Promise<SeasonSummary> {
   const { operationLogs: logs, operationPlans: plans, weeks, fields, fieldOperations: fieldOps, personOperations: personOps, machineOperations: machineOps } =
@@ -33,13 +33,13 @@ export async function seasonSummary(deps: AppDeps, farmId: number, year: number)
     const plannedHours = p?.planned_hours ?? null;
     return {
       operation,
-      acresPlanned: round2(acresPlanned),
-      acresCovered: round2(p?.acres_covered ?? 0),
-      acresFinished: round2(acresFinished),
-      hoursLogged: round2(hoursLogged),
-      engineHours: round2(l?.engine_hours ?? 0),
-      plannedHours: plannedHours === null ? null : round2(plannedHours),
-      acresWithPlan: round2(p?.acres_with_plan ?? 0),
+      acresPlanned: roundTo(acresPlanned),
+      acresCovered: roundTo(p?.acres_covered ?? 0),
+      acresFinished: roundTo(acresFinished),
+      hoursLogged: roundTo(hoursLogged),
+      engineHours: roundTo(l?.engine_hours ?? 0),
+      plannedHours: plannedHours === null ? null : roundTo(plannedHours),
+      acresWithPlan: roundTo(p?.acres_with_plan ?? 0),
       acresPerHour: ratio(acresFinished, hoursLogged),
       plannedAcresPerHour: ratio(p?.acres_with_plan ?? 0, plannedHours),
       progress: acresPlanned > 0 ? Math.min(1, Math.round(((p?.acres_covered ?? 0) / acresPlanned) * 10_000) / 10_000) : 0,
@@ -53,14 +53,14 @@ export async function seasonSummary(deps: AppDeps, farmId: number, year: number)
   return {
     year,
     operations,
-    weekly: weeks.map((w) => ({ operation: w.operation, week: w.week, acresFinished: round2(w.acres), cumulativeAcres: round2(w.cumulative) })),
+    weekly: weeks.map((w) => ({ operation: w.operation, week: w.week, acresFinished: roundTo(w.acres), cumulativeAcres: roundTo(w.cumulative) })),
     byField: byField(fields, fieldOps),
     byPerson: byPerson(personOps),
     byMachine: byMachine(machineOps),
     totals: {
-      acresFinished: round2(totalAcres),
-      hoursLogged: round2(totalHours),
-      engineHours: round2(logs.reduce((s, l) => s + l.engine_hours, 0)),
+      acresFinished: roundTo(totalAcres),
+      hoursLogged: roundTo(totalHours),
+      engineHours: roundTo(logs.reduce((s, l) => s + l.engine_hours, 0)),
       acresPerHour: ratio(totalAcres, totalHours),
       jobsFinished: logs.reduce((s, l) => s + l.jobs_finished, 0),
       jobsCalledOff: logs.reduce((s, l) => s + l.jobs_called_off, 0),
@@ -71,35 +71,35 @@ export async function seasonSummary(deps: AppDeps, farmId: number, year: number)
 
 function byField(fields: repo.FieldRow[], rows: repo.FieldOperationRow[]): FieldSeason[] {
   const out = new Map<number, FieldSeason>(
-    fields.map((f) => [f.id, { fieldId: f.id, field: f.name, crop: f.crop, acres: round2(f.acres), operations: {}, totalAcres: 0, totalHours: 0 }]),
+    fields.map((f) => [f.id, { fieldId: f.id, field: f.name, crop: f.crop, acres: roundTo(f.acres), operations: {}, totalAcres: 0, totalHours: 0 }]),
   );
   for (const r of [...rows].sort((a, b) => OPERATIONS.indexOf(a.operation) - OPERATIONS.indexOf(b.operation))) {
     const f = out.get(r.field_id);
     if (!f) continue;
-    f.operations[r.operation] = { acres: round2(r.acres), hours: round2(r.hours), dateFinished: r.date_finished };
+    f.operations[r.operation] = { acres: roundTo(r.acres), hours: roundTo(r.hours), dateFinished: r.date_finished };
     f.totalAcres += r.acres;
     f.totalHours += r.hours;
   }
-  return [...out.values()].map((f) => ({ ...f, totalAcres: round2(f.totalAcres), totalHours: round2(f.totalHours) }));
+  return [...out.values()].map((f) => ({ ...f, totalAcres: roundTo(f.totalAcres), totalHours: roundTo(f.totalHours) }));
 }
 
 function byPerson(rows: repo.PersonOperationRow[]): PersonSeason[] {
   const out = new Map<number, PersonSeason>();
   for (const r of rows) {
     const p = out.get(r.membership_id) ?? { membershipId: r.membership_id, name: r.name, operations: {}, totalAcres: 0, totalHours: 0, acresPerHour: null };
-    p.operations[r.operation] = { acres: round2(r.acres), hours: round2(r.hours) };
+    p.operations[r.operation] = { acres: roundTo(r.acres), hours: roundTo(r.hours) };
     p.totalAcres += r.acres;
     p.totalHours += r.hours;
     out.set(r.membership_id, p);
   }
-  return [...out.values()].map((p) => ({ ...p, totalAcres: round2(p.totalAcres), totalHours: round2(p.totalHours), acresPerHour: ratio(p.totalAcres, p.totalHours) }));
+  return [...out.values()].map((p) => ({ ...p, totalAcres: roundTo(p.totalAcres), totalHours: roundTo(p.totalHours), acresPerHour: ratio(p.totalAcres, p.totalHours) }));
 }
 
 function byMachine(rows: repo.MachineOperationRow[]): MachineSeason[] {
   const out = new Map<number, MachineSeason>();
   for (const r of rows) {
     const m = out.get(r.machine_id) ?? { machineId: r.machine_id, machine: r.name, engineHours: 0, acres: 0, hours: 0, acresPerEngineHour: null, operations: [] };
-    m.operations.push({ operation: r.operation as Operation, acres: round2(r.acres), hours: round2(r.hours), engineHours: round2(r.engine_hours) });
+    m.operations.push({ operation: r.operation as Operation, acres: roundTo(r.acres), hours: roundTo(r.hours), engineHours: roundTo(r.engine_hours) });
     m.engineHours += r.engine_hours;
     m.acres += r.acres;
     m.hours += r.hours;
@@ -107,9 +107,9 @@ function byMachine(rows: repo.MachineOperationRow[]): MachineSeason[] {
   }
   return [...out.values()].map((m) => ({
     ...m,
-    engineHours: round2(m.engineHours),
-    acres: round2(m.acres),
-    hours: round2(m.hours),
+    engineHours: roundTo(m.engineHours),
+    acres: roundTo(m.acres),
+    hours: roundTo(m.hours),
     acresPerEngineHour: ratio(m.acres, m.engineHours),
   }));
 }
@@ -119,7 +119,7 @@ export async function seasonIndex(deps: AppDeps, farmId: number, today = new Dat
   const rows = await repo.seasonYears(deps.db, farmId);
   const current = today.getUTCFullYear();
   const worked = rows.filter((r) => r.jobs > 0).map((r) => r.year);
-  const seasons = rows.map((r) => ({ year: r.year, acresFinished: round2(r.acres), jobs: r.jobs }));
+  const seasons = rows.map((r) => ({ year: r.year, acresFinished: roundTo(r.acres), jobs: r.jobs }));
   if (!seasons.some((s) => s.year === current)) seasons.push({ year: current, acresFinished: 0, jobs: 0 });
   seasons.sort((a, b) => b.year - a.year);
   return { current, latestWorked: worked.length ? Math.max(...worked) : current, seasons };
