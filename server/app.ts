@@ -5,9 +5,10 @@ import express, { type Express } from 'express';
 import session from 'express-session';
 import type { AppDeps } from './app-deps';
 import { authRoutes } from './auth/auth.routes';
-import { createPassport } from './auth/passport';
+import { createPassport, restorePrincipal } from './auth/passport';
 import { healthRoutes } from './health/health.routes';
 import { csrfProtection } from './http/csrf';
+import type { SessionStore } from './http/session';
 import { AppError, apiNotFound, errorHandler } from './http/errors';
 import { Routes, type RouteEntry } from './http/routes';
 import { nonceOf, securityHeaders } from './http/security';
@@ -22,7 +23,7 @@ import { jobLogRoutes, runSheetRoutes } from './run-sheet/run-sheet.routes';
 import { seasonRoutes } from './season/season.routes';
 
 export interface CreateAppOptions extends AppDeps {
-  sessionStore: session.Store;
+  sessions: SessionStore;
   /** The built Angular app; defaults to dist/furlong/browser. */
   staticDir?: string;
 }
@@ -45,7 +46,7 @@ export function createApp(deps: CreateAppOptions): Express {
     session({
       name: 'furlong.sid',
       secret: config.sessionSecret,
-      store: deps.sessionStore,
+      store: deps.sessions.store,
       resave: false,
       saveUninitialized: false,
       rolling: true,
@@ -53,7 +54,7 @@ export function createApp(deps: CreateAppOptions): Express {
     }),
   );
   const passport = createPassport(deps);
-  api.use(passport.session());
+  api.use(restorePrincipal(deps.sessions));
   api.use(csrfProtection(config.sessionSecret, config.secureCookies));
 
   const mount = (prefix: string, build: (r: Routes) => void) => {

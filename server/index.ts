@@ -30,14 +30,18 @@ async function main(): Promise<void> {
   const worker = new OutboxWorker(db, createTransport(config.smtpUrl, mailPort), { from: config.mailFrom });
   worker.start();
 
-  const app = createApp({ config, db, sessionStore: sessions.store, nudgeMail: () => worker.nudge() });
+  const app = createApp({ config, db, sessions, nudgeMail: () => worker.nudge() });
   const server = app.listen(config.port, config.host, () => {
     console.log(`Furlong API and app listening on http://${config.host}:${config.port}`);
   });
 
   const shutdown = async () => {
-    server.close();
-    server.closeAllConnections();
+    // Let requests under way finish (idle keep-alive sockets close now), then close the rest.
+    const closed = new Promise((r) => server.close(r));
+    server.closeIdleConnections();
+    const force = setTimeout(() => server.closeAllConnections(), 5000);
+    await closed;
+    clearTimeout(force);
     await worker.stop();
     await fakeMail?.stop();
     await sessions.close();

@@ -45,7 +45,10 @@ export function authRoutes(r: Routes, deps: AppDeps, passport: ReturnType<typeof
     res.json(auth.toMe(principal(req)));
   });
 
-  r.post('/login', 'public', perAddress, perAccount, (req, res, next) => {
+  // Only these routes sign in or out, so only they get passport's req.login and req.logout.
+  const signing = passport.initialize();
+
+  r.post('/login', 'public', signing, perAddress, perAccount, (req, res, next) => {
     body(req, loginBody);
     passport.authenticate('local', (err: unknown, user: SessionPrincipal | false) => {
       if (err) return next(err);
@@ -54,7 +57,7 @@ export function authRoutes(r: Routes, deps: AppDeps, passport: ReturnType<typeof
     })(req, res, next);
   });
 
-  r.post('/logout', 'public', (req, res, next) => {
+  r.post('/logout', 'public', signing, (req, res, next) => {
     req.logout((err) => {
       if (err) return next(err);
       req.session.destroy(() => {
@@ -75,7 +78,7 @@ export function authRoutes(r: Routes, deps: AppDeps, passport: ReturnType<typeof
     res.json(await auth.tokenInfo(deps, token));
   });
 
-  r.post('/set-password', 'public', mailLimit, async (req, res, next) => {
+  r.post('/set-password', 'public', signing, mailLimit, async (req, res, next) => {
     const input = body(req, setPasswordBody);
     const user = await auth.setPasswordWithToken(deps, input.token, input.password, input.name);
     signIn(req, res, next, user);

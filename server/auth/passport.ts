@@ -1,9 +1,10 @@
+import type { RequestHandler } from 'express';
 import { Passport } from 'passport';
 import { Strategy as LocalStrategy } from 'passport-local';
 import type { AppDeps } from '../app-deps';
+import type { SessionStore } from '../http/session';
 import type { SessionPrincipal } from '../http/session-user';
 import { verifyLogin } from './auth.service';
-import { loadPrincipal } from './users.repository';
 
 interface StoredUser {
   userId: number;
@@ -11,8 +12,9 @@ interface StoredUser {
 }
 
 /**
- * One passport instance per app. The session keeps only ids; every request reloads the
- * membership, so a removed member or a changed role takes effect at once.
+ * One passport instance per app, for signing in and out (the routes that do so use its
+ * `initialize()`). The session keeps only ids; `restorePrincipal` reloads the membership on
+ * every request, so a removed member or a changed role takes effect at once.
  */
 export function createPassport(deps: AppDeps): InstanceType<typeof Passport> {
   const passport = new Passport();
@@ -25,8 +27,23 @@ export function createPassport(deps: AppDeps): InstanceType<typeof Passport> {
     const p = user as SessionPrincipal;
     done(null, { userId: p.id, membershipId: p.membershipId } satisfies StoredUser);
   });
-  passport.deserializeUser((stored: StoredUser, done) => {
-    loadPrincipal(deps.db, stored.userId, stored.membershipId).then((p) => done(null, p ?? false), done);
-  });
   return passport;
+}
+
+/**
+ * Who is signed in, for every API request: what `passport.session()` does, without the sign-in
+ * and sign-out helpers it attaches to each request (only the auth routes need them). Measured
+ * with `npm run bench -- server`, that set-up cost about as much as the rest of a cached request.
+ * A session whose membership is no longer active loses its sign-in, as with passport.
+ */
+export function restorePrincipal(sessions: Pick<SessionStore, 'principal'>): RequestHandler {
+  return (req, _res, next) => {
+    const login = (req.session as { passport?: { user?: StoredUser } } | undefined)?.passport;
+    if (!login?.user) return next();
+    sessions.principal(login.user.userId, login.user.membershipId).then((p) => {
+      if (p) req.user = p;
+      else delete login.user;
+      next();
+    }, next);
+  };
 }

@@ -16,14 +16,24 @@ export async function setPasswordHash(db: Tx, userId: number, hash: string, name
   await db('users').where({ id: userId }).update({ password_hash: hash, ...(name ? { name } : {}) });
 }
 
+/**
+ * The principal for a user acting in one membership, or nothing if it is not active. Every
+ * signed-in request runs it (see `createSessionStore`), so it is plain SQL, kept here once, and
+ * sent there as a named (prepared) statement: PostgreSQL plans the join once per connection.
+ */
+export const PRINCIPAL_SQL = `
+  select u.id, u.email, u.name, m.id as "membershipId", f.id as "farmId", f.name as "farmName", f.units, m.role,
+         coalesce(r.revision, 0)::text as "farmRevision"
+  from memberships m
+  join users u on u.id = m.user_id
+  join farms f on f.id = m.farm_id
+  left join farm_revisions r on r.farm_id = m.farm_id
+  where m.id = ? and m.user_id = ? and m.status = 'active'`;
+
 /** The principal for a user acting in one membership, or undefined if it is not active. */
 export async function loadPrincipal(db: Tx, userId: number, membershipId: number): Promise<SessionPrincipal | undefined> {
-  const row = await db('memberships as m')
-    .join('users as u', 'u.id', 'm.user_id')
-    .join('farms as f', 'f.id', 'm.farm_id')
-    .where({ 'm.id': membershipId, 'm.user_id': userId, 'm.status': 'active' })
-    .first('u.id', 'u.email', 'u.name', 'm.id as membershipId', 'f.id as farmId', 'f.name as farmName', 'f.units', 'm.role');
-  return row as SessionPrincipal | undefined;
+  const { rows } = await db.raw<{ rows: SessionPrincipal[] }>(PRINCIPAL_SQL, [membershipId, userId]);
+  return rows[0];
 }
 
 /** The membership a user signs in to: their oldest active one. */

@@ -11,15 +11,20 @@ import type { AppDeps } from '../app-deps';
 import type { Routes } from '../http/routes';
 import { principal } from '../http/session-user';
 import { body, params, query } from '../http/validate';
-import { readBoard } from './board.read';
+import { BoardCache } from './board-cache';
 import * as board from './board.service';
 import { versionOf } from './board-version';
 import { publishBoard } from './publish.service';
 
 /** The work board is the owner's: operators use their run sheet, viewers the season reports. */
 export function boardRoutes(r: Routes, deps: AppDeps): void {
+  const boards = new BoardCache(deps.db, deps.config.publicUrl);
   r.get('/', ['owner'], async (req, res) => {
-    res.json(await readBoard(deps.db, principal(req).farmId, query(req, boardQuery).date, deps.config.publicUrl));
+    const by = principal(req);
+    const reading = await boards.read(by.farmId, query(req, boardQuery).date, by.farmRevision);
+    res.set({ ETag: reading.etag, Vary: 'Accept-Encoding' }).type('json');
+    if (req.acceptsEncodings('gzip', 'identity') === 'gzip') res.set('Content-Encoding', 'gzip').send(reading.gzipped);
+    else res.send(reading.json);
   });
   r.post('/:date/order', ['owner'], async (req, res) => {
     const { date } = params(req, boardDateParam);

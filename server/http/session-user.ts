@@ -12,6 +12,11 @@ export interface SessionPrincipal {
   farmName: string;
   units: UnitSystem;
   role: Role;
+  /**
+   * The farm's data revision as this request began (see the farm_revisions migration): read with
+   * the principal, so a cached reading can be checked without another query.
+   */
+  farmRevision: string;
 }
 
 declare global {

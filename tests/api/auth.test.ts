@@ -110,7 +110,7 @@ describe('sign-in and sessions', () => {
     const sid = cookieValue(login.headers['set-cookie'], 'furlong.sid');
     const sessions = createSessionStore(t.config.databaseUrl, false);
     try {
-      const restarted = createApp({ config: t.config, db: t.db, sessionStore: sessions.store, nudgeMail: () => undefined, log: () => undefined });
+      const restarted = createApp({ config: t.config, db: t.db, sessions, nudgeMail: () => undefined, log: () => undefined });
       const res = await request(restarted).get('/api/auth/me').set('Cookie', `furlong.sid=${encodeURIComponent(sid!)}`);
       expect(res.status).toBe(200);
       expect(res.body.user.email).toBe(farm.owner.email);
@@ -166,7 +166,7 @@ describe('security headers', () => {
   afterAll(() => t.close());
 
   it('when any page is served, then the CSP allows only the app itself', async () => {
-    const res = await new Client(t.app).get('/api/health');
+    const res = await new Client(t.app).get('/fields');
     const csp = res.headers['content-security-policy'];
     expect(csp).toMatch(/default-src 'self'/);
     expect(csp).toMatch(/script-src 'self'(;|$)/);
@@ -177,6 +177,16 @@ describe('security headers', () => {
     expect(csp).not.toMatch(/https:|http:|\*/);
     expect(res.headers['x-content-type-options']).toBe('nosniff');
     expect(res.headers['x-powered-by']).toBeUndefined();
+  });
+
+  it('when the API answers, then its CSP allows nothing (data is never a page) and two pages get different nonces', async () => {
+    const api = await new Client(t.app).get('/api/health');
+    expect(api.headers['content-security-policy']).toBe("default-src 'none';frame-ancestors 'none'");
+    expect(api.headers['x-content-type-options']).toBe('nosniff');
+    const nonce = async () => /'nonce-([^']+)'/.exec((await new Client(t.app).get('/')).headers['content-security-policy'])?.[1];
+    const [a, b] = [await nonce(), await nonce()];
+    expect(a).toMatch(/^[A-Za-z0-9+/=]{24}$/);
+    expect(b).not.toBe(a);
   });
 
   it('when the XSRF cookie is set, then the page script can read it (Angular sends it back)', async () => {
@@ -294,7 +304,7 @@ describe('a configured map background', () => {
     try {
       const res = await new Client(t.app).get('/api/config');
       expect(res.body).toEqual({ mapTileUrl: 'https://{s}.tiles.farm.example/{z}/{x}/{y}.png', mapTileAttribution: 'Our own tiles' });
-      const csp = res.headers['content-security-policy'];
+      const csp = (await new Client(t.app).get('/fields/12')).headers['content-security-policy'];
       expect(csp).toMatch(/img-src 'self' data: blob: https:\/\/\*\.tiles\.farm\.example;/);
       expect(csp).toMatch(/connect-src 'self';/);
       expect(csp).toMatch(/script-src 'self';/);

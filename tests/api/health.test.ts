@@ -24,7 +24,7 @@ describe('GET /api/health', () => {
     const db = createDb(url);
     const sessions = createSessionStore(url, false);
     try {
-      const app = createApp({ config, db, sessionStore: sessions.store, nudgeMail: () => undefined, log: () => undefined });
+      const app = createApp({ config, db, sessions, nudgeMail: () => undefined, log: () => undefined });
       const res = await request(app).get('/api/health');
       expect(res.status).toBe(503);
       expect(res.body.db).toBe('down');

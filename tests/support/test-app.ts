@@ -37,7 +37,7 @@ export async function startTestApp(overrides: Partial<NodeJS.ProcessEnv> = {}): 
   const db = createDb(config.databaseUrl, { min: 0, max: 5 });
   const sessions = createSessionStore(config.databaseUrl, false);
   const worker = new OutboxWorker(db, createTransport(null, port), { from: config.mailFrom, baseDelayMs: 50, maxDelayMs: 200 });
-  const app = createApp({ config, db, sessionStore: sessions.store, nudgeMail: () => undefined, log: () => undefined });
+  const app = createApp({ config, db, sessions, nudgeMail: () => undefined, log: () => undefined });
   return {
     app,
     db,
