@@ -5,6 +5,8 @@ import accounts from './demo-accounts.json';
 import { DEMO_STEPS, type DemoContext } from './steps';
 
 export const DEMO_FARM_NAME = 'Tamarack Ridge Farm';
+/** The demo farm keeps Central time: its "today" and "tomorrow" are counted there. */
+export const DEMO_TIME_ZONE = 'America/Chicago';
 
 export interface DemoAccount {
   role: 'owner' | 'operator' | 'viewer';
@@ -24,7 +26,7 @@ export async function seed(knex: Knex, options: { reset?: boolean } = {}): Promi
       await tx('farms').where({ id: existing.id }).delete();
       await tx('users').whereIn('email', demoAccounts.map((a) => a.email)).delete();
     }
-    const [farm] = await tx('farms').insert({ name: DEMO_FARM_NAME, units: 'us', day_hours_limit: 12 }).returning('id');
+    const [farm] = await tx('farms').insert({ name: DEMO_FARM_NAME, units: 'us', day_hours_limit: 12, time_zone: DEMO_TIME_ZONE }).returning('id');
     const ctx: DemoContext = { farmId: farm.id, users: {} };
     for (const a of demoAccounts) {
       const [user] = await tx('users')

@@ -106,7 +106,6 @@ const LEFT_FOR_TOMORROW = new Set(['North Section|seeding', 'Tamarack Flats|seed
 /** Share of North Section harrowed this season before tomorrow; Milo harrows the rest. */
 const NORTH_HARROWED = 0.4;
 
-const ZONE = 'America/Chicago';
 const round = (n: number, d = 2) => Math.round(n * 10 ** d) / 10 ** d;
 
 export const seedDemoFleetCrew: DemoStep = async (tx, { farmId, users }) => {
@@ -156,7 +155,8 @@ export const seedDemoFleetCrew: DemoStep = async (tx, { farmId, users }) => {
   const crops: Array<{ field_id: number; season: number; crop: string }> = await tx('crop_plans')
     .where({ farm_id: farmId })
     .select('field_id', 'season', 'crop');
-  const today = DateTime.now().setZone(ZONE).startOf('day');
+  const zone: string = (await tx('farms').where({ id: farmId }).first('time_zone')).time_zone;
+  const today = DateTime.now().setZone(zone).startOf('day');
   const thisSeason = today.year;
 
   const jobs: Array<Record<string, unknown>> = [];
@@ -216,7 +216,7 @@ export const seedDemoFleetCrew: DemoStep = async (tx, { farmId, users }) => {
       const crop = crops.find((c) => c.field_id === f.id && c.season === season)?.crop;
       for (const s of SEASON) {
         if (s.op === 'swathing' && crop !== 'canola') continue;
-        const day = DateTime.fromObject({ year: season, month: s.month, day: s.day }, { zone: ZONE }).plus({ days: (i * 3) % s.spread });
+        const day = DateTime.fromObject({ year: season, month: s.month, day: s.day }, { zone }).plus({ days: (i * 3) % s.spread });
         if (day >= today) continue;
         const pair = `${f.name}|${s.op}`;
         const who = person(s.people[i % s.people.length]);
@@ -271,7 +271,7 @@ export const seedDemoFleetCrew: DemoStep = async (tx, { farmId, users }) => {
     const base = { farm_id: farmId, assignment_id: a.id, by_user_id: by };
     if (a.state === 'called-off')
       return [
-        { ...base, type: 'call-off', at: DateTime.fromISO(`${a.day}T07:30`, { zone: ZONE }).toJSDate(), reason: 'weather', note: a.note },
+        { ...base, type: 'call-off', at: DateTime.fromISO(`${a.day}T07:30`, { zone }).toJSDate(), reason: 'weather', note: a.note },
       ];
     return [
       { ...base, type: 'start', at: a.started_at, engine_hours: a.engine_hours_start },

@@ -22,7 +22,7 @@ export async function setPasswordHash(db: Tx, userId: number, hash: string, name
  * sent there as a named (prepared) statement: PostgreSQL plans the join once per connection.
  */
 export const PRINCIPAL_SQL = `
-  select u.id, u.email, u.name, m.id as "membershipId", f.id as "farmId", f.name as "farmName", f.units, m.role,
+  select u.id, u.email, u.name, m.id as "membershipId", f.id as "farmId", f.name as "farmName", f.units, f.time_zone as "timeZone", m.role,
          coalesce(r.revision, 0)::text as "farmRevision"
   from memberships m
   join users u on u.id = m.user_id

@@ -20,11 +20,13 @@ const cropParams = idParam.extend({ season });
 
 export function fieldRoutes(r: Routes, deps: AppDeps): void {
   r.get('/', 'member', async (req, res) => {
-    res.json(await fields.listFields(deps, principal(req).farmId, query(req, seasonQuery).season));
+    const by = principal(req);
+    res.json(await fields.listFields(deps, by.farmId, query(req, seasonQuery).season ?? fields.currentSeason(by.timeZone)));
   });
 
   r.get('/export.geojson', 'member', async (req, res) => {
-    const fc = await fields.exportGeoJson(deps, principal(req).farmId, query(req, seasonQuery).season);
+    const by = principal(req);
+    const fc = await fields.exportGeoJson(deps, by.farmId, query(req, seasonQuery).season ?? fields.currentSeason(by.timeZone));
     res.set('Content-Disposition', 'attachment; filename="fields.geojson"').type('application/geo+json').send(JSON.stringify(fc));
   });
 
@@ -60,7 +62,8 @@ export function fieldRoutes(r: Routes, deps: AppDeps): void {
   });
 
   r.get('/:id', 'member', async (req, res) => {
-    res.json(await fields.getField(deps, principal(req).farmId, params(req, idParam).id, query(req, seasonQuery).season));
+    const by = principal(req);
+    res.json(await fields.getField(deps, by.farmId, params(req, idParam).id, query(req, seasonQuery).season ?? fields.currentSeason(by.timeZone)));
   });
 
   r.patch('/:id', ['owner'], async (req, res) => {

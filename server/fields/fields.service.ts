@@ -9,8 +9,10 @@ import { AppError, notFound } from '../http/errors';
 import { checkHazardGeometry, measureBoundary } from './geometry';
 import * as repo from './fields.repository';
 import { roundTo } from '../../shared/round';
+import { yearIn } from '../../shared/calendar';
 
-export const currentSeason = (): number => new Date().getFullYear();
+/** The season a farm is in now: the calendar year at the farm. */
+export const currentSeason = (timeZone = 'America/Chicago'): number => yearIn(timeZone);
 
 const nameTaken = (name: string) =>
   new AppError(409, 'name_taken', `There is already a field called "${name}" on this farm; choose another name`, { name: 'Name already used' });

@@ -11,6 +11,8 @@ export interface SessionPrincipal {
   farmId: number;
   farmName: string;
   units: UnitSystem;
+  /** IANA time zone of the farm. */
+  timeZone: string;
   role: Role;
   /**
    * The farm's data revision as this request began (see the farm_revisions migration): read with

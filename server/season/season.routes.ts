@@ -14,7 +14,8 @@ const exportParams = seasonParams.extend({ table: z.string() });
 
 export function seasonRoutes(r: Routes, deps: AppDeps): void {
   r.get('/', READERS, async (req, res) => {
-    res.json(await seasonIndex(deps, principal(req).farmId));
+    const by = principal(req);
+    res.json(await seasonIndex(deps, by.farmId, by.timeZone));
   });
 
   r.get('/:year/summary', READERS, async (req, res) => {

@@ -14,6 +14,7 @@ import type { FieldSeason, MachineSeason, OperationSeason, PersonSeason, SeasonI
 import type { AppDeps } from '../app-deps';
 import * as repo from './season.repository';
 import { roundTo } from '../../shared/round';
+import { yearIn } from '../../shared/calendar';
 
 /** a ÷ b to 2 decimals, or null when there is nothing to divide by. */
 const ratio = (a: number, b: number | null) => (b && b > 0 ? roundTo(a / b) : null);
@@ -115,9 +116,9 @@ function byMachine(rows: repo.MachineOperationRow[]): MachineSeason[] {
 }
 
 /** The seasons to offer in the picker. */
-export async function seasonIndex(deps: AppDeps, farmId: number, today = new Date()): Promise<SeasonIndex> {
+export async function seasonIndex(deps: AppDeps, farmId: number, timeZone: string, now = new Date()): Promise<SeasonIndex> {
   const rows = await repo.seasonYears(deps.db, farmId);
-  const current = today.getUTCFullYear();
+  const current = yearIn(timeZone, now);
   const worked = rows.filter((r) => r.jobs > 0).map((r) => r.year);
   const seasons = rows.map((r) => ({ year: r.year, acresFinished: roundTo(r.acres), jobs: r.jobs }));
   if (!seasons.some((s) => s.year === current)) seasons.push({ year: current, acresFinished: 0, jobs: 0 });

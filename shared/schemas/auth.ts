@@ -47,6 +47,8 @@ export interface SessionFarm {
   id: number;
   name: string;
   units: UnitSystem;
+  /** IANA time zone of the farm: which day is today and tomorrow on its board and run sheets. */
+  timeZone: string;
 }
 
 /** What `GET /api/auth/me` and `POST /api/auth/login` answer. */

@@ -56,14 +56,6 @@ export const importQuery = z.object({
 /** The owner's choices in an import: which features to save, under which names. */
 export const importSelection = z.array(z.object({ index: z.number().int().min(0), name: fieldName })).min(1, 'Tick at least one field to save');
 
-export const farmPatchBody = z
-  .object({
-    name: z.string().trim().min(1).max(160).optional(),
-    units: z.enum(['us', 'metric']).optional(),
-    dayHoursLimit: z.number().min(1).max(24).optional(),
-  })
-  .refine((v) => Object.keys(v).length > 0, 'Nothing to change');
-
 export interface FieldSummary {
   id: number;
   name: string;

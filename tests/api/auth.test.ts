@@ -24,7 +24,7 @@ describe('sign-in and sessions', () => {
     const res = await c.signIn(farm.owner.email.toUpperCase(), farm.owner.password);
     expect(res.body).toEqual({
       user: { id: farm.owner.id, email: farm.owner.email, name: farm.owner.name },
-      farm: { id: farm.id, name: farm.name, units: 'us' },
+      farm: { id: farm.id, name: farm.name, units: 'us', timeZone: 'America/Chicago' },
       role: 'owner',
     });
     const me = await c.get('/api/auth/me');

@@ -30,7 +30,13 @@ describe('the board cache and the farm revision', () => {
     await owner.signIn(farm.owner.email, farm.owner.password);
     const [f] = await t
       .db('fields')
-      .insert({ farm_id: farm.id, name: 'Coulee quarter', boundary: JSON.stringify(rect(-99.5, 47.2, 0.01, 0.01)), area_m2: 160 * 4046.8564224, acres: 160 })
+      .insert({
+        farm_id: farm.id,
+        name: 'Coulee quarter',
+        boundary: JSON.stringify(rect(-99.5, 47.2, 0.01, 0.01)),
+        area_m2: 160 * 4046.8564224,
+        acres: 160,
+      })
       .returning('id');
     fieldId = f.id;
     const machine = await insertMachine(t.db, farm.id, { power_hp: 450 });
@@ -78,7 +84,10 @@ describe('the board cache and the farm revision', () => {
     });
 
     it("when a person's name changes, then every farm they belong to gets a new revision", async () => {
-      const [u] = await t.db('users').insert({ email: `both-${farm.id}@furlong.test`, name: 'Both Farms' }).returning('id');
+      const [u] = await t
+        .db('users')
+        .insert({ email: `both-${farm.id}@furlong.test`, name: 'Both Farms' })
+        .returning('id');
       await t.db('memberships').insert([
         { farm_id: farm.id, user_id: u.id, role: 'viewer', status: 'active' },
         { farm_id: other.id, user_id: u.id, role: 'viewer', status: 'active' },
@@ -91,7 +100,9 @@ describe('the board cache and the farm revision', () => {
 
     it('when a farm is deleted with all its data, then the commit goes through and its revision goes with it', async () => {
       const gone = await makeFarm(t.db, 'Gone');
-      await t.db('fields').insert({ farm_id: gone.id, name: 'Gone field', boundary: JSON.stringify(rect(-99, 47, 0.01, 0.01)), area_m2: 4046.86, acres: 1 });
+      await t
+        .db('fields')
+        .insert({ farm_id: gone.id, name: 'Gone field', boundary: JSON.stringify(rect(-99, 47, 0.01, 0.01)), area_m2: 4046.86, acres: 1 });
       await t.db.transaction(async (tx) => {
         await tx('memberships').where({ farm_id: gone.id }).delete();
         await tx('farms').where({ id: gone.id }).delete();
@@ -186,7 +197,7 @@ describe('the board cache and the farm revision', () => {
       }
     });
 
-    it("when a session is used twice within a minute, then its stored expiry is moved on once", async () => {
+    it('when a session is used twice within a minute, then its stored expiry is moved on once', async () => {
       const c = new Client(t.app);
       await c.signIn(farm.operator.email, farm.operator.password);
       const cookies = decodeURIComponent(String((await c.get('/api/auth/me')).request.cookies));

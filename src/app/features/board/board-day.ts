@@ -1,3 +1,5 @@
+import { dayIn } from '@shared/calendar';
+
 /** A day as the API writes it (YYYY-MM-DD), in the browser's own calendar, not UTC. */
 export function isoDay(date: Date): string {
   const y = date.getFullYear();
@@ -25,8 +27,10 @@ export function addDays(day: string, n: number): string {
   return isoDay(date);
 }
 
-export const today = (now = new Date()): string => isoDay(now);
-export const tomorrow = (now = new Date()): string => addDays(isoDay(now), 1);
+/** Today at the farm (its time zone); the browser's own calendar when the zone is not known. */
+export const today = (timeZone?: string, now = new Date()): string => (timeZone ? dayIn(timeZone, now) : isoDay(now));
+/** Tomorrow at the farm: the day the evening's planning is for. */
+export const tomorrow = (timeZone?: string, now = new Date()): string => addDays(today(timeZone, now), 1);
 
 const LONG = new Intl.DateTimeFormat('en-US', { weekday: 'long', month: 'long', day: 'numeric', year: 'numeric' });
 const CLOCK = new Intl.DateTimeFormat('en-US', { hour: '2-digit', minute: '2-digit', hourCycle: 'h23' });

@@ -5,6 +5,7 @@ import type { ImportPreview } from '@shared/schemas/fields';
 import type { Geometry, MultiPolygon, Polygon } from 'geojson';
 import { type Observable } from 'rxjs';
 import type { HazardCollection, HazardFeature } from '../../shared/map/map-types';
+import type { FarmSettings } from '@shared/schemas/farm';
 
 export const FIELDS_URL = '/api/fields';
 export const fieldsUrl = (season: number) => `${FIELDS_URL}?season=${season}`;
@@ -40,13 +41,6 @@ export interface HazardInput {
   /** Metres (0–500). */
   clearanceM: number;
   note?: string | null;
-}
-
-export interface FarmSettings {
-  id: number;
-  name: string;
-  units: UnitSystem;
-  dayHoursLimit: number;
 }
 
 export interface ImportSaved {

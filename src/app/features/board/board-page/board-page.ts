@@ -31,6 +31,7 @@ import {
 } from '../board-columns';
 import { addDays, dateOf, hoursText, isIsoDay, isoDay, longDay, stampTime, tomorrow } from '../board-day';
 import { describeChanges, staleBoardOf } from '../stale-board';
+import { AuthStore } from '../../../core/auth/auth-store';
 
 /** A save the server refused because the board had moved on; `retry` re-applies it on the board now. */
 interface StaleNotice {
@@ -64,13 +65,14 @@ export class BoardPage {
   private readonly api = inject(BoardApi);
   private readonly dialog = inject(MatDialog);
   private readonly router = inject(Router);
+  private readonly auth = inject(AuthStore);
 
   /** `?date=YYYY-MM-DD` from the address. */
   readonly date = input<string | undefined>();
 
   protected readonly day = computed(() => {
     const asked = this.date();
-    return isIsoDay(asked) ? asked : tomorrow();
+    return isIsoDay(asked) ? asked : tomorrow(this.auth.farm()?.timeZone);
   });
   protected readonly dayDate = computed(() => dateOf(this.day()));
   protected readonly dayLabel = computed(() => longDay(this.day()));

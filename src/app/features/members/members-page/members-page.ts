@@ -12,14 +12,15 @@ import { filter, switchMap } from 'rxjs';
 import { AuthStore } from '../../../core/auth/auth-store';
 import { messageOf } from '../../../core/http/api-error';
 import { ConfirmDialog, type ConfirmDialogData } from '../../../shared/ui/confirm-dialog/confirm-dialog';
+import { FarmSettingsForm } from '../farm-settings/farm-settings';
 import { InviteMember } from '../invite-member/invite-member';
 import { MEMBERS_URL, MembersApi } from '../members-api';
 import { ROLE_OPTIONS } from '../role-labels';
 
-/** The owner's list of who belongs to the farm: invite, change role, remove (history stays). */
+/** The owner's page for the farm: its settings, and who belongs to it (invite, change role, remove; history stays). */
 @Component({
   selector: 'app-members-page',
-  imports: [InviteMember, MatButtonModule, MatIconModule, MatProgressBarModule, MatSelectModule, MatTableModule],
+  imports: [FarmSettingsForm, InviteMember, MatButtonModule, MatIconModule, MatProgressBarModule, MatSelectModule, MatTableModule],
   templateUrl: './members-page.html',
   styleUrl: './members-page.scss',
 })

@@ -30,7 +30,7 @@ describe('RunSheetPage', () => {
     TestBed.overrideComponent(RunSheetJob, { remove: { imports: [FieldMap] }, add: { imports: [FieldMapStub] } });
     TestBed.inject(AuthStore).signedInAs({
       user: { id: 2, email: 't@example.test', name: 'Tomas Reyes' },
-      farm: { id: 1, name: 'F', units: 'us' },
+      farm: { id: 1, name: 'F', units: 'us', timeZone: 'America/Chicago' },
       role: 'operator',
     });
     http = TestBed.inject(HttpTestingController);

@@ -15,6 +15,7 @@ import { messageOf } from '../../../core/http/api-error';
 import { addDays, dateOf, isIsoDay, isoDay, longDay, today } from '../../board/board-day';
 import { RunSheetJob } from '../run-sheet-job/run-sheet-job';
 import { runSheetUrl } from '../run-sheet-api';
+import { AuthStore } from '../../../core/auth/auth-store';
 
 const OPEN_FIRST: RunSheetItem['state'][] = ['underway', 'paused', 'planned'];
 
@@ -51,13 +52,14 @@ export function firstOpen(items: readonly RunSheetItem[]): number | null {
 })
 export class RunSheetPage {
   private readonly router = inject(Router);
+  private readonly auth = inject(AuthStore);
 
   /** `?date=YYYY-MM-DD` from the address. */
   readonly date = input<string | undefined>();
 
   protected readonly day = computed(() => {
     const asked = this.date();
-    return isIsoDay(asked) ? asked : today();
+    return isIsoDay(asked) ? asked : today(this.auth.farm()?.timeZone);
   });
   protected readonly dayDate = computed(() => dateOf(this.day()));
   protected readonly dayLabel = computed(() => longDay(this.day()));

@@ -1,0 +1,94 @@
+import { httpResource } from '@angular/common/http';
+import { Component, computed, effect, inject, signal } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
+import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatAutocompleteModule } from '@angular/material/autocomplete';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
+import { MatSelectModule } from '@angular/material/select';
+import { MatSnackBar } from '@angular/material/snack-bar';
+import type { UnitSystem } from '@shared/schemas/auth';
+import { type FarmSettings, timeZone } from '@shared/schemas/farm';
+import { AuthStore } from '../../../core/auth/auth-store';
+import { messageOf } from '../../../core/http/api-error';
+import { applyServerErrors } from '../../../shared/forms/server-errors';
+import { zodValidator } from '../../../shared/forms/zod-validator';
+import { FARM_URL, FarmApi } from '../farm-api';
+import { clockIn, timeZoneChoices } from './time-zones';
+
+/**
+ * The owner's settings for the farm as a whole: its name, units, how many hours one person may be
+ * planned for in a day (the board warns above it) and its time zone (which day is "tomorrow").
+ */
+@Component({
+  selector: 'app-farm-settings',
+  imports: [MatAutocompleteModule, MatButtonModule, MatFormFieldModule, MatInputModule, MatSelectModule, ReactiveFormsModule],
+  templateUrl: './farm-settings.html',
+  styleUrl: './farm-settings.scss',
+})
+export class FarmSettingsForm {
+  private readonly api = inject(FarmApi);
+  private readonly auth = inject(AuthStore);
+  private readonly snackBar = inject(MatSnackBar);
+
+  protected readonly farm = httpResource<FarmSettings>(() => FARM_URL);
+  protected readonly loadError = computed(() => {
+    const error = this.farm.error();
+    return error ? messageOf(error) : null;
+  });
+
+  protected readonly form = new FormGroup({
+    name: new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.maxLength(160)] }),
+    units: new FormControl<UnitSystem>('us', { nonNullable: true }),
+    dayHoursLimit: new FormControl(12, { nonNullable: true, validators: [Validators.required, Validators.min(1), Validators.max(24)] }),
+    timeZone: new FormControl('America/Chicago', { nonNullable: true, validators: [Validators.required, zodValidator(timeZone)] }),
+  });
+  protected readonly busy = signal(false);
+  protected readonly error = signal<string | null>(null);
+
+  private readonly zones = timeZoneChoices();
+  private readonly typedZone = toSignal(this.form.controls.timeZone.valueChanges, { initialValue: this.form.controls.timeZone.value });
+  protected readonly zoneOptions = computed(() => {
+    const typed = this.typedZone().trim().toLowerCase().replaceAll(' ', '_');
+    const matches =
+      typed && !this.zones.includes(this.typedZone()) ? this.zones.filter((z) => z.toLowerCase().includes(typed)) : this.zones;
+    return matches.slice(0, 60);
+  });
+  protected readonly clock = computed(() => {
+    const zone = this.typedZone();
+    return this.form.controls.timeZone.valid ? `Now at the farm: ${clockIn(zone)}` : '';
+  });
+
+  constructor() {
+    // Fill the form from the server each time the settings are (re)loaded.
+    effect(() => {
+      if (!this.farm.hasValue()) return;
+      const f = this.farm.value();
+      this.form.reset({ name: f.name, units: f.units, dayHoursLimit: f.dayHoursLimit, timeZone: f.timeZone });
+    });
+  }
+
+  protected submit(): void {
+    if (this.busy()) return;
+    if (this.form.invalid) {
+      this.form.markAllAsTouched();
+      return;
+    }
+    this.busy.set(true);
+    this.error.set(null);
+    const v = this.form.getRawValue();
+    this.api.save({ name: v.name.trim(), units: v.units, dayHoursLimit: Number(v.dayHoursLimit), timeZone: v.timeZone.trim() }).subscribe({
+      next: (saved) => {
+        this.busy.set(false);
+        this.farm.set(saved);
+        this.auth.farmChanged(saved);
+        this.snackBar.open('Farm settings saved.', 'OK', { duration: 4000 });
+      },
+      error: (err: unknown) => {
+        this.busy.set(false);
+        this.error.set(applyServerErrors(this.form, err));
+      },
+    });
+  }
+}
