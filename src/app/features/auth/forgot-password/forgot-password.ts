@@ -5,7 +5,7 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { RouterLink } from '@angular/router';
 import { email } from '@shared/schemas/common';
-import { applyServerErrors } from '../../../shared/forms/server-errors';
+import { FormSubmission } from '../../../shared/forms/form-submission';
 import { zodValidator } from '../../../shared/forms/zod-validator';
 import { AuthFrame } from '../../../shared/ui/auth-frame/auth-frame';
 import { AuthApi } from '../auth-api';
@@ -25,28 +25,14 @@ export class ForgotPassword {
       validators: [Validators.required, zodValidator(email)],
     }),
   });
-  protected readonly busy = signal(false);
-  protected readonly error = signal<string | null>(null);
+  private readonly submission = new FormSubmission(this.form);
+  protected readonly busy = this.submission.busy;
+  protected readonly error = this.submission.error;
   /** The server's neutral answer: it never says whether the address has an account. */
   protected readonly sent = signal<string | null>(null);
 
   protected submit(): void {
-    if (this.busy()) return;
-    if (this.form.invalid) {
-      this.form.markAllAsTouched();
-      return;
-    }
-    this.busy.set(true);
-    this.error.set(null);
-    this.api.forgot(this.form.getRawValue().email.trim()).subscribe({
-      next: ({ message }) => {
-        this.busy.set(false);
-        this.sent.set(message);
-      },
-      error: (err: unknown) => {
-        this.busy.set(false);
-        this.error.set(applyServerErrors(this.form, err));
-      },
-    });
+    if (!this.submission.ready()) return;
+    this.submission.send(this.api.forgot(this.form.getRawValue().email.trim()), ({ message }) => this.sent.set(message));
   }
 }

@@ -1,4 +1,4 @@
-import { Component, inject, input, signal } from '@angular/core';
+import { Component, inject, input } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -7,7 +7,7 @@ import { Router, RouterLink } from '@angular/router';
 import { AuthStore } from '../../../core/auth/auth-store';
 import { ROLE_HOME, safeNext } from '../../../core/auth/role-home';
 import { AuthFrame } from '../../../shared/ui/auth-frame/auth-frame';
-import { applyServerErrors } from '../../../shared/forms/server-errors';
+import { FormSubmission } from '../../../shared/forms/form-submission';
 
 @Component({
   selector: 'app-sign-in',
@@ -30,27 +30,16 @@ export class SignIn {
     }),
     password: new FormControl('', { nonNullable: true, validators: [Validators.required] }),
   });
-  protected readonly busy = signal(false);
-  protected readonly error = signal<string | null>(null);
+  private readonly submission = new FormSubmission(this.form);
+  protected readonly busy = this.submission.busy;
+  protected readonly error = this.submission.error;
 
   protected submit(): void {
-    if (this.busy()) return;
-    if (this.form.invalid) {
-      this.form.markAllAsTouched();
-      return;
-    }
-    this.busy.set(true);
-    this.error.set(null);
+    if (!this.submission.ready()) return;
     const { email, password } = this.form.getRawValue();
-    this.auth.login(email.trim(), password).subscribe({
-      next: (me) => {
-        this.busy.set(false);
-        void this.router.navigateByUrl(safeNext(this.next()) ?? ROLE_HOME[me.role]);
-      },
-      error: (err: unknown) => {
-        this.busy.set(false);
-        this.error.set(applyServerErrors(this.form, err));
-      },
-    });
+    this.submission.send(
+      this.auth.login(email.trim(), password),
+      (me) => void this.router.navigateByUrl(safeNext(this.next()) ?? ROLE_HOME[me.role]),
+    );
   }
 }

@@ -1,4 +1,4 @@
-import { Component, computed, inject, signal } from '@angular/core';
+import { Component, computed, inject } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { type AbstractControl, FormControl, FormGroup, ReactiveFormsModule, type ValidationErrors, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -27,6 +27,7 @@ import { FleetApi } from '../fleet-api';
 import { cautionsFor } from '../cautions';
 import { ImplementCautions } from '../implement-cautions/implement-cautions';
 import { metresToWidth, widthToMetres } from '../widths';
+import { FormSubmission } from '../../../shared/forms/form-submission';
 
 export interface ImplementFormData {
   /** The implement to edit; null to add one. */
@@ -48,6 +49,13 @@ const someOperation = (c: AbstractControl): ValidationErrors | null => ((c.value
 export function operationsFor(kind: ImplementKind | null): Operation[] {
   return kind ? OPERATIONS.filter((op) => OPERATION_INFO[op].implementKinds.includes(kind)) : [];
 }
+
+/** Where the server's field names go on this form. */
+const SERVER_FIELDS: Record<string, string> = {
+  widthM: 'width',
+  transportWidthM: 'transportWidth',
+  ...Object.fromEntries(OPERATIONS.map((_, i) => [`operations.${i}`, 'operations'])),
+};
 
 /**
  * Adds or edits an implement. Widths are typed in the farm's unit (ft or m) and sent in metres;
@@ -89,8 +97,6 @@ export class ImplementForm {
     label: `${m.name} (${MACHINE_KIND_LABELS[m.kind] ?? m.kind}, ${m.powerHp} hp)`,
   }));
   protected readonly problemOf = problemOf;
-  protected readonly busy = signal(false);
-  protected readonly error = signal<string | null>(null);
 
   protected readonly form = new FormGroup({
     name: new FormControl(this.initial?.name ?? '', { nonNullable: true, validators: [Validators.required, zodValidator(shape.name)] }),
@@ -104,6 +110,9 @@ export class ImplementForm {
     minPowerHp: new FormControl<number | null>(this.initial?.minPowerHp ?? null, { validators: [zodValidator(shape.minPowerHp)] }),
     notes: new FormControl(this.initial?.notes ?? '', { nonNullable: true, validators: [zodValidator(shape.notes)] }),
   });
+  private readonly submission = new FormSubmission(this.form, (err, form) => applyServerErrors(form, err, SERVER_FIELDS));
+  protected readonly busy = this.submission.busy;
+  protected readonly error = this.submission.error;
 
   private readonly kind = toSignal(this.form.controls.kind.valueChanges.pipe(startWith(this.form.controls.kind.value)), {
     requireSync: true,
@@ -141,25 +150,11 @@ export class ImplementForm {
   }
 
   protected submit(): void {
-    if (this.busy()) return;
-    if (this.form.invalid) {
-      this.form.markAllAsTouched();
-      return;
-    }
+    if (!this.submission.ready()) return;
     const body = this.body();
     const id = this.initial?.id;
     const save: Observable<Implement> = id ? this.api.updateImplement(id, body) : this.api.createImplement(body);
-    this.busy.set(true);
-    this.error.set(null);
-    save.subscribe({
-      next: (implement) => this.dialogRef.close(implement),
-      error: (err: unknown) => {
-        this.busy.set(false);
-        const aliases: Record<string, string> = { widthM: 'width', transportWidthM: 'transportWidth' };
-        OPERATIONS.forEach((_, i) => (aliases[`operations.${i}`] = 'operations'));
-        this.error.set(applyServerErrors(this.form, err, aliases));
-      },
-    });
+    this.submission.send(save, (implement) => this.dialogRef.close(implement));
   }
 
   /** The request body, widths in metres. */

@@ -1,4 +1,4 @@
-import { Component, inject, signal } from '@angular/core';
+import { Component, inject } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
@@ -7,10 +7,10 @@ import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import { MACHINE_KIND_LABELS, MACHINE_KINDS, type Machine, type MachineInput, type MachineKind, machineBody } from '@shared/schemas/fleet';
 import type { Observable } from 'rxjs';
-import { applyServerErrors } from '../../../shared/forms/server-errors';
 import { zodValidator } from '../../../shared/forms/zod-validator';
 import { problemOf } from '../control-problem';
 import { FleetApi } from '../fleet-api';
+import { FormSubmission } from '../../../shared/forms/form-submission';
 
 export interface MachineFormData {
   /** The machine to edit; null to add one. */
@@ -33,8 +33,6 @@ export class MachineForm {
 
   protected readonly kinds = MACHINE_KINDS.map((kind) => ({ kind, label: MACHINE_KIND_LABELS[kind] }));
   protected readonly problemOf = problemOf;
-  protected readonly busy = signal(false);
-  protected readonly error = signal<string | null>(null);
 
   protected readonly form = new FormGroup({
     name: new FormControl(this.data.machine?.name ?? '', {
@@ -56,13 +54,12 @@ export class MachineForm {
     }),
     notes: new FormControl(this.data.machine?.notes ?? '', { nonNullable: true, validators: [zodValidator(shape.notes)] }),
   });
+  private readonly submission = new FormSubmission(this.form);
+  protected readonly busy = this.submission.busy;
+  protected readonly error = this.submission.error;
 
   protected submit(): void {
-    if (this.busy()) return;
-    if (this.form.invalid) {
-      this.form.markAllAsTouched();
-      return;
-    }
+    if (!this.submission.ready()) return;
     const v = this.form.getRawValue();
     const body: MachineInput = {
       name: v.name.trim(),
@@ -75,14 +72,6 @@ export class MachineForm {
     };
     const id = this.data.machine?.id;
     const save: Observable<Machine> = id ? this.api.updateMachine(id, body) : this.api.createMachine(body);
-    this.busy.set(true);
-    this.error.set(null);
-    save.subscribe({
-      next: (machine) => this.dialogRef.close(machine),
-      error: (err: unknown) => {
-        this.busy.set(false);
-        this.error.set(applyServerErrors(this.form, err));
-      },
-    });
+    this.submission.send(save, (machine) => this.dialogRef.close(machine));
   }
 }

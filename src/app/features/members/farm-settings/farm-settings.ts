@@ -1,5 +1,5 @@
 import { httpResource } from '@angular/common/http';
-import { Component, computed, effect, inject, signal } from '@angular/core';
+import { Component, computed, effect, inject } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatAutocompleteModule } from '@angular/material/autocomplete';
@@ -12,7 +12,7 @@ import type { UnitSystem } from '@shared/schemas/auth';
 import { type FarmSettings, timeZone } from '@shared/schemas/farm';
 import { AuthStore } from '../../../core/auth/auth-store';
 import { messageOf } from '../../../core/http/api-error';
-import { applyServerErrors } from '../../../shared/forms/server-errors';
+import { FormSubmission } from '../../../shared/forms/form-submission';
 import { zodValidator } from '../../../shared/forms/zod-validator';
 import { FARM_URL, FarmApi } from '../farm-api';
 import { clockIn, timeZoneChoices } from './time-zones';
@@ -44,8 +44,9 @@ export class FarmSettingsForm {
     dayHoursLimit: new FormControl(12, { nonNullable: true, validators: [Validators.required, Validators.min(1), Validators.max(24)] }),
     timeZone: new FormControl('America/Chicago', { nonNullable: true, validators: [Validators.required, zodValidator(timeZone)] }),
   });
-  protected readonly busy = signal(false);
-  protected readonly error = signal<string | null>(null);
+  private readonly submission = new FormSubmission(this.form);
+  protected readonly busy = this.submission.busy;
+  protected readonly error = this.submission.error;
 
   private readonly zones = timeZoneChoices();
   private readonly typedZone = toSignal(this.form.controls.timeZone.valueChanges, { initialValue: this.form.controls.timeZone.value });
@@ -70,25 +71,13 @@ export class FarmSettingsForm {
   }
 
   protected submit(): void {
-    if (this.busy()) return;
-    if (this.form.invalid) {
-      this.form.markAllAsTouched();
-      return;
-    }
-    this.busy.set(true);
-    this.error.set(null);
+    if (!this.submission.ready()) return;
     const v = this.form.getRawValue();
-    this.api.save({ name: v.name.trim(), units: v.units, dayHoursLimit: Number(v.dayHoursLimit), timeZone: v.timeZone.trim() }).subscribe({
-      next: (saved) => {
-        this.busy.set(false);
-        this.farm.set(saved);
-        this.auth.farmChanged(saved);
-        this.snackBar.open('Farm settings saved.', 'OK', { duration: 4000 });
-      },
-      error: (err: unknown) => {
-        this.busy.set(false);
-        this.error.set(applyServerErrors(this.form, err));
-      },
+    const patch = { name: v.name.trim(), units: v.units, dayHoursLimit: Number(v.dayHoursLimit), timeZone: v.timeZone.trim() };
+    this.submission.send(this.api.save(patch), (saved) => {
+      this.farm.set(saved);
+      this.auth.farmChanged(saved);
+      this.snackBar.open('Farm settings saved.', 'OK', { duration: 4000 });
     });
   }
 }

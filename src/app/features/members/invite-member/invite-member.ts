@@ -1,4 +1,4 @@
-import { Component, inject, output, signal } from '@angular/core';
+import { Component, inject, output } from '@angular/core';
 import { type FormGroupDirective, FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -6,7 +6,7 @@ import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import type { Member, Role } from '@shared/schemas/auth';
 import { email } from '@shared/schemas/common';
-import { applyServerErrors } from '../../../shared/forms/server-errors';
+import { FormSubmission } from '../../../shared/forms/form-submission';
 import { zodValidator } from '../../../shared/forms/zod-validator';
 import { MembersApi } from '../members-api';
 import { ROLE_OPTIONS } from '../role-labels';
@@ -35,32 +35,20 @@ export class InviteMember {
     }),
     role: new FormControl<Role>('operator', { nonNullable: true }),
   });
-  protected readonly busy = signal(false);
-  protected readonly error = signal<string | null>(null);
+  private readonly submission = new FormSubmission(this.form);
+  protected readonly busy = this.submission.busy;
+  protected readonly error = this.submission.error;
 
   protected hintFor(role: Role): string {
     return this.roles.find((option) => option.value === role)?.hint ?? '';
   }
 
   protected submit(directive: FormGroupDirective): void {
-    if (this.busy()) return;
-    if (this.form.invalid) {
-      this.form.markAllAsTouched();
-      return;
-    }
-    this.busy.set(true);
-    this.error.set(null);
+    if (!this.submission.ready()) return;
     const { name, email: address, role } = this.form.getRawValue();
-    this.api.invite({ name: name.trim(), email: address.trim().toLowerCase(), role }).subscribe({
-      next: (member) => {
-        this.busy.set(false);
-        directive.resetForm({ name: '', email: '', role: 'operator' });
-        this.invited.emit(member);
-      },
-      error: (err: unknown) => {
-        this.busy.set(false);
-        this.error.set(applyServerErrors(this.form, err));
-      },
+    this.submission.send(this.api.invite({ name: name.trim(), email: address.trim().toLowerCase(), role }), (member) => {
+      directive.resetForm({ name: '', email: '', role: 'operator' });
+      this.invited.emit(member);
     });
   }
 }

@@ -1,4 +1,4 @@
-import { Component, inject, signal } from '@angular/core';
+import { Component, inject } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
@@ -9,6 +9,7 @@ import { CALL_OFF_REASONS, type RunSheetItem } from '@shared/schemas/board';
 import { RunSheetApi } from '../run-sheet-api';
 import { sendFailure } from '../send-failure';
 import type { JobDialogData } from '../start-dialog/start-dialog';
+import { FormSubmission } from '../../../shared/forms/form-submission';
 
 type Reason = (typeof CALL_OFF_REASONS)[number];
 const REASON_LABELS: Record<Reason, string> = { weather: 'Weather', breakdown: 'Breakdown', other: 'Other' };
@@ -30,32 +31,22 @@ export class CallOffDialog {
     reason: new FormControl<Reason | null>(null, Validators.required),
     note: new FormControl('', { nonNullable: true, validators: [Validators.maxLength(1000)] }),
   });
-  protected readonly busy = signal(false);
-  protected readonly error = signal<string | null>(null);
+  private readonly submission = new FormSubmission(this.form, (err, form) => sendFailure(err, 'Call off', form));
+  protected readonly busy = this.submission.busy;
+  protected readonly error = this.submission.error;
 
   protected submit(): void {
-    if (this.busy()) return;
     const v = this.form.getRawValue();
     if (v.reason === 'other' && !v.note.trim()) this.form.controls.note.setErrors({ required: true });
-    if (this.form.invalid) {
-      this.form.markAllAsTouched();
-      return;
-    }
-    this.busy.set(true);
-    this.error.set(null);
-    this.api
-      .event(this.data.item.id, {
+    if (!this.submission.ready()) return;
+    this.submission.send(
+      this.api.event(this.data.item.id, {
         type: 'call-off',
         reason: v.reason!,
         ...(v.note.trim() ? { note: v.note.trim() } : {}),
         at: this.data.at,
-      })
-      .subscribe({
-        next: (item) => this.ref.close(item),
-        error: (err: unknown) => {
-          this.busy.set(false);
-          this.error.set(sendFailure(err, 'Call off', this.form));
-        },
-      });
+      }),
+      (item) => this.ref.close(item),
+    );
   }
 }

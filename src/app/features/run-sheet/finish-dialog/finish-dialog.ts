@@ -1,4 +1,4 @@
-import { Component, computed, inject, signal } from '@angular/core';
+import { Component, computed, inject } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
@@ -11,6 +11,7 @@ import { finishDefaults } from '../job-actions';
 import { RunSheetApi } from '../run-sheet-api';
 import { sendFailure } from '../send-failure';
 import type { JobDialogData } from '../start-dialog/start-dialog';
+import { FormSubmission } from '../../../shared/forms/form-submission';
 
 const round2 = (n: number) => Math.round(n * 100) / 100;
 
@@ -46,33 +47,23 @@ export class FinishDialog {
     ]),
     note: new FormControl('', { nonNullable: true, validators: [Validators.maxLength(1000)] }),
   });
-  protected readonly busy = signal(false);
-  protected readonly error = signal<string | null>(null);
+  private readonly submission = new FormSubmission(this.form, (err, form) => sendFailure(err, 'Finish', form));
+  protected readonly busy = this.submission.busy;
+  protected readonly error = this.submission.error;
 
   protected submit(): void {
-    if (this.busy()) return;
-    if (this.form.invalid) {
-      this.form.markAllAsTouched();
-      return;
-    }
+    if (!this.submission.ready()) return;
     const v = this.form.getRawValue();
     const acres = this.metric() ? round2((v.acres! * HA_M2) / ACRE_M2) : v.acres!;
-    this.busy.set(true);
-    this.error.set(null);
-    this.api
-      .event(this.data.item.id, {
+    this.submission.send(
+      this.api.event(this.data.item.id, {
         type: 'finish',
         acres,
         engineHours: v.engineHours!,
         ...(v.note.trim() ? { note: v.note.trim() } : {}),
         at: this.data.at,
-      })
-      .subscribe({
-        next: (item) => this.ref.close(item),
-        error: (err: unknown) => {
-          this.busy.set(false);
-          this.error.set(sendFailure(err, 'Finish', this.form));
-        },
-      });
+      }),
+      (item) => this.ref.close(item),
+    );
   }
 }

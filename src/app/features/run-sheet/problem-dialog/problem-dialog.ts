@@ -18,6 +18,7 @@ import { Units } from '../../../shared/units/units';
 import { RunSheetApi } from '../run-sheet-api';
 import { sendFailure } from '../send-failure';
 import type { JobDialogData } from '../start-dialog/start-dialog';
+import { FormSubmission } from '../../../shared/forms/form-submission';
 
 type ProblemKind = (typeof PROBLEM_KINDS)[number];
 const KIND_LABELS: Record<ProblemKind, string> = { breakdown: 'Breakdown', hazard: 'A new hazard', other: 'Something else' };
@@ -66,6 +67,9 @@ export class ProblemDialog {
     clearance: new FormControl<number | null>(this.units.fromMetres(DEFAULT_CLEARANCE_M), [Validators.min(0)]),
     pause: new FormControl(true, { nonNullable: true }),
   });
+  private readonly submission = new FormSubmission(this.form, (err, form) => sendFailure(err, 'Send report', form));
+  protected readonly busy = this.submission.busy;
+  protected readonly error = this.submission.error;
   protected readonly kind = toSignal(this.form.controls.kind.valueChanges, { initialValue: this.form.controls.kind.value });
   /** The hazard's place, [lon, lat]. */
   protected readonly point = signal<[number, number] | null>(null);
@@ -75,8 +79,6 @@ export class ProblemDialog {
   });
   protected readonly locating = signal(false);
   protected readonly canLocate = typeof navigator !== 'undefined' && !!navigator.geolocation;
-  protected readonly busy = signal(false);
-  protected readonly error = signal<string | null>(null);
 
   private map: L.Map | null = null;
   private marker: L.CircleMarker | null = null;
@@ -109,11 +111,7 @@ export class ProblemDialog {
   }
 
   protected submit(): void {
-    if (this.busy()) return;
-    if (this.form.invalid) {
-      this.form.markAllAsTouched();
-      return;
-    }
+    if (!this.submission.ready()) return;
     const v = this.form.getRawValue();
     const body: ProblemInput = { kind: v.kind, note: v.note.trim() };
     if (v.kind === 'hazard') {
@@ -123,14 +121,6 @@ export class ProblemDialog {
       if (v.clearance != null) body.clearanceM = this.units.toMetres(v.clearance);
     }
     if (v.kind === 'breakdown') body.pause = this.canPause && v.pause;
-    this.busy.set(true);
-    this.error.set(null);
-    this.api.problem(this.data.item.id, body).subscribe({
-      next: (item) => this.ref.close(item),
-      error: (err: unknown) => {
-        this.busy.set(false);
-        this.error.set(sendFailure(err, 'Send report', this.form));
-      },
-    });
+    this.submission.send(this.api.problem(this.data.item.id, body), (item) => this.ref.close(item));
   }
 }

@@ -1,4 +1,4 @@
-import { Component, inject, signal } from '@angular/core';
+import { Component, inject } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
@@ -8,6 +8,7 @@ import type { RunSheetItem } from '@shared/schemas/board';
 import { startDefaults } from '../job-actions';
 import { RunSheetApi } from '../run-sheet-api';
 import { sendFailure } from '../send-failure';
+import { FormSubmission } from '../../../shared/forms/form-submission';
 
 export interface JobDialogData {
   item: RunSheetItem;
@@ -34,23 +35,15 @@ export class StartDialog {
       Validators.max(200_000),
     ]),
   });
-  protected readonly busy = signal(false);
-  protected readonly error = signal<string | null>(null);
+  private readonly submission = new FormSubmission(this.form, (err, form) => sendFailure(err, 'Start', form));
+  protected readonly busy = this.submission.busy;
+  protected readonly error = this.submission.error;
 
   protected submit(): void {
-    if (this.busy()) return;
-    if (this.form.invalid) {
-      this.form.markAllAsTouched();
-      return;
-    }
-    this.busy.set(true);
-    this.error.set(null);
-    this.api.event(this.data.item.id, { type: 'start', engineHours: this.form.getRawValue().engineHours!, at: this.data.at }).subscribe({
-      next: (item) => this.ref.close(item),
-      error: (err: unknown) => {
-        this.busy.set(false);
-        this.error.set(sendFailure(err, 'Start', this.form));
-      },
-    });
+    if (!this.submission.ready()) return;
+    this.submission.send(
+      this.api.event(this.data.item.id, { type: 'start', engineHours: this.form.getRawValue().engineHours!, at: this.data.at }),
+      (item) => this.ref.close(item),
+    );
   }
 }
