@@ -17,7 +17,7 @@ const DUMMY_HASH = bcrypt.hashSync('not-a-real-password', BCRYPT_ROUNDS);
 export const hashPassword = (password: string): Promise<string> => bcrypt.hash(password, BCRYPT_ROUNDS);
 
 export function toMe(p: SessionPrincipal): Me {
-  return { user: { id: p.id, email: p.email, name: p.name }, farm: { id: p.farmId, name: p.farmName, units: p.units, timeZone: p.timeZone }, role: p.role };
+  return { user: { id: p.id, email: p.email, name: p.name }, farm: { id: p.farmId, name: p.farmName, units: p.units, timeZone: p.timeZone }, role: p.role, membershipId: p.membershipId };
 }
 
 const badCredentials = () => new AppError(401, 'bad_credentials', 'That e-mail and password do not match an account');

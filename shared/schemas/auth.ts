@@ -56,6 +56,8 @@ export interface Me {
   user: SessionUser;
   farm: SessionFarm;
   role: Role;
+  /** The membership the person acts in (their column on the board, their run sheet). */
+  membershipId: number;
 }
 
 /** What `GET /api/auth/token/:token` tells the invitation / set-password page. */

@@ -25,6 +25,7 @@ describe('sign-in and sessions', () => {
     expect(res.body).toEqual({
       user: { id: farm.owner.id, email: farm.owner.email, name: farm.owner.name },
       farm: { id: farm.id, name: farm.name, units: 'us', timeZone: 'America/Chicago' },
+      membershipId: farm.owner.membershipId,
       role: 'owner',
     });
     const me = await c.get('/api/auth/me');

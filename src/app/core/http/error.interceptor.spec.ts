@@ -10,7 +10,7 @@ import { OFFLINE_MESSAGE, errorInterceptor } from './error.interceptor';
 
 const ME: Me = {
   user: { id: 1, email: 'ingrid@example.test', name: 'Ingrid Sorensen' },
-  farm: { id: 1, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' },
+  farm: { id: 1, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' }, membershipId: 1,
   role: 'owner',
 };
 

@@ -3,7 +3,9 @@ import { Injectable, inject } from '@angular/core';
 import type { EventInput, ProblemInput, RunSheetItem } from '@shared/schemas/board';
 import { type Observable } from 'rxjs';
 
-export const runSheetUrl = (day: string) => `/api/run-sheet?date=${day}`;
+/** A day's run sheet: the signed-in person's, or (for the owner) another member's. */
+export const runSheetUrl = (day: string, membershipId: number | null = null) =>
+  `/api/run-sheet?date=${day}${membershipId === null ? '' : `&membershipId=${membershipId}`}`;
 
 /** What an operator logs on a job; each call answers with the job as it now is. Reads use httpResource on runSheetUrl. */
 @Injectable({ providedIn: 'root' })

@@ -9,7 +9,7 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
-import { Router } from '@angular/router';
+import { Router, RouterLink } from '@angular/router';
 import { OPERATION_INFO } from '@shared/operations';
 import type { Board, BoardAssignment, PublishResult, WorkOrderState } from '@shared/schemas/board';
 import type { FieldSummary } from '@shared/schemas/fields';
@@ -48,6 +48,7 @@ interface StaleNotice {
 @Component({
   selector: 'app-board-page',
   imports: [
+    RouterLink,
     AssignmentCard,
     DragDropModule,
     MatButtonModule,

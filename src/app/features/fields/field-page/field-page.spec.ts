@@ -11,7 +11,7 @@ import { FieldMapStub } from '../../../shared/map/field-map/field-map-stub';
 import type { FieldDetail } from '../fields-api';
 import { FieldPage } from './field-page';
 
-const me = (role: Me['role']): Me => ({ user: { id: 1, email: 'a@example.test', name: 'A' }, farm: { id: 1, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' }, role });
+const me = (role: Me['role']): Me => ({ user: { id: 1, email: 'a@example.test', name: 'A' }, farm: { id: 1, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' }, membershipId: 1, role });
 const YEAR = new Date().getFullYear();
 
 const FIELD: FieldDetail = {

@@ -14,7 +14,7 @@ import { FieldsPage } from './fields-page';
 
 const me = (role: Me['role'], units: 'us' | 'metric' = 'us'): Me => ({
   user: { id: 1, email: 'ingrid@example.test', name: 'Ingrid Sorensen' },
-  farm: { id: 1, name: 'Tamarack Ridge Farm', units, timeZone: 'America/Chicago' },
+  farm: { id: 1, name: 'Tamarack Ridge Farm', units, timeZone: 'America/Chicago' }, membershipId: 1,
   role,
 });
 

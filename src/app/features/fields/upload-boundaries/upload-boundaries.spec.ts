@@ -11,7 +11,7 @@ import { FieldMap } from '../../../shared/map/field-map/field-map';
 import { FieldMapStub } from '../../../shared/map/field-map/field-map-stub';
 import { UploadBoundaries } from './upload-boundaries';
 
-const OWNER: Me = { user: { id: 1, email: 'i@example.test', name: 'Ingrid' }, farm: { id: 1, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' }, role: 'owner' };
+const OWNER: Me = { user: { id: 1, email: 'i@example.test', name: 'Ingrid' }, farm: { id: 1, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' }, membershipId: 1, role: 'owner' };
 const square = { type: 'Polygon', coordinates: [[[-99.9, 47.6], [-99.89, 47.6], [-99.89, 47.61], [-99.9, 47.6]]] };
 const PREVIEW: ImportPreview = {
   format: 'kml',

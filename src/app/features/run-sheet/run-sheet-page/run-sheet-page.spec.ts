@@ -31,6 +31,7 @@ describe('RunSheetPage', () => {
     TestBed.inject(AuthStore).signedInAs({
       user: { id: 2, email: 't@example.test', name: 'Tomas Reyes' },
       farm: { id: 1, name: 'F', units: 'us', timeZone: 'America/Chicago' },
+      membershipId: 1,
       role: 'operator',
     });
     http = TestBed.inject(HttpTestingController);
@@ -83,6 +84,72 @@ describe('RunSheetPage', () => {
     TestBed.tick();
     http.expectOne('/api/run-sheet?date=2031-05-15').flush(sheet([]));
     await fixture.whenStable();
+  });
+});
+
+describe('RunSheetPage for the owner', () => {
+  let fixture: ComponentFixture<RunSheetPage>;
+  let http: HttpTestingController;
+  let el: HTMLElement;
+  const CREW = [
+    { membershipId: 1, name: 'Ingrid Sorensen', role: 'owner' as const, skills: {} },
+    { membershipId: TOMAS.membershipId, name: TOMAS.name, role: 'operator' as const, skills: {} },
+    { membershipId: 9, name: 'Walt Sorensen', role: 'viewer' as const, skills: {} },
+  ];
+
+  beforeEach(() => {
+    TestBed.configureTestingModule({
+      imports: [RunSheetPage],
+      providers: [
+        provideRouter([]),
+        provideHttpClient(withInterceptors([errorInterceptor])),
+        provideHttpClientTesting(),
+        { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
+      ],
+    });
+    TestBed.overrideComponent(RunSheetJob, { remove: { imports: [FieldMap] }, add: { imports: [FieldMapStub] } });
+    TestBed.inject(AuthStore).signedInAs({
+      user: { id: 1, email: 'i@example.test', name: 'Ingrid Sorensen' },
+      farm: { id: 1, name: 'F', units: 'us', timeZone: 'America/Chicago' },
+      membershipId: 1,
+      role: 'owner',
+    });
+    http = TestBed.inject(HttpTestingController);
+    fixture = TestBed.createComponent(RunSheetPage);
+    fixture.componentRef.setInput('date', '2031-05-15');
+    el = fixture.nativeElement as HTMLElement;
+  });
+
+  afterEach(() => http.verify());
+
+  it("when the owner opens an operator's run sheet, then that person's sheet is asked for and a note says whom they log for", async () => {
+    fixture.componentRef.setInput('person', String(TOMAS.membershipId));
+    fixture.detectChanges();
+    http.expectOne('/api/crew').flush(CREW);
+    http
+      .expectOne(`/api/run-sheet?date=2031-05-15&membershipId=${TOMAS.membershipId}`)
+      .flush({ date: '2031-05-15', person: TOMAS, assignments: [] });
+    await fixture.whenStable();
+    expect(el.querySelector('[role="note"]')?.textContent).toContain(`You are logging for ${TOMAS.name}`);
+    expect(el.textContent).toContain(`Nothing on ${TOMAS.name}'s run sheet for this day.`);
+    expect(el.textContent).toContain('Whose run sheet');
+  });
+
+  it('when the owner opens their own, then no one else is asked for, no note shows and viewers are not offered', async () => {
+    fixture.componentRef.setInput('person', '1');
+    fixture.detectChanges();
+    http.expectOne('/api/crew').flush(CREW);
+    http
+      .expectOne('/api/run-sheet?date=2031-05-15')
+      .flush({ date: '2031-05-15', person: { membershipId: 1, name: 'Ingrid Sorensen' }, assignments: [] });
+    await fixture.whenStable();
+    expect(el.querySelector('[role="note"]')).toBeNull();
+    (el.querySelector('mat-select') as HTMLElement).click();
+    fixture.detectChanges();
+    await fixture.whenStable();
+    const options = [...document.querySelectorAll('mat-option')].map((o) => o.textContent?.trim());
+    expect(options).toEqual(['Ingrid Sorensen', TOMAS.name]);
+    document.querySelectorAll('.cdk-overlay-container').forEach((o) => (o.innerHTML = ''));
   });
 });
 

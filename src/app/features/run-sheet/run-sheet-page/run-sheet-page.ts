@@ -8,13 +8,16 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSelectModule } from '@angular/material/select';
 import { Router } from '@angular/router';
 import { OPERATION_INFO } from '@shared/operations';
 import { type RunSheet, type RunSheetItem, STATE_LABELS } from '@shared/schemas/board';
+import type { CrewMember } from '@shared/schemas/fleet';
 import { messageOf } from '../../../core/http/api-error';
 import { addDays, dateOf, isIsoDay, isoDay, longDay, today } from '../../board/board-day';
 import { RunSheetJob } from '../run-sheet-job/run-sheet-job';
 import { runSheetUrl } from '../run-sheet-api';
+import { CREW_URL } from '../../crew/crew-api';
 import { AuthStore } from '../../../core/auth/auth-store';
 
 const OPEN_FIRST: RunSheetItem['state'][] = ['underway', 'paused', 'planned'];
@@ -33,6 +36,7 @@ export function firstOpen(items: readonly RunSheetItem[]): number | null {
 /**
  * The signed-in person's run sheet for a day (today unless `?date=` says otherwise): their jobs in
  * running order, each opening to its map, hazards, cautions, pass plan and the buttons to log it.
+ * The owner can open anyone's (`?person=`), to log for someone who phoned the work in.
  */
 @Component({
   selector: 'app-run-sheet-page',
@@ -44,6 +48,7 @@ export function firstOpen(items: readonly RunSheetItem[]): number | null {
     MatIconModule,
     MatInputModule,
     MatProgressBarModule,
+    MatSelectModule,
     RunSheetJob,
   ],
   providers: [provideNativeDateAdapter()],
@@ -64,7 +69,32 @@ export class RunSheetPage {
   protected readonly dayDate = computed(() => dateOf(this.day()));
   protected readonly dayLabel = computed(() => longDay(this.day()));
 
-  protected readonly sheet = httpResource<RunSheet>(() => runSheetUrl(this.day()));
+  /** `?person=<membership id>` (owner only): whose run sheet; the signed-in person's own when absent. */
+  readonly person = input<string | undefined>();
+
+  protected readonly isOwner = this.auth.isOwner;
+  protected readonly personId = computed(() => {
+    const id = Number(this.person());
+    return this.auth.isOwner() && Number.isInteger(id) && id > 0 && id !== this.auth.me()?.membershipId ? id : null;
+  });
+  protected readonly sheet = httpResource<RunSheet>(() => runSheetUrl(this.day(), this.personId()));
+  private readonly crew = httpResource<CrewMember[]>(() => (this.auth.isOwner() ? CREW_URL : undefined), { defaultValue: [] });
+  /** The people the owner may open a run sheet for: everyone who can be given field work. */
+  protected readonly people = computed(() =>
+    this.crew.hasValue()
+      ? this.crew
+          .value()
+          .filter((m) => m.role !== 'viewer')
+          .sort((a, b) => a.name.localeCompare(b.name))
+      : [],
+  );
+  protected readonly shownId = computed(() => this.personId() ?? this.auth.me()?.membershipId ?? null);
+  /** The name of the person whose sheet the owner has open, when it is not their own. */
+  protected readonly otherName = computed(() => {
+    if (this.personId() === null) return null;
+    const s = this.sheet.hasValue() ? this.sheet.value() : null;
+    return s?.person.name ?? this.people().find((p) => p.membershipId === this.personId())?.name ?? null;
+  });
   protected readonly items = computed(() =>
     this.sheet.hasValue() && this.sheet.value()
       ? [...this.sheet.value()!.assignments].sort((a, b) => a.startTime.localeCompare(b.startTime) || a.order - b.order || a.id - b.id)
@@ -92,6 +122,11 @@ export class RunSheetPage {
 
   protected closed(id: number): void {
     if (this.openId() === id) this.chosen.set({ day: this.day(), id: null });
+  }
+
+  protected showPerson(id: number): void {
+    const person = id === this.auth.me()?.membershipId ? null : id;
+    void this.router.navigate([], { queryParams: { person }, queryParamsHandling: 'merge', replaceUrl: true });
   }
 
   protected goTo(day: string): void {

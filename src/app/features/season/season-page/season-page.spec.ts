@@ -21,7 +21,7 @@ globalThis.ResizeObserver ??= class {
 
 const me = (units: 'us' | 'metric'): Me => ({
   user: { id: 5, email: 'walt@example.test', name: 'Walt Sorensen' },
-  farm: { id: 1, name: 'Tamarack Ridge Farm', units, timeZone: 'America/Chicago' },
+  farm: { id: 1, name: 'Tamarack Ridge Farm', units, timeZone: 'America/Chicago' }, membershipId: 1,
   role: 'viewer',
 });
 
