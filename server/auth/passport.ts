@@ -9,6 +9,8 @@ import { verifyLogin } from './auth.service';
 interface StoredUser {
   userId: number;
   membershipId: number;
+  /** When this sign-in happened (ms since 1970); sessions from before it was kept count as 0. */
+  signedInAt?: number;
 }
 
 /**
@@ -25,7 +27,7 @@ export function createPassport(deps: AppDeps): InstanceType<typeof Passport> {
   );
   passport.serializeUser((user, done) => {
     const p = user as SessionPrincipal;
-    done(null, { userId: p.id, membershipId: p.membershipId } satisfies StoredUser);
+    done(null, { userId: p.id, membershipId: p.membershipId, signedInAt: Date.now() } satisfies StoredUser);
   });
   return passport;
 }
@@ -40,7 +42,7 @@ export function restorePrincipal(sessions: Pick<SessionStore, 'principal'>): Req
   return (req, _res, next) => {
     const login = (req.session as { passport?: { user?: StoredUser } } | undefined)?.passport;
     if (!login?.user) return next();
-    sessions.principal(login.user.userId, login.user.membershipId).then((p) => {
+    sessions.principal(login.user.userId, login.user.membershipId, new Date(login.user.signedInAt ?? 0)).then((p) => {
       if (p) req.user = p;
       else delete login.user;
       next();

@@ -12,8 +12,15 @@ export async function createUser(db: Tx, u: { email: string; name: string; passw
   return row;
 }
 
-export async function setPasswordHash(db: Tx, userId: number, hash: string, name?: string): Promise<void> {
-  await db('users').where({ id: userId }).update({ password_hash: hash, ...(name ? { name } : {}) });
+/**
+ * Sets a new password. Every session signed in before `now` stops working (they are deleted, and
+ * a copy a server still holds finds no principal): a new password signs the person out elsewhere.
+ */
+export async function setPasswordHash(db: Tx, userId: number, hash: string, name?: string, now = new Date()): Promise<void> {
+  await db('users')
+    .where({ id: userId })
+    .update({ password_hash: hash, sessions_revoked_at: now, ...(name ? { name } : {}) });
+  await db('session').whereRaw(`(sess->'passport'->'user'->>'userId')::int = ?`, [userId]).delete();
 }
 
 /**
@@ -28,11 +35,15 @@ export const PRINCIPAL_SQL = `
   join users u on u.id = m.user_id
   join farms f on f.id = m.farm_id
   left join farm_revisions r on r.farm_id = m.farm_id
-  where m.id = ? and m.user_id = ? and m.status = 'active'`;
+  where m.id = ? and m.user_id = ? and m.status = 'active'
+    and (u.sessions_revoked_at is null or u.sessions_revoked_at <= ?)`;
 
-/** The principal for a user acting in one membership, or undefined if it is not active. */
-export async function loadPrincipal(db: Tx, userId: number, membershipId: number): Promise<SessionPrincipal | undefined> {
-  const { rows } = await db.raw<{ rows: SessionPrincipal[] }>(PRINCIPAL_SQL, [membershipId, userId]);
+/**
+ * The principal for a user acting in one membership, or undefined if it is not active or if the
+ * sign-in (at `signedInAt`) is older than the person's last new password.
+ */
+export async function loadPrincipal(db: Tx, userId: number, membershipId: number, signedInAt = new Date()): Promise<SessionPrincipal | undefined> {
+  const { rows } = await db.raw<{ rows: SessionPrincipal[] }>(PRINCIPAL_SQL, [membershipId, userId, signedInAt]);
   return rows[0];
 }
 

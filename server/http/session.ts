@@ -13,7 +13,7 @@ export interface SessionStore {
    * this pool rather than a knex query: measured with `npm run bench -- server`, knex's building
    * and running of this one query cost about as much as the rest of a cached board request.
    */
-  principal: (userId: number, membershipId: number) => Promise<SessionPrincipal | undefined>;
+  principal: (userId: number, membershipId: number, signedInAt: Date) => Promise<SessionPrincipal | undefined>;
   close: () => Promise<void>;
 }
 
@@ -33,8 +33,8 @@ export function createSessionStore(databaseUrl: string, prune = true): SessionSt
   reuseReads(store);
   return {
     store,
-    principal: async (userId, membershipId) => {
-      const { rows } = await pool.query<SessionPrincipal>({ name: 'session-principal', text: principalSql, values: [membershipId, userId] });
+    principal: async (userId, membershipId, signedInAt) => {
+      const { rows } = await pool.query<SessionPrincipal>({ name: 'session-principal', text: principalSql, values: [membershipId, userId, signedInAt] });
       return rows[0];
     },
     close: async () => {

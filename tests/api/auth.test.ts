@@ -299,6 +299,43 @@ describe('invitations and password resets by e-mail', () => {
   });
 });
 
+// Its own app: the mail links count against the per-address limit of the other block.
+describe('a new password', () => {
+  let t: TestApp;
+  let farm: TestFarm;
+  beforeAll(async () => {
+    t = await startTestApp();
+    farm = await makeFarm(t.db, 'Reset');
+  });
+  afterAll(() => t.close());
+
+  it('when a password is reset, then every session signed in before it stops working, and the new one works', async () => {
+    const phone = new Client(t.app);
+    await phone.signIn(farm.operator.email, farm.operator.password);
+    const office = new Client(t.app);
+    await office.signIn(farm.operator.email, farm.operator.password);
+    expect((await phone.get('/api/auth/me')).status).toBe(200);
+    expect((await office.get('/api/auth/me')).status).toBe(200);
+    const sessionsOf = async () =>
+      (await t.db('session').whereRaw(`(sess->'passport'->'user'->>'userId')::int = ?`, [farm.operator.id]).count<Array<{ count: number }>>('* as count'))[0].count;
+    expect(await sessionsOf()).toBeGreaterThanOrEqual(2);
+
+    const guest = new Client(t.app);
+    await guest.prime();
+    expect((await guest.post('/api/auth/forgot', { email: farm.operator.email })).status).toBe(202);
+    await t.flushMail();
+    const mail = await t.mail.waitFor((m) => m.to.includes(farm.operator.email) && m.text.includes('/set-password'));
+    const set = await guest.post('/api/auth/set-password', { token: linkIn(mail.text, '/set-password'), password: 'operator-new-password' });
+    expect(set.status).toBe(200);
+
+    // At once, though this server had just read those sessions (it keeps them a few seconds).
+    expect((await phone.get('/api/auth/me')).status).toBe(401);
+    expect((await office.get('/api/board?date=2026-05-04')).status).toBe(401);
+    expect((await guest.get('/api/auth/me')).status).toBe(200);
+    expect(await sessionsOf()).toBe(1);
+  });
+});
+
 describe('a configured map background', () => {
   it('when a tile URL is set, then the CSP lets images (only) come from its origin', async () => {
     const t = await startTestApp({ MAP_TILE_URL: 'https://{s}.tiles.farm.example/{z}/{x}/{y}.png', MAP_TILE_ATTRIBUTION: 'Our own tiles' });
