@@ -163,6 +163,25 @@ describe('Fields in a real browser', () => {
     await screenshot(page, 'fields-3-field-page-owner');
   });
 
+  it('when the owner redraws the rock where it really is, then its point moves and its kind, clearance and note stay', async () => {
+    expect(drawnId).toBeGreaterThan(0);
+    const before = await rig.t.db('hazards').where({ field_id: drawnId, kind: 'rock' }).first();
+    const page = await pageFor('owner');
+    await page.goto(`/fields/${drawnId}`);
+    const map = page.locator('app-field-map');
+    await map.locator('.fm-hazard').first().waitFor();
+    await page.getByRole('button', { name: 'Redraw Rock on the map' }).click();
+    await page.getByText('Redrawing the rock: the old shape stays until you finish.').waitFor();
+    await toTop(page);
+    const box = (await map.boundingBox())!;
+    await page.mouse.click(box.x + box.width / 2 - 100, box.y + box.height / 2 + 40);
+    await page.getByText('The rock was redrawn.').waitFor();
+    const after = await rig.t.db('hazards').where({ id: before.id }).first();
+    expect(after.geometry.type).toBe('Point');
+    expect(after.geometry.coordinates).not.toEqual(before.geometry.coordinates);
+    expect({ kind: after.kind, clearance: after.clearance_m, note: after.note }).toEqual({ kind: before.kind, clearance: before.clearance_m, note: before.note });
+  });
+
   it('when the owner uploads a KML of three fields and unticks one, then the other two are saved and listed', async () => {
     const features = [
       rectangle(kmlNames[0], -99.95, 47.62, 0.008, 0.0045),

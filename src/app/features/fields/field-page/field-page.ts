@@ -27,8 +27,18 @@ import { CropPlans } from '../crop-plans/crop-plans';
 import { type Boundary, type FieldDetail, FieldsApi, fieldUrl } from '../fields-api';
 import { HazardForm, type HazardFormValue } from '../hazard-form/hazard-form';
 import { HazardList } from '../hazard-list/hazard-list';
+import { HAZARD_LABELS, type HazardKind } from '@shared/schemas/fields';
 
 const SHAPE_NAMES: Record<DrawnShape, string> = { Marker: 'point', Line: 'line', Polygon: 'area' };
+/** The drawing tool that makes a geometry of each type again. */
+const SHAPE_OF: Record<string, DrawnShape> = {
+  Point: 'Marker',
+  MultiPoint: 'Marker',
+  LineString: 'Line',
+  MultiLineString: 'Line',
+  Polygon: 'Polygon',
+  MultiPolygon: 'Polygon',
+};
 
 /** Hazard being added (drawn geometry) or edited (existing feature). */
 interface HazardEdit {
@@ -161,6 +171,33 @@ export class FieldPage {
       this.drawing.set(null);
       if (geometry) this.hazardEdit.set({ hazard: null, geometry, shape: SHAPE_NAMES[shape] });
     });
+  }
+
+  /** The hazard being drawn again, while its new shape is drawn. */
+  protected readonly redrawing = signal<HazardFeature | null>(null);
+
+  protected redrawHazard(hazard: HazardFeature): void {
+    const map = this.map;
+    const f = this.detail();
+    if (!map || !f) return;
+    const shape = SHAPE_OF[hazard.geometry.type];
+    this.hazardError.set(null);
+    this.hazardEdit.set(null);
+    this.drawing.set(shape);
+    this.redrawing.set(hazard);
+    map.getContainer().scrollIntoView({ block: 'nearest' });
+    void drawShape(map, shape).then((geometry) => {
+      this.drawing.set(null);
+      this.redrawing.set(null);
+      if (geometry)
+        this.write(this.api.updateHazard(f.id, hazard.properties.id, { geometry }), this.hazardError, () =>
+          this.tell(`The ${this.hazardLabel(hazard)} was redrawn.`),
+        );
+    });
+  }
+
+  protected hazardLabel(hazard: HazardFeature): string {
+    return (HAZARD_LABELS[hazard.properties.kind as HazardKind] ?? hazard.properties.kind).toLowerCase();
   }
 
   protected stopHazardDrawing(): void {

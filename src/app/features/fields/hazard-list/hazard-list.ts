@@ -21,6 +21,8 @@ export class HazardList {
   readonly highlighted = input<number | null>(null);
 
   readonly edit = output<HazardFeature>();
+  /** Draw the hazard's shape again where it really is (kind, clearance and note stay). */
+  readonly redraw = output<HazardFeature>();
   readonly remove = output<HazardFeature>();
   readonly confirm = output<HazardFeature>();
 
