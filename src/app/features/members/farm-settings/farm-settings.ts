@@ -26,6 +26,7 @@ import { clockIn, timeZoneChoices } from './time-zones';
   imports: [MatAutocompleteModule, MatButtonModule, MatFormFieldModule, MatInputModule, MatSelectModule, ReactiveFormsModule],
   templateUrl: './farm-settings.html',
   styleUrl: './farm-settings.scss',
+  host: { class: 'inline-form' },
 })
 export class FarmSettingsForm {
   private readonly api = inject(FarmApi);

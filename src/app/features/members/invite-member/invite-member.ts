@@ -16,7 +16,7 @@ import { ROLE_OPTIONS } from '../role-labels';
   selector: 'app-invite-member',
   imports: [MatButtonModule, MatFormFieldModule, MatInputModule, MatSelectModule, ReactiveFormsModule],
   templateUrl: './invite-member.html',
-  styleUrl: './invite-member.scss',
+  host: { class: 'inline-form' },
 })
 export class InviteMember {
   private readonly api = inject(MembersApi);

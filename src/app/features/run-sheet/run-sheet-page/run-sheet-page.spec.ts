@@ -3,6 +3,7 @@ import { HttpTestingController, provideHttpClientTesting } from '@angular/common
 import { type ComponentFixture, TestBed } from '@angular/core/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { provideRouter } from '@angular/router';
+import type { Me } from '@shared/schemas/auth';
 import type { RunSheet } from '@shared/schemas/board';
 import { AuthStore } from '../../../core/auth/auth-store';
 import { errorInterceptor } from '../../../core/http/error.interceptor';
@@ -12,32 +13,36 @@ import { MILO, TOMAS, job } from '../../board/testing/board-fixtures';
 import { RunSheetJob } from '../run-sheet-job/run-sheet-job';
 import { RunSheetPage, firstOpen } from './run-sheet-page';
 
+/** The page for a signed-in person on 2031-05-15, its HTTP calls held for the test to answer. */
+function setUp(me: Me): { fixture: ComponentFixture<RunSheetPage>; http: HttpTestingController; el: HTMLElement } {
+  TestBed.configureTestingModule({
+    imports: [RunSheetPage],
+    providers: [
+      provideRouter([]),
+      provideHttpClient(withInterceptors([errorInterceptor])),
+      provideHttpClientTesting(),
+      { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
+    ],
+  });
+  TestBed.overrideComponent(RunSheetJob, { remove: { imports: [FieldMap] }, add: { imports: [FieldMapStub] } });
+  TestBed.inject(AuthStore).signedInAs(me);
+  const fixture = TestBed.createComponent(RunSheetPage);
+  fixture.componentRef.setInput('date', '2031-05-15');
+  return { fixture, http: TestBed.inject(HttpTestingController), el: fixture.nativeElement as HTMLElement };
+}
+
 describe('RunSheetPage', () => {
   let fixture: ComponentFixture<RunSheetPage>;
   let http: HttpTestingController;
   let el: HTMLElement;
 
   beforeEach(() => {
-    TestBed.configureTestingModule({
-      imports: [RunSheetPage],
-      providers: [
-        provideRouter([]),
-        provideHttpClient(withInterceptors([errorInterceptor])),
-        provideHttpClientTesting(),
-        { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
-      ],
-    });
-    TestBed.overrideComponent(RunSheetJob, { remove: { imports: [FieldMap] }, add: { imports: [FieldMapStub] } });
-    TestBed.inject(AuthStore).signedInAs({
+    ({ fixture, http, el } = setUp({
       user: { id: 2, email: 't@example.test', name: 'Tomas Reyes' },
       farm: { id: 1, name: 'F', units: 'us', timeZone: 'America/Chicago' },
-      membershipId: 1,
+      membershipId: TOMAS.membershipId,
       role: 'operator',
-    });
-    http = TestBed.inject(HttpTestingController);
-    fixture = TestBed.createComponent(RunSheetPage);
-    fixture.componentRef.setInput('date', '2031-05-15');
-    el = fixture.nativeElement as HTMLElement;
+    }));
     fixture.detectChanges();
   });
 
@@ -98,26 +103,12 @@ describe('RunSheetPage for the owner', () => {
   ];
 
   beforeEach(() => {
-    TestBed.configureTestingModule({
-      imports: [RunSheetPage],
-      providers: [
-        provideRouter([]),
-        provideHttpClient(withInterceptors([errorInterceptor])),
-        provideHttpClientTesting(),
-        { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
-      ],
-    });
-    TestBed.overrideComponent(RunSheetJob, { remove: { imports: [FieldMap] }, add: { imports: [FieldMapStub] } });
-    TestBed.inject(AuthStore).signedInAs({
+    ({ fixture, http, el } = setUp({
       user: { id: 1, email: 'i@example.test', name: 'Ingrid Sorensen' },
       farm: { id: 1, name: 'F', units: 'us', timeZone: 'America/Chicago' },
       membershipId: 1,
       role: 'owner',
-    });
-    http = TestBed.inject(HttpTestingController);
-    fixture = TestBed.createComponent(RunSheetPage);
-    fixture.componentRef.setInput('date', '2031-05-15');
-    el = fixture.nativeElement as HTMLElement;
+    }));
   });
 
   afterEach(() => http.verify());
