@@ -1,5 +1,6 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, computed, inject, signal } from '@angular/core';
+import { yearIn } from '@shared/calendar';
 import type { Me, Role } from '@shared/schemas/auth';
 import { type Observable, catchError, firstValueFrom, map, of, tap } from 'rxjs';
 
@@ -18,6 +19,12 @@ export class AuthStore {
   readonly isOwner = computed(() => this.role() === 'owner');
   readonly user = computed(() => this.current()?.user ?? null);
   readonly farm = computed(() => this.current()?.farm ?? null);
+
+  /** The farm's current season: the calendar year at the farm (the browser's, before sign-in). */
+  currentSeason(now = new Date()): number {
+    const zone = this.farm()?.timeZone;
+    return zone ? yearIn(zone, now) : now.getFullYear();
+  }
 
   /** Asks the server once at start-up who this browser belongs to; a 401 just means "nobody". */
   load(): Promise<Me | null> {

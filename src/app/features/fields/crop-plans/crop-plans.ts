@@ -10,6 +10,7 @@ import type { Observable } from 'rxjs';
 import { messageOf } from '../../../core/http/api-error';
 import { type CropPlan, FieldsApi } from '../fields-api';
 import { seasonChoices } from '../seasons';
+import { AuthStore } from '../../../core/auth/auth-store';
 
 /** The crop planned on a field for each season; the owner sets or clears a season's crop. */
 @Component({
@@ -28,12 +29,13 @@ export class CropPlans {
   readonly changed = output<void>();
 
   protected readonly cropNames = CROPS;
-  protected readonly seasons = seasonChoices(new Date().getFullYear());
+  private readonly thisSeason = inject(AuthStore).currentSeason();
+  protected readonly seasons = seasonChoices(this.thisSeason);
   protected readonly sorted = computed(() => [...this.crops()].sort((a, b) => b.season - a.season));
   protected readonly busy = signal(false);
   protected readonly error = signal<string | null>(null);
   protected readonly form = new FormGroup({
-    season: new FormControl(new Date().getFullYear(), { nonNullable: true }),
+    season: new FormControl(this.thisSeason, { nonNullable: true }),
     crop: new FormControl('', { nonNullable: true, validators: [Validators.required] }),
     varietyNote: new FormControl('', { nonNullable: true, validators: [Validators.maxLength(200)] }),
   });

@@ -81,8 +81,9 @@ export class FieldPage {
   /** The `:id` route parameter. */
   readonly id = input.required<string>();
 
-  protected readonly isOwner = inject(AuthStore).isOwner;
-  protected readonly season = new Date().getFullYear();
+  private readonly auth = inject(AuthStore);
+  protected readonly isOwner = this.auth.isOwner;
+  protected readonly season = this.auth.currentSeason();
   protected readonly field = httpResource<FieldDetail>(() => fieldUrl(Number(this.id()), this.season));
   protected readonly detail = computed(() => (this.field.hasValue() ? this.field.value() : null));
   protected readonly loadError = computed(() => {

@@ -52,8 +52,8 @@ export class FieldsPage {
   protected readonly units = inject(Units);
 
   protected readonly isOwner = this.auth.isOwner;
-  protected readonly seasons = seasonChoices(new Date().getFullYear());
-  protected readonly season = signal(new Date().getFullYear());
+  protected readonly seasons = seasonChoices(this.auth.currentSeason());
+  protected readonly season = signal(this.auth.currentSeason());
   protected readonly fields = httpResource<FieldSummary[]>(() => fieldsUrl(this.season()), { defaultValue: [] });
   protected readonly rows = computed(() => (this.fields.hasValue() ? this.fields.value() : []));
   protected readonly loadError = computed(() => {

@@ -15,6 +15,7 @@ import { AreaPipe } from '../../../shared/units/area-pipe';
 import { BoundaryEditor } from '../boundary-editor/boundary-editor';
 import { measureBoundary } from '../boundary-measure';
 import { type Boundary, FieldsApi, fieldsUrl } from '../fields-api';
+import { AuthStore } from '../../../core/auth/auth-store';
 
 /** The owner draws a new field (parts and holes), sees its acres live, names it and saves it. */
 @Component({
@@ -27,6 +28,7 @@ export class NewField {
   private readonly api = inject(FieldsApi);
   private readonly router = inject(Router);
   private readonly snackBar = inject(MatSnackBar);
+  private readonly auth = inject(AuthStore);
 
   protected readonly form = new FormGroup({
     name: new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.maxLength(120)] }),
@@ -35,7 +37,7 @@ export class NewField {
   private readonly name = toSignal(this.form.controls.name.valueChanges, { initialValue: '' });
 
   /** The other fields of the farm, drawn dashed so the new one can be placed beside them. */
-  private readonly existing = httpResource<FieldSummary[]>(() => fieldsUrl(new Date().getFullYear()), { defaultValue: [] });
+  private readonly existing = httpResource<FieldSummary[]>(() => fieldsUrl(this.auth.currentSeason()), { defaultValue: [] });
   protected readonly context = computed<MapField[]>(() =>
     (this.existing.hasValue() ? this.existing.value() : []).map((f) => ({ id: f.id, name: f.name, boundary: f.boundary as MapField['boundary'], muted: true })),
   );
