@@ -1,3 +1,4 @@
+import type { Request } from 'express';
 import multer from 'multer';
 import { z } from 'zod';
 import { idParam } from '../../shared/schemas/common';
@@ -15,18 +16,18 @@ export const IMPORT_LIMIT_BYTES = 10 * 1024 * 1024;
 
 const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: IMPORT_LIMIT_BYTES, files: 1, fields: 10 } });
 const seasonQuery = z.object({ season: season.optional() });
+/** The season asked for (`?season=`), else the farm's current one (the year at the farm). */
+const seasonOf = (req: Request): number => query(req, seasonQuery).season ?? fields.currentSeason(principal(req).timeZone);
 const hazardParams = idParam.extend({ hazardId: z.coerce.number().int().positive() });
 const cropParams = idParam.extend({ season });
 
 export function fieldRoutes(r: Routes, deps: AppDeps): void {
   r.get('/', 'member', async (req, res) => {
-    const by = principal(req);
-    res.json(await fields.listFields(deps, by.farmId, query(req, seasonQuery).season ?? fields.currentSeason(by.timeZone)));
+    res.json(await fields.listFields(deps, principal(req).farmId, seasonOf(req)));
   });
 
   r.get('/export.geojson', 'member', async (req, res) => {
-    const by = principal(req);
-    const fc = await fields.exportGeoJson(deps, by.farmId, query(req, seasonQuery).season ?? fields.currentSeason(by.timeZone));
+    const fc = await fields.exportGeoJson(deps, principal(req).farmId, seasonOf(req));
     res.set('Content-Disposition', 'attachment; filename="fields.geojson"').type('application/geo+json').send(JSON.stringify(fc));
   });
 
@@ -34,7 +35,7 @@ export function fieldRoutes(r: Routes, deps: AppDeps): void {
     const input = body(req, fieldCreateBody);
     const farmId = principal(req).farmId;
     const id = await fields.createField(deps, farmId, input);
-    res.status(201).json(await fields.getField(deps, farmId, id));
+    res.status(201).json(await fields.getField(deps, farmId, id, seasonOf(req)));
   });
 
   r.post('/import', ['owner'], upload.single('file'), async (req, res) => {
@@ -62,15 +63,14 @@ export function fieldRoutes(r: Routes, deps: AppDeps): void {
   });
 
   r.get('/:id', 'member', async (req, res) => {
-    const by = principal(req);
-    res.json(await fields.getField(deps, by.farmId, params(req, idParam).id, query(req, seasonQuery).season ?? fields.currentSeason(by.timeZone)));
+    res.json(await fields.getField(deps, principal(req).farmId, params(req, idParam).id, seasonOf(req)));
   });
 
   r.patch('/:id', ['owner'], async (req, res) => {
     const { id } = params(req, idParam);
     const farmId = principal(req).farmId;
     await fields.updateField(deps, farmId, id, body(req, fieldPatchBody));
-    res.json(await fields.getField(deps, farmId, id));
+    res.json(await fields.getField(deps, farmId, id, seasonOf(req)));
   });
 
   r.delete('/:id', ['owner'], async (req, res) => {

@@ -12,7 +12,7 @@ import { roundTo } from '../../shared/round';
 import { yearIn } from '../../shared/calendar';
 
 /** The season a farm is in now: the calendar year at the farm. */
-export const currentSeason = (timeZone = 'America/Chicago'): number => yearIn(timeZone);
+export const currentSeason = (timeZone: string): number => yearIn(timeZone);
 
 const nameTaken = (name: string) =>
   new AppError(409, 'name_taken', `There is already a field called "${name}" on this farm; choose another name`, { name: 'Name already used' });
@@ -27,7 +27,7 @@ export function hazardFeature(h: repo.DbHazardRow): Feature<Geometry> {
 }
 
 
-export async function listFields(deps: AppDeps, farmId: number, season = currentSeason()): Promise<FieldSummary[]> {
+export async function listFields(deps: AppDeps, farmId: number, season: number): Promise<FieldSummary[]> {
   const rows = await repo.listFields(deps.db, farmId, season);
   return rows.map((r) => ({
     id: r.id,
@@ -41,7 +41,7 @@ export async function listFields(deps: AppDeps, farmId: number, season = current
   }));
 }
 
-export async function getField(deps: AppDeps, farmId: number, id: number, season = currentSeason()) {
+export async function getField(deps: AppDeps, farmId: number, id: number, season: number) {
   const f = await repo.getField(deps.db, farmId, id);
   if (!f) throw notFound('That field');
   const hazards = await repo.hazardsOfField(deps.db, farmId, id);
@@ -155,7 +155,7 @@ export async function copyCropPlans(deps: AppDeps, farmId: number, from: number,
 }
 
 /** All fields and their hazards as one GeoJSON FeatureCollection (RFC 7946). */
-export async function exportGeoJson(deps: AppDeps, farmId: number, season = currentSeason()): Promise<FeatureCollection> {
+export async function exportGeoJson(deps: AppDeps, farmId: number, season: number): Promise<FeatureCollection> {
   const fields = await repo.listFields(deps.db, farmId, season);
   const names = new Map(fields.map((f) => [f.id, f.name]));
   const hazards = await repo.hazardsOfFarm(deps.db, farmId);
