@@ -175,6 +175,16 @@ async function freePort(): Promise<number> {
   return port;
 }
 
+/** Resolves once a started server prints that it listens; rejects if it exits first. */
+function listening(child: ChildProcess, name: string): Promise<void> {
+  return new Promise<void>((resolve, reject) => {
+    child.once('exit', (code) => reject(new Error(`${name} exited with ${code} before listening`)));
+    child.stdout!.on('data', (chunk: Buffer) => {
+      if (chunk.toString().includes('listening on')) resolve();
+    });
+  });
+}
+
 /** Starts server/index.ts on a free loopback port and resolves once it listens. */
 async function startServer(databaseUrl: string): Promise<{ child: ChildProcess; base: string }> {
   const port = await freePort();
@@ -188,13 +198,7 @@ async function startServer(databaseUrl: string): Promise<{ child: ChildProcess; 
     FAKE_SMTP_PORT: '0',
   };
   const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], { cwd: path.resolve(__dirname, '..'), env, stdio: ['ignore', 'pipe', 'inherit'] });
-  await new Promise<void>((resolve, reject) => {
-    child.once('exit', (code) => reject(new Error(`the server exited with ${code} before listening`)));
-    child.stdout!.on('data', (chunk: Buffer) => {
-      if (chunk.toString().includes('listening on')) resolve();
-    });
-  });
-  child.stdout!.resume();
+  await listening(child, 'the server');
   return { child, base: `http://127.0.0.1:${port}` };
 }
 
@@ -208,10 +212,7 @@ async function startBareExpress(bytes: number): Promise<{ child: ChildProcess; b
     app.get('/', (_req, res) => { res.type('json').send(body); });
     app.listen(${port}, '127.0.0.1', () => console.log('listening on ${port}'));`;
   const child = spawn(process.execPath, ['-e', code], { cwd: path.resolve(__dirname, '..'), stdio: ['ignore', 'pipe', 'inherit'] });
-  await new Promise<void>((resolve, reject) => {
-    child.once('exit', (code) => reject(new Error(`bare Express exited with ${code}`)));
-    child.stdout!.on('data', (chunk: Buffer) => chunk.toString().includes('listening on') && resolve());
-  });
+  await listening(child, 'bare Express');
   return { child, base: `http://127.0.0.1:${port}` };
 }
 

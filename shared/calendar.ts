@@ -9,7 +9,8 @@ export function dayIn(timeZone: string, at: Date = new Date()): string {
     f = new Intl.DateTimeFormat('en-US', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit' });
     dayFormats.set(timeZone, f);
   }
-  const part = (type: string) => f.formatToParts(at).find((p) => p.type === type)!.value;
+  const parts = f.formatToParts(at);
+  const part = (type: string) => parts.find((p) => p.type === type)!.value;
   return `${part('year')}-${part('month')}-${part('day')}`;
 }
 
