@@ -1,9 +1,10 @@
-import type { Polygon } from 'geojson';
+import type { MultiPolygon, Polygon } from 'geojson';
 import GeometryFactory from 'jsts/org/locationtech/jts/geom/GeometryFactory.js';
 import GeoJSONReader from 'jsts/org/locationtech/jts/io/GeoJSONReader.js';
 import IsValidOp from 'jsts/org/locationtech/jts/operation/valid/IsValidOp.js';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
+import { MAX_BOUNDARY_RINGS, MAX_BOUNDARY_VERTICES } from '../limits';
 import { assertBoundary, checkBoundary } from './boundary-check';
 
 // Rules checked: RFC 7946 §3.1.6 (a linear ring is closed, has ≥ 4 positions; positions are
@@ -12,8 +13,9 @@ import { assertBoundary, checkBoundary } from './boundary-check';
 // Where a rule is geometric, JTS's IsValidOp (jsts) is the independent reference.
 
 const reader = new GeoJSONReader(new GeometryFactory());
-const jtsValid = (g: Polygon): boolean => new IsValidOp(reader.read(g)).isValid();
+const jtsValid = (g: Polygon | MultiPolygon): boolean => new IsValidOp(reader.read(g)).isValid();
 const poly = (...rings: number[][][]): Polygon => ({ type: 'Polygon', coordinates: rings });
+const multi = (...parts: number[][][][]): MultiPolygon => ({ type: 'MultiPolygon', coordinates: parts });
 const square = [
   [-99.92, 47.6],
   [-99.9, 47.6],
@@ -143,5 +145,97 @@ describe('checkBoundary', () => {
   it('when assertBoundary meets a bad boundary, then it throws the first message; a good one passes', () => {
     expect(() => assertBoundary({ type: 'Point', coordinates: [0, 0] }, 'X')).toThrow("The boundary of field 'X' is a Point");
     expect(() => assertBoundary(poly(square))).not.toThrow();
+  });
+
+  describe('rings that touch at single points', () => {
+    // A grid of 0.001° steps from a corner, so shared points are exactly equal numbers.
+    const at = (i: number, j: number): number[] => [-99.92 + i * 0.001, 47.6 + j * 0.001];
+    const box = (i0: number, j0: number, i1: number, j1: number): number[][] => [
+      at(i0, j0),
+      at(i1, j0),
+      at(i1, j1),
+      at(i0, j1),
+      at(i0, j0),
+    ];
+    // Reference: JTS IsValidOp (jsts), the OGC Simple Features 1.2.1 §6.1.11 rules: parts of a
+    // MultiPolygon may touch at finitely many points; a polygon's rings may touch at points as long
+    // as its interior stays connected; no ring may touch itself; no crossings or shared stretches.
+    const cases: [string, Polygon | MultiPolygon, boolean][] = [
+      ['two squares touching at a corner', multi([box(0, 0, 4, 4)], [box(4, 4, 8, 8)]), true],
+      ['two squares sharing an edge', multi([box(0, 0, 4, 4)], [box(4, 0, 8, 4)]), false],
+      ['two squares sharing half an edge', multi([box(0, 0, 4, 4)], [box(4, 2, 8, 6)]), false],
+      [
+        'a square and a diamond whose corner pokes through its edge',
+        multi([box(0, 0, 4, 4)], [[at(3, 2), at(6, 0), at(9, 2), at(6, 4), at(3, 2)]]),
+        false,
+      ],
+      [
+        'a diamond touching the middle of a square edge with its corner',
+        multi([box(0, 0, 4, 4)], [[at(4, 2), at(6, 0), at(8, 2), at(6, 4), at(4, 2)]]),
+        true,
+      ],
+      ['a hole touching its outer ring at one corner', poly(box(0, 0, 8, 8), [at(0, 0), at(3, 1), at(1, 3), at(0, 0)]), true],
+      ['a hole touching the middle of an outer edge at one point', poly(box(0, 0, 8, 8), [at(4, 0), at(6, 3), at(2, 3), at(4, 0)]), true],
+      ['a hole touching its outer ring at two points', poly(box(0, 0, 8, 8), [at(0, 4), at(4, 2), at(8, 4), at(4, 6), at(0, 4)]), false],
+      ['two holes touching each other at one point', poly(box(0, 0, 8, 8), box(1, 1, 3, 3), box(3, 3, 5, 5)), true],
+      ['a ring touching itself at one point', poly([at(0, 0), at(8, 0), at(4, 4), at(6, 6), at(2, 6), at(4, 4), at(0, 0)]), false],
+    ];
+    it.each(cases)('when %s, then checkBoundary agrees with JTS IsValidOp (valid: %s)', (_name, g, valid) => {
+      expect(jtsValid(g)).toBe(valid);
+      expect(checkBoundary(g)).toEqual(valid ? [] : [expect.objectContaining({ message: expect.any(String) })]);
+    });
+
+    it('when a hole touches its outer ring twice, then the message says it cuts the field into pieces', () => {
+      const [p] = checkBoundary(poly(box(0, 0, 8, 8), [at(0, 4), at(4, 2), at(8, 4), at(4, 6), at(0, 4)]), 'X');
+      expect(p.code).toBe('rings-touch');
+      expect(p.message).toMatch(/^Ring 2 of field 'X' touches ring 1 near .*cuts the field into separate pieces/);
+    });
+
+    it('when a part lies inside another part touching it at a corner, then the parts overlap (JTS agrees)', () => {
+      const g = multi([box(0, 0, 8, 8)], [[at(0, 0), at(3, 1), at(1, 3), at(0, 0)]]);
+      expect(jtsValid(g)).toBe(false);
+      expect(checkBoundary(g)[0].code).toBe('parts-overlap');
+    });
+
+    it('when a hole touches its outer ring from outside, then it lies outside (JTS agrees)', () => {
+      const g = poly(box(0, 0, 4, 4), [at(4, 4), at(6, 5), at(5, 6), at(4, 4)]);
+      expect(jtsValid(g)).toBe(false);
+      expect(checkBoundary(g)[0].code).toBe('hole-outside');
+    });
+  });
+
+  describe('budgets (shared/limits.ts)', () => {
+    it('when a boundary has more positions than the budget, then it is refused in plain words before any other check', () => {
+      // A long thin ring of MAX_BOUNDARY_VERTICES + 1 positions whose second vertex is not a
+      // number: had the ring been read, that would be the problem reported.
+      const ring = Array.from({ length: MAX_BOUNDARY_VERTICES }, (_, i) => [-99.92 + i * 1e-7, 47.6 + (i % 2) * 1e-5]);
+      ring[1] = [Number.NaN, 47.6];
+      ring.push(ring[0]);
+      const problems = checkBoundary(poly(ring), 'North Quarter');
+      expect(problems).toEqual([
+        {
+          code: 'too-many-positions',
+          message:
+            "The boundary of field 'North Quarter' has 50,001 points; Furlong takes at most 50,000 points per field boundary. Simplify it (e.g. to one point every metre) and upload it again.",
+        },
+      ]);
+    });
+
+    it('when a boundary has more rings than the budget, then it is refused in plain words', () => {
+      const tiny = (k: number) => [
+        [-99 + k * 0.01, 47],
+        [-99 + k * 0.01 + 0.001, 47],
+        [-99 + k * 0.01, 47.001],
+        [-99 + k * 0.01, 47],
+      ];
+      const g = multi(...Array.from({ length: MAX_BOUNDARY_RINGS + 1 }, (_, k) => [tiny(k)]));
+      const [p] = checkBoundary(g);
+      expect(p.code).toBe('too-many-rings');
+      expect(p.message).toBe(
+        'The boundary has 1,001 rings (outer boundaries and holes); Furlong takes at most 1,000 rings per field boundary. Leave out small holes and pieces, or upload the pieces as separate fields.',
+      );
+      // One ring fewer is within the budget, and these small triangles are a valid boundary.
+      expect(checkBoundary(multi(...Array.from({ length: MAX_BOUNDARY_RINGS }, (_, k) => [tiny(k)])))).toEqual([]);
+    });
   });
 });

@@ -1,6 +1,7 @@
 import type { MultiPolygon, Polygon, Position } from 'geojson';
 import { geodesicAreaM2 } from './geodesic-area';
 import { formatLatLon } from './format-position';
+import { MAX_BOUNDARY_RINGS, MAX_BOUNDARY_VERTICES } from '../limits';
 import { firstCrossing, type RingEdge } from './ring-crossings';
 
 /** What can be wrong with a field boundary. */
@@ -10,11 +11,14 @@ export type BoundaryProblemCode =
   | 'not-finite'
   | 'out-of-range'
   | 'swapped'
+  | 'too-many-positions'
+  | 'too-many-rings'
   | 'too-few-positions'
   | 'not-closed'
   | 'zero-area'
   | 'self-intersection'
   | 'rings-cross'
+  | 'rings-touch'
   | 'hole-outside'
   | 'parts-overlap';
 
@@ -37,14 +41,63 @@ const MIN_RING_AREA_M2 = 0.01;
 
 const isNum = (v: unknown): v is number => typeof v === 'number' && Number.isFinite(v);
 
-function pointInRing(x: number, y: number, ring: Position[]): boolean {
+/** 1 inside the ring, 0 on its boundary, -1 outside; one pass over the ring (ray casting). */
+function locate(x: number, y: number, ring: Position[]): -1 | 0 | 1 {
   let inside = false;
   for (let i = 0, j = ring.length - 1; i < ring.length; j = i++) {
     const [xi, yi] = ring[i];
     const [xj, yj] = ring[j];
+    if (
+      (xj - xi) * (y - yi) === (yj - yi) * (x - xi) &&
+      Math.min(xi, xj) <= x &&
+      x <= Math.max(xi, xj) &&
+      Math.min(yi, yj) <= y &&
+      y <= Math.max(yi, yj)
+    )
+      return 0;
     if (yi > y !== yj > y && x < ((xj - xi) * (y - yi)) / (yj - yi) + xi) inside = !inside;
   }
-  return inside;
+  return inside ? 1 : -1;
+}
+
+interface Box {
+  minX: number;
+  minY: number;
+  maxX: number;
+  maxY: number;
+}
+
+function boxOf(ring: Position[]): Box {
+  const box = { minX: Infinity, minY: Infinity, maxX: -Infinity, maxY: -Infinity };
+  for (const [x, y] of ring) {
+    box.minX = Math.min(box.minX, x);
+    box.minY = Math.min(box.minY, y);
+    box.maxX = Math.max(box.maxX, x);
+    box.maxY = Math.max(box.maxY, y);
+  }
+  return box;
+}
+
+const within = (a: Box, b: Box): boolean => a.minX >= b.minX && a.maxX <= b.maxX && a.minY >= b.minY && a.maxY <= b.maxY;
+
+/** Points of a ring tried when deciding which side of other rings it lies on. */
+const SIDE_TRIES = 8;
+
+/**
+ * Where a ring lies against other rings that it neither crosses nor overlaps, judged at one of its
+ * points that is on none of them (rings may touch at single points, so its first vertex may be on
+ * one): `locate` of that point against each other ring, or null when none of the ring's first
+ * vertices and edge midpoints is off them all. Linear in the other rings' size.
+ */
+function sideOf(ring: Position[], others: Position[][]): (-1 | 1)[] | null {
+  const tries = Math.min(SIDE_TRIES, ring.length - 1);
+  for (let k = 0; k < 2 * tries; k++) {
+    const [a, b] = k < tries ? [ring[k], ring[k]] : [ring[k - tries], ring[k - tries + 1]];
+    const [x, y] = [(a[0] + b[0]) / 2, (a[1] + b[1]) / 2];
+    const sides = others.map((o) => locate(x, y, o));
+    if (!sides.includes(0)) return sides as (-1 | 1)[];
+  }
+  return null;
 }
 
 const zeroArea = (name: string, where: { part: number; ring: number }): BoundaryProblem => ({
@@ -106,6 +159,17 @@ function checkRing(ring: unknown, name: string, where: { part: number; ring: num
   return [];
 }
 
+/** Positions and rings in all parts, counted without copying (parts are arrays, checked before). */
+function countPositions(parts: unknown[][]): { positions: number; rings: number } {
+  let positions = 0;
+  let rings = 0;
+  for (const part of parts) {
+    rings += part.length;
+    for (const ring of part) if (Array.isArray(ring)) positions += ring.length;
+  }
+  return { positions, rings };
+}
+
 function edgesOf(ring: Position[], part: number, r: number): RingEdge[] {
   const keep: number[] = [];
   for (let i = 0; i < ring.length - 1; i++) {
@@ -143,6 +207,23 @@ export function checkBoundary(geometry: unknown, label?: string): BoundaryProble
   const parts = (g.type === 'Polygon' ? [g.coordinates] : g.coordinates) as unknown;
   if (!Array.isArray(parts) || parts.length === 0 || parts.some((p) => !Array.isArray(p) || p.length === 0))
     return [{ code: 'bad-coordinates', message: `The boundary of ${subject} has no rings of coordinates` }];
+  const counted = countPositions(parts as unknown[][]);
+  const whole = label ? `The boundary of field '${label}'` : 'The boundary';
+  const int = (n: number) => n.toLocaleString('en-US');
+  if (counted.positions > MAX_BOUNDARY_VERTICES)
+    return [
+      {
+        code: 'too-many-positions',
+        message: `${whole} has ${int(counted.positions)} points; Furlong takes at most ${int(MAX_BOUNDARY_VERTICES)} points per field boundary. Simplify it (e.g. to one point every metre) and upload it again.`,
+      },
+    ];
+  if (counted.rings > MAX_BOUNDARY_RINGS)
+    return [
+      {
+        code: 'too-many-rings',
+        message: `${whole} has ${int(counted.rings)} rings (outer boundaries and holes); Furlong takes at most ${int(MAX_BOUNDARY_RINGS)} rings per field boundary. Leave out small holes and pieces, or upload the pieces as separate fields.`,
+      },
+    ];
   const multi = parts.length > 1;
   const ringName = (p: number, r: number, cap = true): string => `${cap ? 'R' : 'r'}ing ${r + 1}${multi ? ` of part ${p + 1}` : ''}`;
   const problems: BoundaryProblem[] = [];
@@ -153,11 +234,16 @@ export function checkBoundary(geometry: unknown, label?: string): BoundaryProble
 
   const polys = parts as Position[][][];
   const edges = polys.flatMap((rings, p) => rings.flatMap((ring, r) => edgesOf(ring, p, r)));
-  const hit = firstCrossing(edges);
+  // Rings may touch at single points as OGC Simple Features 1.2.1 §6.1.11 allows.
+  const hit = firstCrossing(edges, { ringsMayTouch: true });
   if (hit) {
     const { a, b, point } = hit;
     const near = formatLatLon(point[0], point[1]);
     const same = a.part === b.part && a.ring === b.ring;
+    if (hit.kind === 'touch-loop') {
+      const message = `${ringName(b.part, b.ring)} of ${subject} touches ${ringName(a.part, a.ring, false)} near ${near}; with the other places where its rings touch, this cuts the field into separate pieces. Draw each piece as a part of its own.`;
+      return [{ code: 'rings-touch', message, part: b.part + 1, ring: b.ring + 1, vertex: b.index + 1, point }];
+    }
     const message = same
       ? `${ringName(a.part, a.ring)} of ${subject} crosses itself near ${near} (between vertex ${a.index + 1} and vertex ${b.index + 1})`
       : `${ringName(a.part, a.ring)} of ${subject} crosses ${ringName(b.part, b.ring, false)} near ${near} (at vertex ${a.index + 1} and vertex ${b.index + 1})`;
@@ -170,9 +256,13 @@ export function checkBoundary(geometry: unknown, label?: string): BoundaryProble
     }),
   );
   if (problems.length) return problems;
+  // Rings neither cross nor overlap now, so one point of a ring off the others tells its side.
+  // A box that does not fit inside another rules out lying inside it without a pass over the ring.
+  const boxes = polys.map((rings) => rings.map(boxOf));
   polys.forEach((rings, p) =>
     rings.slice(1).forEach((hole, h) => {
-      if (!pointInRing(hole[0][0], hole[0][1], rings[0]))
+      const inside = within(boxes[p][h + 1], boxes[p][0]) && sideOf(hole, [rings[0]])?.[0] !== -1;
+      if (!inside)
         problems.push({
           code: 'hole-outside',
           message: `${ringName(p, h + 1)} of ${subject} is a hole that lies outside its outer ring`,
@@ -183,9 +273,10 @@ export function checkBoundary(geometry: unknown, label?: string): BoundaryProble
   );
   polys.forEach((rings, p) =>
     polys.forEach((other, q) => {
-      if (q === p) return;
-      const [x, y] = rings[0][0];
-      if (pointInRing(x, y, other[0]) && !other.slice(1).some((hole) => pointInRing(x, y, hole)))
+      if (q === p || !within(boxes[p][0], boxes[q][0])) return;
+      const sides = sideOf(rings[0], other);
+      // Undecided only when every point tried lies on the other part's rings: taken as inside.
+      if (!sides || (sides[0] === 1 && !sides.slice(1).includes(1)))
         problems.push({ code: 'parts-overlap', message: `Part ${p + 1} of ${subject} lies inside part ${q + 1}`, part: p + 1, ring: 1 });
     }),
   );
