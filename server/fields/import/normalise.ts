@@ -1,4 +1,53 @@
 import type { Feature, FeatureCollection, Geometry, Position } from 'geojson';
+import { MAX_FILE_FEATURES, MAX_FILE_VERTICES } from '../../../shared/limits';
+import { AppError } from '../../http/errors';
+
+const int = (n: number) => n.toLocaleString('en-US');
+
+/**
+ * Positions in one geometry's coordinates, counted without copying. Works on whatever a file
+ * holds (malformed nesting included): an array whose first item is a number is one position.
+ * The depth stop keeps the recursion short whatever the caller passes (files are checked earlier).
+ */
+function positionsIn(coords: unknown, depth = 0): number {
+  if (!Array.isArray(coords) || coords.length === 0 || depth > 64) return 0;
+  if (typeof coords[0] === 'number') return 1;
+  let n = 0;
+  for (const c of coords) n += positionsIn(c, depth + 1);
+  return n;
+}
+
+function geometryPositions(g: unknown, depth = 0): number {
+  if (!g || typeof g !== 'object' || depth > 64) return 0;
+  const { coordinates, geometries } = g as { coordinates?: unknown; geometries?: unknown };
+  let n = positionsIn(coordinates);
+  if (Array.isArray(geometries)) for (const part of geometries) n += geometryPositions(part, depth + 1);
+  return n;
+}
+
+/**
+ * Refuses a file with more shapes or positions than Furlong reads (MAX_FILE_FEATURES,
+ * MAX_FILE_VERTICES), before anything is copied.
+ */
+export function checkFileBudget(fc: FeatureCollection, fileKind: string): void {
+  const features = fc.features;
+  if (features.length > MAX_FILE_FEATURES) {
+    throw new AppError(
+      422,
+      'file_too_complex',
+      `The ${fileKind} holds ${int(features.length)} shapes; Furlong reads at most ${int(MAX_FILE_FEATURES)} shapes from one file`,
+    );
+  }
+  let positions = 0;
+  for (const f of features) positions += geometryPositions(f?.geometry);
+  if (positions > MAX_FILE_VERTICES) {
+    throw new AppError(
+      422,
+      'file_too_complex',
+      `The ${fileKind} holds ${int(positions)} points in its shapes; Furlong reads at most ${int(MAX_FILE_VERTICES)} points from one file`,
+    );
+  }
+}
 
 const strip = (p: Position): Position => [p[0], p[1]];
 
@@ -35,6 +84,8 @@ export function normaliseGeometry(g: Geometry | null): Geometry | null {
   return flat;
 }
 
+/** The features of a parsed file, 2-D and merged, once the file is known to be within budget. */
 export function featuresOf(fc: FeatureCollection): Feature[] {
+  checkFileBudget(fc, 'file');
   return fc.features.map((f) => ({ ...f, geometry: normaliseGeometry(f.geometry) as Geometry }));
 }
