@@ -5,6 +5,7 @@ import express, { type Express } from 'express';
 import session from 'express-session';
 import type { AppDeps } from './app-deps';
 import { authRoutes } from './auth/auth.routes';
+import { sharedComputePool, type ComputePool } from './compute/pool';
 import { createPassport, restorePrincipal } from './auth/passport';
 import { healthRoutes } from './health/health.routes';
 import { csrfProtection } from './http/csrf';
@@ -22,14 +23,17 @@ import { fleetRoutes } from './fleet/fleet.routes';
 import { jobLogRoutes, runSheetRoutes } from './run-sheet/run-sheet.routes';
 import { seasonRoutes } from './season/season.routes';
 
-export interface CreateAppOptions extends AppDeps {
+export interface CreateAppOptions extends Omit<AppDeps, 'compute'> {
+  /** Defaults to the process's shared compute pool. */
+  compute?: ComputePool;
   sessions: SessionStore;
   /** The built Angular app; defaults to dist/furlong/browser. */
   staticDir?: string;
 }
 
 /** Builds the Express app (API + the built Angular app). Never listens: index.ts does. */
-export function createApp(deps: CreateAppOptions): Express {
+export function createApp(options: CreateAppOptions): Express {
+  const deps: CreateAppOptions & AppDeps = { ...options, compute: options.compute ?? sharedComputePool() };
   const { config } = deps;
   const log = deps.log ?? ((err: unknown) => console.error(err));
   const app = express();

@@ -1,9 +1,11 @@
 import type { Request } from 'express';
 import multer from 'multer';
 import { z } from 'zod';
-import { idParam } from '../../shared/schemas/common';
+import { dbId, idParam } from '../../shared/schemas/common';
 import { cropPlanBody, fieldCreateBody, fieldPatchBody, hazardBody, hazardPatchBody, importQuery, importSelection, season } from '../../shared/schemas/fields';
+import { MAX_UPLOAD_BYTES } from '../../shared/limits';
 import type { AppDeps } from '../app-deps';
+import { heavyWork } from '../http/heavy';
 import { AppError } from '../http/errors';
 import type { Routes } from '../http/routes';
 import { principal } from '../http/session-user';
@@ -11,17 +13,18 @@ import { body, params, query } from '../http/validate';
 import * as fields from './fields.service';
 import { previewImport, saveImport } from './import/import.service';
 
-/** Largest boundary file accepted, bytes. */
-export const IMPORT_LIMIT_BYTES = 10 * 1024 * 1024;
+const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: MAX_UPLOAD_BYTES, files: 1, fields: 10, fieldSize: 256 * 1024 } });
 
-const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: IMPORT_LIMIT_BYTES, files: 1, fields: 10 } });
 const seasonQuery = z.object({ season: season.optional() });
 /** The season asked for (`?season=`), else the farm's current one (the year at the farm). */
 const seasonOf = (req: Request): number => query(req, seasonQuery).season ?? fields.currentSeason(principal(req).timeZone);
-const hazardParams = idParam.extend({ hazardId: z.coerce.number().int().positive() });
+const hazardParams = idParam.extend({ hazardId: dbId });
 const cropParams = idParam.extend({ season });
 
 export function fieldRoutes(r: Routes, deps: AppDeps): void {
+  // Boundary checks and file imports run in a compute worker.
+  const imports = heavyWork(60);
+  const boundaryWrites = heavyWork(120);
   r.get('/', 'member', async (req, res) => {
     res.json(await fields.listFields(deps, principal(req).farmId, seasonOf(req)));
   });
@@ -31,14 +34,14 @@ export function fieldRoutes(r: Routes, deps: AppDeps): void {
     res.set('Content-Disposition', 'attachment; filename="fields.geojson"').type('application/geo+json').send(JSON.stringify(fc));
   });
 
-  r.post('/', ['owner'], async (req, res) => {
+  r.post('/', ['owner'], ...boundaryWrites, async (req, res) => {
     const input = body(req, fieldCreateBody);
     const farmId = principal(req).farmId;
     const id = await fields.createField(deps, farmId, input);
     res.status(201).json(await fields.getField(deps, farmId, id, seasonOf(req)));
   });
 
-  r.post('/import', ['owner'], upload.single('file'), async (req, res) => {
+  r.post('/import', ['owner'], ...imports, upload.single('file'), async (req, res) => {
     const q = query(req, importQuery);
     if (!req.file) throw new AppError(400, 'no_file', 'Choose a boundary file to upload');
     const file = { name: req.file.originalname, data: req.file.buffer };
@@ -66,7 +69,7 @@ export function fieldRoutes(r: Routes, deps: AppDeps): void {
     res.json(await fields.getField(deps, principal(req).farmId, params(req, idParam).id, seasonOf(req)));
   });
 
-  r.patch('/:id', ['owner'], async (req, res) => {
+  r.patch('/:id', ['owner'], ...boundaryWrites, async (req, res) => {
     const { id } = params(req, idParam);
     const farmId = principal(req).farmId;
     await fields.updateField(deps, farmId, id, body(req, fieldPatchBody));

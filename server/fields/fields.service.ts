@@ -6,7 +6,7 @@ import { acresToHa } from '../../shared/units';
 import type { AppDeps } from '../app-deps';
 import type { Tx } from '../db/knex';
 import { AppError, notFound } from '../http/errors';
-import { checkHazardGeometry, measureBoundary } from './geometry';
+import { checkHazardGeometry, measureBoundary, type MeasuredBoundary } from './geometry';
 import * as repo from './fields.repository';
 import { roundTo } from '../../shared/round';
 import { yearIn } from '../../shared/calendar';
@@ -61,8 +61,15 @@ export async function getField(deps: AppDeps, farmId: number, id: number, season
   };
 }
 
-export async function createField(deps: AppDeps, farmId: number, input: { name: string; boundary: unknown; notes?: string }, db: Tx = deps.db): Promise<number> {
-  const m = measureBoundary(input.boundary, input.name);
+/** Creates a field; `measured` skips the boundary check when the caller has just made it (an import). */
+export async function createField(
+  deps: AppDeps,
+  farmId: number,
+  input: { name: string; boundary: unknown; notes?: string },
+  db: Tx = deps.db,
+  measured?: MeasuredBoundary,
+): Promise<number> {
+  const m = measured ?? (await measureBoundary(deps.compute, input.boundary, input.name));
   if (await repo.fieldNameTaken(db, farmId, input.name)) throw nameTaken(input.name);
   try {
     return await repo.insertField(db, { farmId, name: input.name, boundary: m.boundary, areaM2: m.areaM2, acres: m.acres, notes: input.notes });
@@ -76,7 +83,7 @@ export async function updateField(deps: AppDeps, farmId: number, id: number, pat
   const f = await repo.getField(deps.db, farmId, id);
   if (!f) throw notFound('That field');
   const name = patch.name ?? f.name;
-  const measured = patch.boundary !== undefined ? measureBoundary(patch.boundary, name) : null;
+  const measured = patch.boundary !== undefined ? await measureBoundary(deps.compute, patch.boundary, name) : null;
   if (patch.name && (await repo.fieldNameTaken(deps.db, farmId, patch.name, id))) throw nameTaken(patch.name);
   await repo.updateField(deps.db, id, {
     name: patch.name,

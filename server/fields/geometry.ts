@@ -1,7 +1,6 @@
 import type { Geometry, MultiPolygon, Polygon } from 'geojson';
 import { checkBoundary } from '../../shared/geo/boundary-check';
-import { geodesicAreaM2 } from '../../shared/geo/geodesic-area';
-import { ACRE_M2 } from '../../shared/units';
+import type { ComputePool } from '../compute/pool';
 import { AppError } from '../http/errors';
 
 export interface MeasuredBoundary {
@@ -10,13 +9,14 @@ export interface MeasuredBoundary {
   acres: number;
 }
 
-/** Checks a boundary and measures it on the ellipsoid; a bad one is a 422 naming the problem. */
-export function measureBoundary(geometry: unknown, label?: string): MeasuredBoundary {
-  const problems = checkBoundary(geometry, label);
+/**
+ * Checks a boundary and measures it on the ellipsoid, in a compute worker (a boundary may hold
+ * tens of thousands of points); a bad one is a 422 naming the problem.
+ */
+export async function measureBoundary(compute: ComputePool, geometry: unknown, label?: string): Promise<MeasuredBoundary> {
+  const { problems, areaM2, acres } = await compute.run('measureBoundary', { geometry, label });
   if (problems.length) throw new AppError(422, 'bad_boundary', problems[0].message, { boundary: problems[0].message }, { problems });
-  const boundary = geometry as Polygon | MultiPolygon;
-  const areaM2 = geodesicAreaM2(boundary);
-  return { boundary, areaM2, acres: areaM2 / ACRE_M2 };
+  return { boundary: geometry as Polygon | MultiPolygon, areaM2, acres };
 }
 
 const HAZARD_TYPES = new Set(['Point', 'LineString', 'Polygon', 'MultiPoint', 'MultiLineString', 'MultiPolygon']);

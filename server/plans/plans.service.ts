@@ -2,7 +2,6 @@
 // and operation with the figures the board, the work orders and the season report read back.
 import type { FeatureCollection, LineString } from 'geojson';
 import { OPERATION_INFO, type Operation } from '../../shared/operations';
-import { planPasses } from '../../shared/plan/plan-passes';
 import type { PassProperties, PlanInput, PlanResult } from '../../shared/plan/types';
 import type { PlanSummary, SavedPlan } from '../../shared/schemas/plans';
 import type { planSettings } from '../../shared/schemas/plans';
@@ -14,13 +13,12 @@ import { hazardFeature } from '../fields/fields.service';
 
 type Settings = z.infer<typeof planSettings>;
 
-/** Runs the planner; its plain errors (width wider than the field, headland erases it…) become 422s. */
-export function computePlan(input: PlanInput): PlanResult {
-  try {
-    return planPasses(input);
-  } catch (err) {
-    throw new AppError(422, 'bad_plan', (err as Error).message);
-  }
+/**
+ * Runs the planner in a compute worker (time and memory limited); its plain errors (width wider
+ * than the field, headland erases it, over the plan budget…) become 422s.
+ */
+export function computePlan(deps: AppDeps, input: PlanInput): Promise<PlanResult> {
+  return deps.compute.run('plan', input);
 }
 
 export function summaryOf(r: PlanResult): PlanSummary {
@@ -56,10 +54,10 @@ export async function preview(
 ): Promise<PlanResult> {
   if (body.fieldId) {
     const { field, hazards } = await fieldInput(deps, farmId, body.fieldId);
-    return computePlan({ ...inputOf(body, body.operation), boundary: field.boundary, hazards, fieldName: field.name });
+    return computePlan(deps, { ...inputOf(body, body.operation), boundary: field.boundary, hazards, fieldName: field.name });
   }
   if (!body.boundary) throw new AppError(400, 'invalid_input', 'Send a field id or a boundary to plan', { fieldId: 'Choose a field' });
-  return computePlan({
+  return computePlan(deps, {
     ...inputOf(body, body.operation),
     boundary: body.boundary as PlanInput['boundary'],
     hazards: body.hazards as FeatureCollection | undefined,
@@ -115,7 +113,7 @@ export async function getPlan(deps: AppDeps, farmId: number, fieldId: number, op
   if (!row) throw notFound(`A saved ${OPERATION_INFO[operation].label.toLowerCase()} plan for that field`);
   const saved = toSaved(row);
   const { field, hazards } = await fieldInput(deps, farmId, fieldId);
-  const result = computePlan({
+  const result = await computePlan(deps, {
     boundary: field.boundary,
     hazards,
     fieldName: field.name,
@@ -132,7 +130,7 @@ export async function getPlan(deps: AppDeps, farmId: number, fieldId: number, op
 
 export async function savePlan(deps: AppDeps, farmId: number, userId: number, fieldId: number, operation: Operation, s: Settings): Promise<SavedPlan & { result: PlanResult }> {
   const { field, hazards } = await fieldInput(deps, farmId, fieldId);
-  const result = computePlan({ ...inputOf(s, operation), boundary: field.boundary, hazards, fieldName: field.name });
+  const result = await computePlan(deps, { ...inputOf(s, operation), boundary: field.boundary, hazards, fieldName: field.name });
   if (s.implementId) {
     const ok = await deps.db('implements').where({ id: s.implementId, farm_id: farmId }).first('id');
     if (!ok) throw new AppError(422, 'bad_implement', 'That implement is not in this farm’s fleet');

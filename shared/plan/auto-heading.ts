@@ -1,3 +1,4 @@
+import { MAX_SEGMENTS } from '../limits';
 import type { HeadingSummary, PassClipper } from './pass-clipper';
 import type { PlanarRegion } from './planar-region';
 
@@ -59,7 +60,7 @@ export function bestHeading(clipper: PassClipper, region: PlanarRegion, speedMps
   let bestTurns = Infinity,
     bestSeconds = Infinity;
   for (const s of scanHeadings(clipper, candidateHeadings(region))) {
-    if (s.passCount === 0) continue;
+    if (s.passCount === 0 || s.overBudget) continue;
     const turns = turnsOf(s);
     const seconds = s.passLengthM / speedMps + turns * turnSeconds;
     const better =
@@ -72,5 +73,9 @@ export function bestHeading(clipper: PassClipper, region: PlanarRegion, speedMps
       bestSeconds = seconds;
     }
   }
-  return best ?? clipper.summary(0);
+  if (best) return best;
+  const fallback = clipper.summary(0);
+  if (fallback.overBudget)
+    throw new Error(`At every heading the passes would break into more segments than Furlong plans for one field (${MAX_SEGMENTS.toLocaleString('en-US')}); use a wider working width or a simpler boundary`);
+  return fallback;
 }

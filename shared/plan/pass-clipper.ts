@@ -1,3 +1,4 @@
+import { MAX_SEGMENTS } from '../limits';
 import type { PlanarRegion } from './planar-region';
 
 /** Segments shorter than this (m) are touches at a vertex, not passes. */
@@ -26,6 +27,11 @@ export interface HeadingSummary {
   passCount: number;
   segmentCount: number;
   passLengthM: number;
+  /**
+   * True when the lines at this heading would break into more segments than the plan budget
+   * allows; the counts are then not computed (and auto heading passes this heading over).
+   */
+  overBudget?: boolean;
 }
 
 /** Pass lines clipped to the region at one heading, with every segment. */
@@ -39,7 +45,10 @@ export interface ClippedPasses extends PassLayout, HeadingSummary {
 export interface PassClipper {
   /** Number of lines, segments and total length at one heading; no geometry (buffers are reused). */
   summary(headingDeg: number): HeadingSummary;
-  /** Full clip at one heading; `extraU` adds lines at these offsets (e.g. a last pass for full coverage). */
+  /**
+   * Full clip at one heading; `extraU` adds lines at these offsets (e.g. a last pass for full
+   * coverage). Throws a plain Error when the segments would exceed the budget.
+   */
   clip(headingDeg: number, extraU?: number[]): ClippedPasses;
   /** Layout of the regular lines at one heading (no clipping). */
   layout(headingDeg: number): PassLayout;
@@ -56,13 +65,17 @@ export interface PassClipper {
  * crossings of each line are sorted and paired (even–odd). Cost per heading is O(n + k log k)
  * for n vertices and k crossings; buffers are allocated once and grown on demand.
  *
+ * Budget: crossings are counted per edge before any is computed, so a heading whose lines would
+ * break into more than `maxSegments` segments costs O(n) and is reported `overBudget`.
+ *
  * @param region packed work region (see packRegion)
  * @param widthM implement working width, metres
+ * @param maxSegments most segments one heading may produce (default MAX_SEGMENTS of shared/limits)
  * @example
  * const clipper = createPassClipper(region, 18.288);
  * clipper.summary(90); // { headingDeg: 90, passCount, segmentCount, passLengthM }
  */
-export function createPassClipper(region: PlanarRegion, widthM: number): PassClipper {
+export function createPassClipper(region: PlanarRegion, widthM: number, maxSegments = MAX_SEGMENTS): PassClipper {
   const { xs, ys, ringStart } = region;
   const n = xs.length;
   const u = new Float64Array(n);
@@ -129,7 +142,7 @@ export function createPassClipper(region: PlanarRegion, widthM: number): PassCli
    * Fills crossT with every line's crossings, bucketed by line; returns bucket starts (length
    * lines + 1). Edge j→i crosses line k when min(uⱼ, uᵢ) ≤ us[k] < max(uⱼ, uᵢ).
    */
-  function cross(us: Float64Array, regular: boolean): Int32Array {
+  function cross(us: Float64Array, regular: boolean): Int32Array | null {
     const lines = us.length;
     if (counts.length < lines + 1) counts = new Int32Array(2 * lines + 1);
     const starts = counts;
@@ -144,12 +157,14 @@ export function createPassClipper(region: PlanarRegion, widthM: number): PassCli
       if (ua !== ub) {
         k0 = firstAtOrAbove(us, regular, ua < ub ? ua : ub);
         k1 = firstAtOrAbove(us, regular, ua < ub ? ub : ua);
-        for (let k = k0; k < k1; k++) starts[k + 1]++;
         total += k1 - k0;
       }
       edgeK0[i] = k0;
       edgeK1[i] = k1;
     }
+    // Two crossings bound one segment: past the budget, stop before doing any per-crossing work.
+    if (total > 2 * maxSegments) return null;
+    for (let i = 0; i < edgeCount; i++) for (let k = edgeK0[i]; k < edgeK1[i]; k++) starts[k + 1]++;
     for (let k = 0; k < lines; k++) starts[k + 1] += starts[k];
     if (crossT.length < total) crossT = new Float64Array(2 * total);
     const out = crossT;
@@ -183,6 +198,7 @@ export function createPassClipper(region: PlanarRegion, widthM: number): PassCli
   function summary(h: number): HeadingSummary {
     const { us } = rotate(h);
     const starts = cross(us, true);
+    if (!starts) return { headingDeg: h, passCount: 0, segmentCount: 0, passLengthM: 0, overBudget: true };
     let passCount = 0,
       segmentCount = 0,
       passLengthM = 0;
@@ -212,6 +228,10 @@ export function createPassClipper(region: PlanarRegion, widthM: number): PassCli
     }
     const { us } = layout;
     const starts = cross(us, extraU.length === 0);
+    if (!starts)
+      throw new Error(
+        `At heading ${Math.round(h * 10) / 10}° the passes would break into more than ${maxSegments.toLocaleString('en-US')} segments, more than Furlong plans for one field; choose another heading or a wider working width`,
+      );
     const segT: number[] = [];
     const segLine: number[] = [];
     let passCount = 0,

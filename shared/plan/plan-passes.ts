@@ -1,6 +1,7 @@
 import type { Feature, LineString, MultiPolygon, Polygon } from 'geojson';
 import { geodesicAreaM2 } from '../geo/geodesic-area';
 import { projectionForField } from '../geo/local-projection';
+import { MAX_PASSES } from '../limits';
 import { HOUR_S, m2ToAcres, mphToKmh, mphToMps, mToFt } from '../units';
 import { bestHeading, turnsOf } from './auto-heading';
 import { effectiveCapacityAcPerH, effectiveCapacityHaPerH } from './field-capacity';
@@ -51,6 +52,12 @@ export function planPasses(input: PlanInput): PlanResult {
   const env = fieldJ.getEnvelopeInternal();
   const span = Math.hypot(env.getWidth(), env.getHeight());
   if (w >= span) throw new Error(`The working width (${feet(w)}) is wider than ${field} (at most ${feet(span)} across)`);
+  // Budget, before any heavy work: no heading needs more lines than the field's diagonal ÷ width.
+  const mostPasses = Math.ceil(span / w);
+  if (mostPasses > MAX_PASSES)
+    throw new Error(
+      `At a working width of ${feet(w)}, ${field} could need up to ${mostPasses.toLocaleString('en-US')} passes; Furlong plans at most ${MAX_PASSES.toLocaleString('en-US')} passes per field (enough for a two-mile field at a 10 ft implement). Check the working width.`,
+    );
 
   const fieldM2 = geodesicAreaM2(p.boundary);
   const scale = fieldM2 / fieldJ.getArea();

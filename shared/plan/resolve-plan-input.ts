@@ -1,5 +1,6 @@
 import type { FeatureCollection, MultiPolygon, Polygon } from 'geojson';
 import { assertBoundary } from '../geo/boundary-check';
+import { MAX_HAZARD_VERTICES } from '../limits';
 import { DEFAULT_TURN_SECONDS, implementDefaults, IMPLEMENT_DEFAULTS } from './implement-defaults';
 import { fieldName } from './format';
 import type { PlanInput } from './types';
@@ -21,15 +22,18 @@ export interface ResolvedPlanInput {
 const HAZARD_TYPES = new Set(['Point', 'MultiPoint', 'LineString', 'MultiLineString', 'Polygon', 'MultiPolygon']);
 const finite = (v: unknown): v is number => typeof v === 'number' && Number.isFinite(v);
 
-function checkPositions(coords: unknown, where: string): void {
+/** Checks every position of a geometry's coordinates (nesting at most 4 deep); returns how many. */
+function checkPositions(coords: unknown, where: string, depth = 0): number {
   if (Array.isArray(coords) && typeof coords[0] === 'number') {
     const [lon, lat] = coords as number[];
     if (!finite(lon) || !finite(lat) || Math.abs(lon) > 180 || Math.abs(lat) > 90)
-      throw new Error(`${where} has a position that is not a valid [longitude, latitude]: ${JSON.stringify(coords)}`);
-    return;
+      throw new Error(`${where} has a position that is not a valid [longitude, latitude]: ${JSON.stringify(coords).slice(0, 80)}`);
+    return 1;
   }
-  if (!Array.isArray(coords) || coords.length === 0) throw new Error(`${where} has no coordinates`);
-  for (const c of coords) checkPositions(c, where);
+  if (!Array.isArray(coords) || coords.length === 0 || depth > 3) throw new Error(`${where} has no coordinates`);
+  let n = 0;
+  for (const c of coords) n += checkPositions(c, where, depth + 1);
+  return n;
 }
 
 function checkHazards(hazards: unknown, field: string): FeatureCollection | undefined {
@@ -37,11 +41,14 @@ function checkHazards(hazards: unknown, field: string): FeatureCollection | unde
   const fc = hazards as FeatureCollection;
   if (fc.type !== 'FeatureCollection' || !Array.isArray(fc.features))
     throw new Error(`The hazards of ${field} must be a GeoJSON FeatureCollection`);
+  let positions = 0;
   fc.features.forEach((f, i) => {
     const where = `Hazard ${i + 1} of ${field}`;
     const type = f?.geometry?.type;
-    if (!type || !HAZARD_TYPES.has(type)) throw new Error(`${where} must be a point, line or area (got ${type ?? 'no geometry'})`);
-    checkPositions((f.geometry as { coordinates: unknown }).coordinates, where);
+    if (!type || !HAZARD_TYPES.has(type)) throw new Error(`${where} must be a point, line or area (got ${String(type ?? 'no geometry')})`);
+    positions += checkPositions((f.geometry as { coordinates: unknown }).coordinates, where);
+    if (positions > MAX_HAZARD_VERTICES)
+      throw new Error(`The hazards of ${field} have more than ${MAX_HAZARD_VERTICES.toLocaleString('en-US')} points together, more than Furlong plans around; simplify them`);
     const c = (f.properties as { clearanceM?: unknown } | null)?.clearanceM;
     if (c !== undefined && c !== null && (!finite(c) || c < 0))
       throw new Error(`${where} has a clearance of ${String(c)} m; it must be a distance of 0 m or more`);

@@ -1,0 +1,63 @@
+// The heavy computations, as run inside a compute worker thread (see pool.ts). Each answers an
+// envelope instead of throwing, so an AppError's status, code and fields cross the thread intact.
+import type { MultiPolygon, Polygon } from 'geojson';
+import { checkBoundary } from '../../shared/geo/boundary-check';
+import { geodesicAreaM2 } from '../../shared/geo/geodesic-area';
+import { planPasses } from '../../shared/plan/plan-passes';
+import type { PlanInput, PlanResult } from '../../shared/plan/types';
+import type { ImportPreview } from '../../shared/schemas/fields';
+import { m2ToAcres } from '../../shared/units';
+import { readBoundaryFile as readFile } from '../fields/import/read-file';
+import { AppError } from '../http/errors';
+
+export interface TaskFailure {
+  status: number;
+  code: string;
+  message: string;
+  fields?: Record<string, string>;
+  extra?: Record<string, unknown>;
+}
+export type Envelope<T> = { ok: true; value: T } | { ok: false; error: TaskFailure };
+
+/** A checked and measured boundary; `problems` is empty when it can be used. */
+export interface MeasuredBoundary {
+  problems: ReturnType<typeof checkBoundary>;
+  areaM2: number;
+  acres: number;
+}
+
+async function wrap<T>(work: () => T | Promise<T>, plainErrorStatus: number, plainErrorCode: string): Promise<Envelope<T>> {
+  try {
+    return { ok: true, value: await work() };
+  } catch (err) {
+    if (err instanceof AppError) return { ok: false, error: { status: err.status, code: err.code, message: err.message, fields: err.fields, extra: err.extra } };
+    // The shared computations throw plain Errors with a message for the farmer (bad input).
+    if (err instanceof Error && !(err instanceof RangeError && /call stack|Invalid array length|Array buffer allocation/i.test(err.message)))
+      return { ok: false, error: { status: plainErrorStatus, code: plainErrorCode, message: err.message } };
+    throw err;
+  }
+}
+
+/** A pass plan (the same code the browser's planning worker runs). */
+export function plan(input: PlanInput): Promise<Envelope<PlanResult>> {
+  return wrap(() => planPasses(input), 422, 'bad_plan');
+}
+
+/** A field boundary's problems, and its area on the WGS84 ellipsoid when it has none. */
+export function measureBoundary(input: { geometry: unknown; label?: string }): Promise<Envelope<MeasuredBoundary>> {
+  return wrap(
+    () => {
+      const problems = checkBoundary(input.geometry, input.label);
+      const areaM2 = problems.length ? 0 : geodesicAreaM2(input.geometry as Polygon | MultiPolygon);
+      return { problems, areaM2, acres: m2ToAcres(areaM2) };
+    },
+    422,
+    'bad_boundary',
+  );
+}
+
+/** A boundary file read into candidate fields (bytes arrive as a Uint8Array view). */
+export function readBoundaryFile(input: { name: string; data: Uint8Array; nameAttribute?: string }): Promise<Envelope<ImportPreview>> {
+  const data = Buffer.from(input.data.buffer, input.data.byteOffset, input.data.byteLength);
+  return wrap(() => readFile({ name: input.name, data }, input.nameAttribute), 422, 'bad_file');
+}
