@@ -1,6 +1,6 @@
 // The demo farm: Tamarack Ridge Farm, a fictional dryland grain farm (all names and data invented).
-import bcrypt from 'bcryptjs';
 import type { Knex } from 'knex';
+import { hashPassword } from '../server/auth/passwords';
 import accounts from './demo-accounts.json';
 import { DEMO_STEPS, type DemoContext } from './steps';
 
@@ -29,8 +29,10 @@ export async function seed(knex: Knex, options: { reset?: boolean } = {}): Promi
     const [farm] = await tx('farms').insert({ name: DEMO_FARM_NAME, units: 'us', day_hours_limit: 12, time_zone: DEMO_TIME_ZONE }).returning('id');
     const ctx: DemoContext = { farmId: farm.id, users: {} };
     for (const a of demoAccounts) {
+      // The app's own cost: a demo account with a cheaper hash would answer a wrong password
+      // sooner than an unknown address does (which is compared against a hash of that cost).
       const [user] = await tx('users')
-        .insert({ email: a.email, name: a.name, password_hash: await bcrypt.hash(a.password, 10) })
+        .insert({ email: a.email, name: a.name, password_hash: await hashPassword(a.password) })
         .onConflict('email')
         .merge()
         .returning('id');

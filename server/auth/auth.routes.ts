@@ -3,6 +3,7 @@ import { ipKeyGenerator, rateLimit } from 'express-rate-limit';
 import type { createPassport } from './passport';
 import { forgotBody, loginBody, setPasswordBody, tokenParam } from '../../shared/schemas/auth';
 import type { AppDeps } from '../app-deps';
+import { issueXsrfToken } from '../http/csrf';
 import { AppError } from '../http/errors';
 import type { Routes } from '../http/routes';
 import { principal, type SessionPrincipal } from '../http/session-user';
@@ -24,11 +25,21 @@ function limiter(limit: number, key: (req: Request) => string, message: string):
 }
 
 const ipKey = (req: Request) => ipKeyGenerator(req.ip ?? '0.0.0.0');
-const accountKey = (req: Request) => `account:${String(req.body?.email ?? '').trim().toLowerCase()}`;
+/**
+ * Failed sign-ins count per account and client address together: a stranger guessing from
+ * elsewhere runs out of tries without locking the owner out of their own account. Guessing one
+ * account from many addresses is still held back by each address's own limit (`perAddress`).
+ */
+const accountKey = (req: Request) => `account:${String(req.body?.email ?? '').trim().toLowerCase()}|${ipKey(req)}`;
 
-function signIn(req: Request, res: Response, next: NextFunction, user: SessionPrincipal): void {
+function signIn(req: Request, res: Response, next: NextFunction, deps: AppDeps, user: SessionPrincipal): void {
   // passport's req.login regenerates the session id, so a planted id is worthless (no fixation).
-  req.login(user, (err) => (err ? next(err) : res.json(auth.toMe(user))));
+  // The XSRF token is bound to the session id, so the new session gets its own token at once.
+  req.login(user, (err) => {
+    if (err) return next(err);
+    issueXsrfToken(req, res, deps.config.sessionSecret, deps.config.secureCookies);
+    res.json(auth.toMe(user));
+  });
 }
 
 export function authRoutes(r: Routes, deps: AppDeps, passport: ReturnType<typeof createPassport>): void {
@@ -53,7 +64,7 @@ export function authRoutes(r: Routes, deps: AppDeps, passport: ReturnType<typeof
     passport.authenticate('local', (err: unknown, user: SessionPrincipal | false) => {
       if (err) return next(err);
       if (!user) return next(new AppError(401, 'bad_credentials', 'That e-mail and password do not match an account'));
-      signIn(req, res, next, user);
+      signIn(req, res, next, deps, user);
     })(req, res, next);
   });
 
@@ -62,14 +73,20 @@ export function authRoutes(r: Routes, deps: AppDeps, passport: ReturnType<typeof
       if (err) return next(err);
       req.session.destroy(() => {
         res.clearCookie('furlong.sid', { path: '/' });
+        // The signed-in session's token ends with it; the sign-in page gets an anonymous one.
+        issueXsrfToken(req, res, deps.config.sessionSecret, deps.config.secureCookies);
         res.status(204).end();
       });
     });
   });
 
-  r.post('/forgot', 'public', mailLimit, async (req, res) => {
+  r.post('/forgot', 'public', mailLimit, (req, res) => {
     const { email } = body(req, forgotBody);
-    await auth.requestReset(deps, email);
+    // The lookup and the mail wait until the answer is sent: how long the answer takes must not
+    // tell a stranger whether the address has an account. A failure is logged, never shown.
+    res.on('close', () => {
+      auth.requestReset(deps, email).catch((err: unknown) => (deps.log ?? console.error)(err));
+    });
     res.status(202).json({ message: 'If that address belongs to a Furlong account, a link to set a new password is on its way. Check your e-mail.' });
   });
 
@@ -81,6 +98,6 @@ export function authRoutes(r: Routes, deps: AppDeps, passport: ReturnType<typeof
   r.post('/set-password', 'public', signing, mailLimit, async (req, res, next) => {
     const input = body(req, setPasswordBody);
     const user = await auth.setPasswordWithToken(deps, input.token, input.password, input.name);
-    signIn(req, res, next, user);
+    signIn(req, res, next, deps, user);
   });
 }

@@ -10,6 +10,17 @@ const linkIn = (text: string, path: string): string => {
   return m[1];
 };
 
+/** Waits until an e-mail to `address` is in the outbox: /forgot does its work after answering. */
+async function queuedFor(t: TestApp, address: string, after = 0): Promise<void> {
+  const deadline = Date.now() + 10_000;
+  const count = async () => Number((await t.db('mail_outbox').where({ to_address: address }).count({ n: '*' }))[0].n);
+  while ((await count()) <= after) {
+    if (Date.now() > deadline) throw new Error(`no e-mail to ${address} was queued`);
+    await new Promise((resolve) => setTimeout(resolve, 20));
+  }
+}
+const outboxCount = async (t: TestApp, address: string) => Number((await t.db('mail_outbox').where({ to_address: address }).count({ n: '*' }))[0].n);
+
 describe('sign-in and sessions', () => {
   let t: TestApp;
   let farm: TestFarm;
@@ -130,6 +141,40 @@ describe('sign-in and sessions', () => {
     expect(forged.status).toBe(403);
   });
 
+  it('when a token made for one session is sent with another session, then 403 csrf (the token is bound to the session)', async () => {
+    const a = new Client(t.app);
+    await a.signIn(farm.owner.email, farm.owner.password);
+    const b = new Client(t.app);
+    const sidB = cookieValue((await b.signIn(farm.viewer.email, farm.viewer.password)).headers['set-cookie'], 'furlong.sid')!;
+    expect(a.xsrf).not.toBe(b.xsrf);
+    // B's session cookie, with A's token as both the XSRF cookie and the header (a token A could give away).
+    const res = await request(t.app)
+      .post('/api/auth/logout')
+      .set('Cookie', `furlong.sid=${encodeURIComponent(sidB)}; XSRF-TOKEN=${encodeURIComponent(a.xsrf)}`)
+      .set('X-XSRF-TOKEN', a.xsrf);
+    expect(res.status).toBe(403);
+    expect(res.body.error.code).toBe('csrf');
+    expect((await b.get('/api/auth/me')).status).toBe(200);
+    // With its own token, B's session works.
+    expect((await b.post('/api/auth/logout')).status).toBe(204);
+  });
+
+  it('when someone signs in, then the answer carries a new token for the new session, and the one from before sign-in no longer works', async () => {
+    const c = new Client(t.app);
+    await c.prime();
+    const anonymous = c.xsrf;
+    const login = await c.signIn(farm.operator.email, farm.operator.password);
+    expect(cookieValue(login.headers['set-cookie'], 'XSRF-TOKEN')).toBe(c.xsrf);
+    expect(c.xsrf).not.toBe(anonymous);
+    const stale = await c.agent.post('/api/auth/logout').set('Cookie', `XSRF-TOKEN=${encodeURIComponent(anonymous)}`).set('X-XSRF-TOKEN', anonymous);
+    expect(stale.status).toBe(403);
+    const out = await c.post('/api/auth/logout');
+    expect(out.status).toBe(204);
+    // Sign-out hands back an anonymous token, good for signing in again at once.
+    expect(cookieValue(out.headers['set-cookie'], 'XSRF-TOKEN')).toBe(c.xsrf);
+    expect((await c.post('/api/auth/login', { email: farm.operator.email, password: farm.operator.password })).status).toBe(200);
+  });
+
   it('when an account has 5 failed sign-ins, then the next attempt is refused with 429 even with the right password', async () => {
     const victim = await makeFarm(t.db, 'Limit');
     const c = new Client(t.app);
@@ -142,6 +187,25 @@ describe('sign-in and sessions', () => {
     expect(res.body.error.message).toMatch(/Too many failed sign-ins for this account/);
     // Another account from the same address is still allowed (limit is per account).
     expect((await c.post('/api/auth/login', { email: victim.viewer.email, password: victim.viewer.password })).status).toBe(200);
+  });
+
+  it('when a stranger fails 5 times from one address, then the owner still signs in from another, and the stranger stays limited', async () => {
+    const proxied = await startTestApp({ TRUST_PROXY: '1' });
+    try {
+      const victim = await makeFarm(proxied.db, 'Lockout');
+      const stranger = new Client(proxied.app);
+      await stranger.prime();
+      const from = (c: Client, ip: string, password: string) => c.post('/api/auth/login', { email: victim.owner.email, password }).set('X-Forwarded-For', ip);
+      for (let i = 0; i < 5; i++) expect((await from(stranger, '203.0.113.7', `wrong-${i}`)).status).toBe(401);
+      const limited = await from(stranger, '203.0.113.7', victim.owner.password);
+      expect(limited.status).toBe(429);
+      expect(limited.body.error.message).toMatch(/for this account/);
+      const owner = new Client(proxied.app);
+      await owner.prime();
+      expect((await from(owner, '198.51.100.20', victim.owner.password)).status).toBe(200);
+    } finally {
+      await proxied.close();
+    }
   });
 
   it('when one address fails 30 times across accounts, then it is refused with 429', async () => {
@@ -259,6 +323,7 @@ describe('invitations and password resets by e-mail', () => {
     await guest.prime();
     const res = await guest.post('/api/auth/forgot', { email: farm.viewer.email });
     expect(res.status).toBe(202);
+    await queuedFor(t, farm.viewer.email);
     await t.flushMail();
     const mail = await t.mail.waitFor((m) => m.to.includes(farm.viewer.email));
     const token = linkIn(mail.text, '/set-password');
@@ -275,10 +340,14 @@ describe('invitations and password resets by e-mail', () => {
     const guest = new Client(t.app);
     await guest.prime();
     const before = t.mail.messages.length;
-    const known = await guest.post('/api/auth/forgot', { email: farm.operator.email });
+    const queued = await outboxCount(t, farm.operator.email);
     const unknown = await guest.post('/api/auth/forgot', { email: 'stranger@furlong.test' });
+    const known = await guest.post('/api/auth/forgot', { email: farm.operator.email });
     expect(unknown.status).toBe(known.status);
     expect(unknown.body).toEqual(known.body);
+    // The unknown address was asked first; its look-up is done by the time the known one is queued.
+    await queuedFor(t, farm.operator.email, queued);
+    expect(await outboxCount(t, 'stranger@furlong.test')).toBe(0);
     await t.flushMail();
     await t.mail.waitFor((m) => m.to.includes(farm.operator.email));
     expect(t.mail.messages.slice(before).some((m) => m.to.includes('stranger@furlong.test'))).toBe(false);
@@ -287,11 +356,14 @@ describe('invitations and password resets by e-mail', () => {
   it('when a second reset is asked, then the first link no longer works', async () => {
     const guest = new Client(t.app);
     await guest.prime();
+    const queued = await outboxCount(t, farm.owner.email);
     await guest.post('/api/auth/forgot', { email: farm.owner.email });
+    await queuedFor(t, farm.owner.email, queued);
     await t.flushMail();
     const first = linkIn((await t.mail.waitFor((m) => m.to.includes(farm.owner.email) && m.subject.includes('password'))).text, '/set-password');
     const count = t.mail.to(farm.owner.email).length;
     await guest.post('/api/auth/forgot', { email: farm.owner.email });
+    await queuedFor(t, farm.owner.email, queued + 1);
     await t.flushMail();
     await t.mail.waitFor(() => t.mail.to(farm.owner.email).length > count);
     const res = await guest.post('/api/auth/set-password', { token: first, password: 'should-not-work' });
@@ -323,6 +395,7 @@ describe('a new password', () => {
     const guest = new Client(t.app);
     await guest.prime();
     expect((await guest.post('/api/auth/forgot', { email: farm.operator.email })).status).toBe(202);
+    await queuedFor(t, farm.operator.email);
     await t.flushMail();
     const mail = await t.mail.waitFor((m) => m.to.includes(farm.operator.email) && m.text.includes('/set-password'));
     const set = await guest.post('/api/auth/set-password', { token: linkIn(mail.text, '/set-password'), password: 'operator-new-password' });
@@ -333,6 +406,39 @@ describe('a new password', () => {
     expect((await office.get('/api/board?date=2026-05-04')).status).toBe(401);
     expect((await guest.get('/api/auth/me')).status).toBe(200);
     expect(await sessionsOf()).toBe(1);
+  });
+});
+
+// Its own app too, for the same reason.
+describe('a reset asked for while the database is slow', () => {
+  let t: TestApp;
+  let farm: TestFarm;
+  beforeAll(async () => {
+    t = await startTestApp();
+    farm = await makeFarm(t.db, 'Slow');
+  });
+  afterAll(() => t.close());
+
+  it('when the database is slow to find an address, then /forgot answers anyway (the look-up and the mail come after the answer)', async () => {
+    // Holding a lock on users stops any look-up; an answer that waited for one would not come.
+    const guest = new Client(t.app);
+    await guest.prime();
+    const queued = await outboxCount(t, farm.owner.email);
+    const locker = await t.db.client.acquireConnection();
+    try {
+      await t.db.raw('BEGIN; LOCK TABLE users IN ACCESS EXCLUSIVE MODE').connection(locker);
+      const answer = guest.post('/api/auth/forgot', { email: farm.owner.email }).then((res) => res);
+      const first = await Promise.race([answer, new Promise<'blocked'>((resolve) => setTimeout(() => resolve('blocked'), 5_000))]);
+      expect(first).not.toBe('blocked');
+      expect((first as request.Response).status).toBe(202);
+      expect(await outboxCount(t, farm.owner.email)).toBe(queued);
+    } finally {
+      await t.db.raw('ROLLBACK').connection(locker);
+      await t.db.client.releaseConnection(locker);
+    }
+    // Once the database answers, the mail is queued all the same.
+    await queuedFor(t, farm.owner.email, queued);
+    expect(t.logged).toEqual([]);
   });
 });
 

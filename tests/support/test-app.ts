@@ -16,6 +16,8 @@ export interface TestApp {
   mail: FakeMailServer;
   worker: OutboxWorker;
   sessions: SessionStore;
+  /** Everything the app logged (its error handler logs only failures it did not expect). */
+  logged: unknown[];
   /** Sends every queued e-mail now. */
   flushMail: () => Promise<number>;
   close: () => Promise<void>;
@@ -37,7 +39,8 @@ export async function startTestApp(overrides: Partial<NodeJS.ProcessEnv> = {}): 
   const db = createDb(config.databaseUrl, { min: 0, max: 5 });
   const sessions = createSessionStore(config.databaseUrl, false);
   const worker = new OutboxWorker(db, createTransport(null, port), { from: config.mailFrom, baseDelayMs: 50, maxDelayMs: 200 });
-  const app = createApp({ config, db, sessions, nudgeMail: () => undefined, log: () => undefined });
+  const logged: unknown[] = [];
+  const app = createApp({ config, db, sessions, nudgeMail: () => undefined, log: (err) => logged.push(err) });
   return {
     app,
     db,
@@ -45,6 +48,7 @@ export async function startTestApp(overrides: Partial<NodeJS.ProcessEnv> = {}): 
     mail,
     worker,
     sessions,
+    logged,
     flushMail: () => worker.drain(),
     close: async () => {
       await worker.stop();
@@ -67,19 +71,32 @@ function cookieValue(setCookie: string[] | string | undefined, name: string): st
   return undefined;
 }
 
-/** A browser-like client: keeps cookies and sends the XSRF header the way Angular does. */
+const METHODS = ['get', 'post', 'put', 'patch', 'delete', 'head', 'options'] as const;
+
+/**
+ * A browser-like client: keeps cookies and sends the XSRF header the way Angular does. Like a
+ * browser, it takes a new XSRF-TOKEN from any answer that sets one (sign-in and sign-out do),
+ * also for requests made straight through `agent`.
+ */
 export class Client {
   readonly agent: Agent;
   xsrf = '';
 
   constructor(readonly app: Express) {
     this.agent = request.agent(app);
+    for (const m of METHODS) {
+      const send = this.agent[m].bind(this.agent);
+      this.agent[m] = ((url: string) => send(url).on('response', (res: request.Response) => this.take(res))) as Agent[typeof m];
+    }
+  }
+
+  private take(res: request.Response): void {
+    this.xsrf = cookieValue(res.headers['set-cookie'], 'XSRF-TOKEN') ?? this.xsrf;
   }
 
   /** Fetches the XSRF cookie (any GET under /api sets it). */
   async prime(): Promise<void> {
-    const res = await this.agent.get('/api/health');
-    this.xsrf = cookieValue(res.headers['set-cookie'], 'XSRF-TOKEN') ?? this.xsrf;
+    await this.agent.get('/api/health');
   }
 
   get(path: string) {
