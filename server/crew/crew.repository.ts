@@ -1,6 +1,7 @@
 import type { Operation } from '../../shared/operations';
 import type { SkillLevel } from '../../shared/schemas/fleet';
 import type { Tx } from '../db/knex';
+import { MEMBER_NAME_SQL } from '../db/member-name';
 
 export interface CrewRow {
   membership_id: number;
@@ -22,14 +23,14 @@ export const listCrew = (db: Tx, farmId: number): Promise<CrewRow[]> =>
     .where('m.farm_id', farmId)
     .whereIn('m.status', ['active', 'invited'])
     .orderBy([{ column: 'm.role' }, { column: 'u.name' }])
-    .select('m.id as membership_id', 'u.name', 'm.role', 'm.status');
+    .select('m.id as membership_id', db.raw(`${MEMBER_NAME_SQL} as name`), 'm.role', 'm.status');
 
 export const getCrewMember = (db: Tx, farmId: number, membershipId: number): Promise<CrewRow | undefined> =>
   db('memberships as m')
     .join('users as u', 'u.id', 'm.user_id')
     .where({ 'm.farm_id': farmId, 'm.id': membershipId })
     .whereIn('m.status', ['active', 'invited'])
-    .first('m.id as membership_id', 'u.name', 'm.role', 'm.status');
+    .first('m.id as membership_id', db.raw(`${MEMBER_NAME_SQL} as name`), 'm.role', 'm.status');
 
 export const skillsOfFarm = (db: Tx, farmId: number): Promise<SkillRow[]> =>
   db('crew_skills').where({ farm_id: farmId }).select('membership_id', 'operation', 'level');

@@ -13,6 +13,11 @@ import * as repo from './members.repository';
 
 export const listMembers = (deps: AppDeps, farmId: number): Promise<Member[]> => repo.listMembers(deps.db, farmId);
 
+/**
+ * Invites an address to the farm. The answer is the same whether or not the address already has
+ * an account: the farm sees the name it typed (kept on the membership) until the person accepts,
+ * and an existing account's own name is neither shown nor changed.
+ */
 export async function invite(deps: AppDeps, by: SessionPrincipal, input: { email: string; name: string; role: Role }): Promise<Member> {
   const id = await deps.db.transaction(async (tx) => {
     let user = await users.findUserByEmail(tx, input.email);
@@ -22,10 +27,10 @@ export async function invite(deps: AppDeps, by: SessionPrincipal, input: { email
     if (existing && existing.status !== 'removed') {
       throw new AppError(409, 'already_member', `${input.email} is already ${existing.status === 'invited' ? 'invited to' : 'a member of'} this farm`, { email: 'Already on this farm' });
     } else if (existing) {
-      await repo.updateMembership(tx, existing.id, { role: input.role, status: 'invited', reinvited: true });
+      await repo.updateMembership(tx, existing.id, { role: input.role, status: 'invited', reinvited: true, invitedName: input.name });
       membershipId = existing.id;
     } else {
-      membershipId = await repo.insertMembership(tx, { farmId: by.farmId, userId: user.id, role: input.role, status: 'invited' });
+      membershipId = await repo.insertMembership(tx, { farmId: by.farmId, userId: user.id, role: input.role, status: 'invited', invitedName: input.name });
     }
     await users.voidOpenTokens(tx, user.id, 'invite');
     const token = newToken();

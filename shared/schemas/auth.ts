@@ -70,7 +70,8 @@ export interface TokenInfo {
 
 export interface Member {
   id: number;
-  userId: number;
+  /** null while invited: an existing account's (older) id would tell the inviter it exists. */
+  userId: number | null;
   name: string;
   email: string;
   role: Role;

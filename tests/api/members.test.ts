@@ -1,6 +1,12 @@
 import { makeFarm, type TestFarm } from '../support/farm-factory';
 import { Client, startTestApp, type TestApp } from '../support/test-app';
 
+const tokenIn = (text: string): string => {
+  const m = /accept-invitation\?token=([A-Za-z0-9_-]+)/.exec(text);
+  if (!m) throw new Error(`no invitation link in:\n${text}`);
+  return m[1];
+};
+
 describe('members', () => {
   let t: TestApp;
   let farm: TestFarm;
@@ -63,5 +69,31 @@ describe('members', () => {
     const res = await owner.post('/api/members/invite', { email: farm.viewer.email, name: 'Again', role: 'viewer' });
     expect(res.status).toBe(409);
     expect(res.body.error.code).toBe('already_member');
+  });
+
+  it('when the owner invites an address that already has an account, then the answer is the one a new address gets (the typed name), and the account is unchanged', async () => {
+    const neighbour = await makeFarm(t.db, 'Neighbour account');
+    const fresh = `fresh.${Date.now().toString(36)}@furlong.test`;
+    const known = await owner.post('/api/members/invite', { email: neighbour.owner.email, name: 'Hired Hand', role: 'operator' });
+    const unknown = await owner.post('/api/members/invite', { email: fresh, name: 'Hired Hand', role: 'operator' });
+    expect(known.status).toBe(201);
+    expect(unknown.status).toBe(known.status);
+    const shape = (m: Record<string, unknown>) => ({ ...m, id: typeof m.id, email: typeof m.email, invitedAt: typeof m.invitedAt });
+    expect(shape(known.body)).toEqual(shape(unknown.body));
+    expect(known.body).toMatchObject({ name: 'Hired Hand', userId: null, status: 'invited', email: neighbour.owner.email });
+    const listed = (await owner.get('/api/members')).body.find((m: { id: number }) => m.id === known.body.id);
+    expect(listed.name).toBe('Hired Hand');
+    expect(JSON.stringify((await owner.get('/api/members')).body)).not.toContain(neighbour.owner.name);
+    expect((await t.db('users').where({ id: neighbour.owner.id }).first()).name).toBe(neighbour.owner.name);
+
+    // Once the person accepts, the farm sees the name they go by.
+    await t.flushMail();
+    const mail = await t.mail.waitFor((m) => m.to.includes(neighbour.owner.email) && m.text.includes('accept-invitation'));
+    const guest = new Client(t.app);
+    await guest.prime();
+    const accepted = await guest.post('/api/auth/set-password', { token: tokenIn(mail.text), password: 'neighbour-new-password' });
+    expect(accepted.status).toBe(200);
+    const after = (await owner.get('/api/members')).body.find((m: { id: number }) => m.id === known.body.id);
+    expect(after).toMatchObject({ name: neighbour.owner.name, status: 'active', userId: neighbour.owner.id });
   });
 });
