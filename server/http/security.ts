@@ -10,6 +10,11 @@ export const nonceOf = (res: Response): string => res.locals.cspNonce as string;
  * `ngCspNonce`. API answers are data, never pages: their policy allows nothing at all, and they
  * need no nonce (making one for each of them cost a noticeable share of a cached board request,
  * measured with `npm run bench -- server`).
+ *
+ * Every API answer is private to the signed-in person (or carries a fresh XSRF cookie), so none
+ * may be kept by the browser's disk cache or a shared proxy: `Cache-Control: no-store` unless a
+ * route sets its own. The work board still sends an ETag and answers 304 to a client that sends
+ * `If-None-Match` (Express checks freshness against the request, whatever the answer's policy).
  */
 export function securityHeaders(secure: boolean, tileUrl: string | null = null): RequestHandler {
   // A configured map background is the one other origin pages may load (images only).
@@ -44,7 +49,10 @@ export function securityHeaders(secure: boolean, tileUrl: string | null = null):
     contentSecurityPolicy: { useDefaults: false, directives: { defaultSrc: ["'none'"], frameAncestors: ["'none'"] } },
   });
   return (req, res, next) => {
-    if (req.path.startsWith('/api/')) return apiHeaders(req, res, next);
+    if (req.path.startsWith('/api/')) {
+      res.set('Cache-Control', 'no-store');
+      return apiHeaders(req, res, next);
+    }
     res.locals.cspNonce = randomBytes(16).toString('base64');
     pageHeaders(req, res, next);
   };

@@ -1,5 +1,6 @@
 import type { Request } from 'express';
 import type { z } from 'zod';
+import { NUL_MESSAGE, hasNul } from '../../shared/schemas/common';
 import { AppError } from './errors';
 
 function fieldsOf(error: z.ZodError): Record<string, string> {
@@ -11,7 +12,48 @@ function fieldsOf(error: z.ZodError): Record<string, string> {
   return fields;
 }
 
+/**
+ * The path (`name`, `columns.0.note`) of the first string or key holding U+0000, if any.
+ * PostgreSQL refuses that character in text and jsonb, so it would otherwise fail the query.
+ * Walked without recursion: a 1 MB body can nest arrays deeper than the call stack goes.
+ */
+export function nulPath(value: unknown): string | undefined {
+  // Each entry knows its parent, so the path is only built for the one string that fails.
+  interface At {
+    v: unknown;
+    key: string | null;
+    parent: At | null;
+  }
+  const pathOf = (at: At | null, last?: string): string => {
+    const keys: string[] = last === undefined ? [] : [last];
+    for (let a = at; a && a.key !== null; a = a.parent) keys.push(a.key);
+    return keys.reverse().join('.') || '_';
+  };
+  const stack: At[] = [{ v: value, key: null, parent: null }];
+  while (stack.length) {
+    const at = stack.pop()!;
+    const v = at.v;
+    if (typeof v === 'string') {
+      if (hasNul(v)) return pathOf(at);
+    } else if (Array.isArray(v)) {
+      for (let i = v.length - 1; i >= 0; i--) stack.push({ v: v[i], key: String(i), parent: at });
+    } else if (v && typeof v === 'object') {
+      const entries = Object.entries(v);
+      for (let i = entries.length - 1; i >= 0; i--) {
+        const [k, child] = entries[i];
+        if (hasNul(k)) return pathOf(at, k.replaceAll('\u0000', ''));
+        stack.push({ v: child, key: k, parent: at });
+      }
+    }
+  }
+  return undefined;
+}
+
 function parse<S extends z.ZodType>(schema: S, value: unknown, where: string): z.infer<S> {
+  const nul = nulPath(value);
+  if (nul !== undefined) {
+    throw new AppError(400, 'invalid_input', `Check the ${where}: ${nul} ${NUL_MESSAGE}`, { [nul]: `This ${NUL_MESSAGE}` });
+  }
   const res = schema.safeParse(value);
   if (res.success) return res.data;
   const fields = fieldsOf(res.error);

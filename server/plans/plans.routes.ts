@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { dbId } from '../../shared/schemas/common';
 import { planParams, planPreviewBody, planSettings } from '../../shared/schemas/plans';
 import type { AppDeps } from '../app-deps';
 import { heavyWork } from '../http/heavy';
@@ -18,7 +19,7 @@ export function planRoutes(r: Routes, deps: AppDeps): void {
   });
 
   r.get('/', 'member', async (req, res) => {
-    const q = query(req, z.object({ fieldId: z.coerce.number().int().positive().optional() }));
+    const q = query(req, z.object({ fieldId: dbId.optional() }));
     res.json(await plans.listPlans(deps, principal(req).farmId, q.fieldId));
   });
 

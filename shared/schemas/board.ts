@@ -3,7 +3,7 @@ import type { FeatureCollection, MultiPolygon, Polygon } from 'geojson';
 import { z } from 'zod';
 import { OPERATIONS, type Operation } from '../operations';
 import type { ImplementKind } from '../plan/implement-defaults';
-import { isoDate } from './common';
+import { DB_INT_MAX, dbId, dbIdNumber, isoDate } from './common';
 import { HAZARD_KINDS } from './fields';
 import type { MachineKind } from './fleet';
 
@@ -30,11 +30,11 @@ export const DAY_START_MIN = 7 * 60;
 
 /** 'HH:MM', 24-hour clock. */
 export const timeOfDay = z.string().regex(/^([01]\d|2[0-3]):[0-5]\d$/, 'Use a time written as HH:MM (24-hour clock)');
-const id = z.number().int().positive();
+const id = dbIdNumber;
 const operation = z.enum(OPERATIONS, { message: `Operation must be one of: ${OPERATIONS.join(', ')}` });
 const note = z.string().trim().max(1000, 'Use at most 1000 characters').nullable().optional();
 /** The board version the client last saw; may come in the body or an `If-Match` header instead. */
-const version = z.number().int().min(0).optional();
+const version = z.number().int().min(0).max(DB_INT_MAX, 'That board version does not exist; reload the work board').optional();
 const endAfterStart = (v: { startTime?: string | null; endTime?: string | null }) => !(v.startTime && v.endTime) || v.endTime > v.startTime;
 const END_MESSAGE = { message: 'The end time must be after the start time', path: ['endTime'] };
 
@@ -145,7 +145,7 @@ export const problemBody = z
   .refine((v) => !v.geometry || v.kind === 'hazard', { message: 'Only a hazard report carries a place on the map', path: ['geometry'] });
 export type ProblemInput = z.infer<typeof problemBody>;
 
-export const runSheetQuery = z.object({ date: isoDate, membershipId: z.coerce.number().int().positive().optional() });
+export const runSheetQuery = z.object({ date: isoDate, membershipId: dbId.optional() });
 
 export interface PersonRef {
   membershipId: number;

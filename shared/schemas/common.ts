@@ -10,7 +10,25 @@ export interface ApiErrorBody {
   };
 }
 
-export const idParam = z.object({ id: z.coerce.number().int().positive() });
+/**
+ * Row ids (and board versions) are PostgreSQL `integer` columns: at most 2^31 - 1 (PostgreSQL
+ * manual, "Numeric Types"). A larger number names no row, and would make the query itself fail.
+ */
+export const DB_INT_MAX = 2_147_483_647;
+const ID_TOO_LARGE = 'That number is too large to be anything on Furlong';
+
+/** A row id written in an address or query string (text, so it is read as a number). */
+export const dbId = z.coerce.number().int().positive().max(DB_INT_MAX, ID_TOO_LARGE);
+/** A row id in a JSON body: already a number (a string or true is refused, not converted). */
+export const dbIdNumber = z.number().int().positive().max(DB_INT_MAX, ID_TOO_LARGE);
+
+export const idParam = z.object({ id: dbId });
+
+/** PostgreSQL text and jsonb cannot hold U+0000; it is never typed on purpose either. */
+export const hasNul = (s: string): boolean => s.includes('\u0000');
+export const NUL_MESSAGE = 'must not contain a NUL character (an invisible control character, often pasted in by mistake)';
+/** A string that must not hold a NUL character, for text parsed outside `server/http/validate`. */
+export const textWithoutNul = (what = 'This text') => z.string().refine((s) => !hasNul(s), `${what} ${NUL_MESSAGE}`);
 
 export const isoDate = z
   .string()

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { textWithoutNul } from './common';
 
 export const HAZARD_KINDS = ['bin', 'rock', 'power', 'draw', 'waterway', 'fence', 'neighbour', 'other'] as const;
 export type HazardKind = (typeof HAZARD_KINDS)[number];
@@ -17,7 +18,8 @@ export const HAZARD_LABELS: Record<HazardKind, string> = {
 
 export const CROPS = ['spring wheat', 'durum', 'barley', 'oats', 'canola', 'field peas', 'lentils', 'flax', 'sunflowers', 'soybeans', 'corn', 'fallow'] as const;
 
-const fieldName = z.string().trim().min(1, 'Give the field a name').max(120, 'Use at most 120 characters');
+// Without NUL here too: an import's list of names comes as a multipart form field, not through server/http/validate.
+const fieldName = textWithoutNul('A field name').trim().min(1, 'Give the field a name').max(120, 'Use at most 120 characters');
 
 /** A geometry object; its coordinates are checked in detail by shared/geo/boundary-check. */
 export const geometry = z.object({ type: z.string(), coordinates: z.unknown() }).passthrough();

@@ -1,5 +1,6 @@
 // Fleet (machines and implements) and crew skills: request bodies and the shapes the API answers.
 import { z } from 'zod';
+import { dbId, dbIdNumber } from './common';
 import { OPERATION_INFO, OPERATIONS, type Operation } from '../operations';
 import type { ImplementKind } from '../plan/implement-defaults';
 
@@ -83,7 +84,7 @@ export const implementBody = z
       .optional(),
     operations: z.array(operation).min(1, 'Choose at least one operation it does'),
     /** Machines that may pull or carry it; empty means any tractor with enough power. */
-    machineIds: z.array(z.number().int().positive()).max(50).default([]),
+    machineIds: z.array(dbIdNumber).max(50).default([]),
     minPowerHp: z.number().positive('Minimum power must be more than 0 hp').max(2000).nullable().optional(),
     notes,
   })
@@ -108,7 +109,7 @@ export const implementPatchBody = z
     widthM: z.number().positive('Working width must be more than 0').max(60, 'Working width is at most 60 m (197 ft)').optional(),
     transportWidthM: z.number().positive('Transport width must be more than 0').max(20).nullable().optional(),
     operations: z.array(operation).min(1, 'Choose at least one operation it does').optional(),
-    machineIds: z.array(z.number().int().positive()).max(50).optional(),
+    machineIds: z.array(dbIdNumber).max(50).optional(),
     minPowerHp: z.number().positive('Minimum power must be more than 0 hp').max(2000).nullable().optional(),
     notes,
   })
@@ -119,7 +120,7 @@ export const skillBody = z.object({
 });
 
 export const skillParams = z.object({
-  membershipId: z.coerce.number().int().positive(),
+  membershipId: dbId,
   operation,
 });
 

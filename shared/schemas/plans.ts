@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { OPERATIONS } from '../operations';
 import { IMPLEMENT_DEFAULTS, type ImplementKind } from '../plan/implement-defaults';
 import type { PlanResult } from '../plan/types';
+import { dbId, dbIdNumber } from './common';
 import { geometry } from './fields';
 
 const kinds = Object.keys(IMPLEMENT_DEFAULTS) as [ImplementKind, ...ImplementKind[]];
@@ -16,11 +17,11 @@ export const planSettings = z.object({
   turnSeconds: z.number().min(0).max(600).optional(),
   coverage: z.enum(['gaps-ok', 'full']).optional(),
   implementKind: z.enum(kinds).optional(),
-  implementId: z.number().int().positive().nullable().optional(),
+  implementId: dbIdNumber.nullable().optional(),
 });
 
 export const planPreviewBody = planSettings.extend({
-  fieldId: z.number().int().positive().optional(),
+  fieldId: dbIdNumber.optional(),
   boundary: geometry.optional(),
   hazards: z.object({ type: z.literal('FeatureCollection'), features: z.array(z.unknown()) }).passthrough().optional(),
   operation: z.enum(OPERATIONS).optional(),
@@ -28,7 +29,7 @@ export const planPreviewBody = planSettings.extend({
 });
 
 export const planParams = z.object({
-  fieldId: z.coerce.number().int().positive(),
+  fieldId: dbId,
   operation: z.enum(OPERATIONS, { message: `Operation must be one of: ${OPERATIONS.join(', ')}` }),
 });
 

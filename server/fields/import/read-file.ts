@@ -73,7 +73,9 @@ export async function readBoundaryFile(file: { name: string; data: Buffer }, nam
   const out: ImportedFeature[] = [];
   for (const [index, f] of features.entries()) {
     const raw: unknown = nameAttr ? f.properties?.[nameAttr] : undefined;
-    const name = (raw === undefined || raw === null || String(raw).trim() === '' ? `Field ${index + 1}` : String(raw).trim()).slice(0, 120);
+    // A NUL character cannot be stored in a name (PostgreSQL text): it is dropped.
+    const text = raw === undefined || raw === null ? '' : String(raw).replaceAll('\u0000', '').trim();
+    const name = (text === '' ? `Field ${index + 1}` : text).slice(0, 120);
     const label = `feature ${index + 1} ("${name}")`;
     const errors: string[] = [];
     let acres: number | null = null;
