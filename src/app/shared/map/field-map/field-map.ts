@@ -162,7 +162,7 @@ export class FieldMap {
         interactive: selectable,
         style: { className: classes, weight: field.id === selectedId ? 3 : 2 },
       } as L.GeoJSONOptions);
-      layer.bindTooltip(field.name, { permanent: true, direction: 'center', className: 'fm-label', opacity: 1 });
+      layer.bindTooltip(textLabel(field.name), { permanent: true, direction: 'center', className: 'fm-label', opacity: 1 });
       if (selectable) layer.on('click', () => this.fieldSelected.emit(field.id));
       this.outlines.addLayer(layer);
     }
@@ -173,8 +173,10 @@ export class FieldMap {
     this.hazardShapes.clearLayers();
     this.bands = [];
     for (const hazard of hazards) {
-      const { kind, clearanceM, id } = hazard.properties;
-      const name = `${HAZARD_LABELS[kind as HazardKind] ?? kind}, clearance ${this.units.length(clearanceM)}`;
+      const { clearanceM, id } = hazard.properties;
+      // The kind goes into class names and the symbol's markup: only a known kind, never the raw text.
+      const kind: HazardKind = hazard.properties.kind in HAZARD_LABELS ? (hazard.properties.kind as HazardKind) : 'other';
+      const name = `${HAZARD_LABELS[kind]}, clearance ${this.units.length(clearanceM)}`;
       const zoneStyle = { pane: 'fm-zones', className: 'fm-zone', interactive: false, pmIgnore: true };
       const at = anchorOf(hazard.geometry);
       if (!at) continue;
@@ -226,7 +228,7 @@ export class FieldMap {
         const tip = spec.tooltip;
         layer.eachLayer((child) => {
           const text = tip((child as L.Layer & { feature?: Feature }).feature as Feature);
-          if (text) child.bindTooltip(text, { sticky: true });
+          if (text) child.bindTooltip(textLabel(text), { sticky: true });
         });
       }
       this.extras.addLayer(layer);
@@ -250,7 +252,9 @@ export class FieldMap {
       .filter((entry) => entry !== null)
       .sort((a, b) => b.size - a.size);
     for (const { layer, centre } of labelled) {
-      const half = (String(layer.getTooltip()?.getContent() ?? '').length * 6.5 + 14) / 2;
+      const content = layer.getTooltip()?.getContent();
+      const text = content instanceof HTMLElement ? (content.textContent ?? '') : String(content ?? '');
+      const half = (text.length * 6.5 + 14) / 2;
       const box = L.bounds(L.point(centre.x - half, centre.y - 11), L.point(centre.x + half, centre.y + 11));
       if (placed.some((other) => other.overlaps(box))) layer.closeTooltip();
       else {
@@ -287,6 +291,16 @@ export class FieldMap {
 }
 
 const latLng = (p: Position): L.LatLng => L.latLng(p[1], p[0]);
+
+/**
+ * Tooltip content as text: Leaflet takes a string as HTML, so a field named with markup would
+ * become markup. An element whose textContent is set shows the name exactly as typed.
+ */
+export function textLabel(text: string): HTMLElement {
+  const span = document.createElement('span');
+  span.textContent = text;
+  return span;
+}
 
 type Part = { type: 'Point'; coordinates: Position } | { type: 'LineString'; coordinates: Position[] } | { type: 'Polygon'; coordinates: Position[][] };
 
