@@ -1,5 +1,5 @@
 // `npm test`: the same set-up as `npm start` into a separate test cluster and database, then
-// lint, type-check, unit, API, client and browser tests; one summary line at the end.
+// lint, type-check, unit, API, fault, client and browser tests; one summary line at the end.
 import { spawnSync } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
@@ -12,20 +12,29 @@ fs.mkdirSync(artifacts, { recursive: true });
 
 ensureNodeModules();
 if (want('browser')) ensureChromium();
-const cluster = new LocalCluster('pg-test', intEnv('FURLONG_TEST_DB_PORT', 54339));
-cluster.start();
-cluster.ensureDatabase('furlong_test', { fresh: true });
-cluster.ensureDatabase('furlong_migrate', { fresh: true });
+// The test cluster and its fresh databases, for the steps that use them (all of them when no
+// step is named). `npm test -- faults` alone leaves the test cluster untouched.
+const needsTestDb = want('api') || want('browser');
+const cluster = needsTestDb ? new LocalCluster('pg-test', intEnv('FURLONG_TEST_DB_PORT', 54339)) : null;
+// The fault tests stop and start PostgreSQL: they get a cluster of their own.
+const faultCluster = want('faults') ? new LocalCluster('pg-fault', intEnv('FURLONG_FAULT_DB_PORT', 54349)) : null;
 
 const env = {
   ...process.env,
   NODE_ENV: 'test',
-  TEST_DATABASE_URL: cluster.url('furlong_test'),
-  DATABASE_URL: cluster.url('furlong_test'),
-  MIGRATION_DATABASE_URL: cluster.url('furlong_migrate'),
   ARTIFACTS_DIR: artifacts,
   FORCE_COLOR: '0',
 };
+if (cluster) {
+  cluster.start();
+  cluster.ensureDatabase('furlong_test', { fresh: true });
+  cluster.ensureDatabase('furlong_migrate', { fresh: true });
+  Object.assign(env, {
+    TEST_DATABASE_URL: cluster.url('furlong_test'),
+    DATABASE_URL: cluster.url('furlong_test'),
+    MIGRATION_DATABASE_URL: cluster.url('furlong_migrate'),
+  });
+}
 
 let passed = 0;
 let failed = 0;
@@ -48,7 +57,16 @@ function check(name, cmd, args) {
 function jest(name, config, extra = []) {
   const out = path.join(artifacts, `jest-${name}.json`);
   fs.rmSync(out, { force: true });
-  const ok = step(`${name} tests`, 'node', ['node_modules/jest/bin/jest.js', '-c', config, '--ci', '--json', '--outputFile', out, ...extra]);
+  const ok = step(`${name} tests`, 'node', [
+    'node_modules/jest/bin/jest.js',
+    '-c',
+    config,
+    '--ci',
+    '--json',
+    '--outputFile',
+    out,
+    ...extra,
+  ]);
   if (!fs.existsSync(out)) {
     failed++;
     return;
@@ -64,7 +82,7 @@ function jest(name, config, extra = []) {
 }
 
 try {
-  run('node', ['--import', 'tsx', 'scripts/prepare-db.ts'], { env });
+  if (cluster) run('node', ['--import', 'tsx', 'scripts/prepare-db.ts'], { env });
   if (want('lint')) check('lint', 'node', ['node_modules/eslint/bin/eslint.js', '.', '--max-warnings=0']);
   if (want('typecheck')) {
     check('type-check server and shared', 'node', ['node_modules/typescript/bin/tsc', '-p', 'tsconfig.server.json', '--noEmit']);
@@ -73,6 +91,20 @@ try {
   }
   if (want('unit')) jest('unit', 'jest.unit.config.js');
   if (want('api')) jest('api', 'jest.api.config.js', ['--runInBand']);
+  if (faultCluster) {
+    faultCluster.start();
+    faultCluster.ensureDatabase('furlong_fault', { fresh: true });
+    const url = faultCluster.url('furlong_fault');
+    run('node', ['--import', 'tsx', 'scripts/prepare-db.ts', '--migrate-only'], { env: { ...env, DATABASE_URL: url } });
+    Object.assign(env, {
+      FAULT_DATABASE_URL: url,
+      FAULT_PG_BIN: faultCluster.bin,
+      FAULT_PG_DIR: faultCluster.dir,
+      FAULT_PG_LOG: faultCluster.logFile,
+      FAULT_PG_OPTIONS: faultCluster.serverOptions(),
+    });
+    jest('faults', 'jest.faults.config.js', ['--runInBand']);
+  }
   if (want('client')) jest('client', 'jest.client.config.js');
   if (want('browser')) {
     check('build the app', 'node', ['node_modules/@angular/cli/bin/ng.js', 'build', '--configuration', 'production']);
@@ -82,7 +114,9 @@ try {
   log(err.message);
   failed++;
 } finally {
-  if (cluster.startedHere) cluster.stop();
+  if (cluster?.startedHere) cluster.stop();
+  // The fault tests may have left it stopped or restarted it; it is only theirs, so it stops.
+  if (faultCluster) faultCluster.stop();
 }
 
 process.stdout.write(`\n${lines.join('\n')}\n\nScreenshots and reports: artifacts/\n${passed} passed, ${failed} failed\n`);

@@ -35,24 +35,60 @@ async function main(): Promise<void> {
     console.log(`Furlong API and app listening on http://${config.host}:${config.port}`);
   });
 
+  // Ctrl-C under `npm start` reaches this process twice (the terminal's SIGINT, then the
+  // supervisor's SIGTERM): the second signal must not close the pools a second time.
+  let stopping = false;
   const shutdown = async () => {
+    if (stopping) return;
+    stopping = true;
     // Let requests under way finish (idle keep-alive sockets close now), then close the rest.
     const closed = new Promise((r) => server.close(r));
     server.closeIdleConnections();
     const force = setTimeout(() => server.closeAllConnections(), 5000);
     await closed;
     clearTimeout(force);
-    await worker.stop();
-    await fakeMail?.stop();
-    await sessions.close();
-    await db.destroy();
-    process.exit(0);
+    let code = 0;
+    for (const [what, close] of [
+      ['the mail worker', () => worker.stop()],
+      ['the fake mail server', async () => fakeMail?.stop()],
+      ['the sessions pool', () => sessions.close()],
+      ['the database pool', () => db.destroy()],
+    ] as const) {
+      try {
+        await close();
+      } catch (err) {
+        console.error(`furlong: closing ${what} failed: ${err instanceof Error ? err.message : String(err)}`);
+        code = 1;
+      }
+    }
+    process.exit(code);
   };
-  process.once('SIGTERM', () => void shutdown());
-  process.once('SIGINT', () => void shutdown());
+  process.on('SIGTERM', () => void shutdown());
+  process.on('SIGINT', () => void shutdown());
 }
 
-main().catch((err: Error) => {
-  console.error(err.message);
+/** Why the process ends: the error's code, stack and cause. */
+function describe(err: unknown): string {
+  if (!(err instanceof Error)) return String(err);
+  const e = err as Error & { code?: string };
+  const lines = [`${e.code ? `${e.code} ` : ''}${e.stack ?? e.message}`];
+  if (e.cause) lines.push(`caused by: ${describe(e.cause)}`);
+  return lines.join('\n');
+}
+
+// A failure nothing handled leaves the process in a state nobody planned for: say what it was,
+// then end (the supervisor, `npm start` or a service manager, restarts or reports it). Requests'
+// own failures never get here: Express 5 passes a rejected handler to the error handler.
+process.on('uncaughtException', (err, origin) => {
+  console.error(`furlong: the server stops after an unexpected error (${origin}):\n${describe(err)}`);
+  process.exit(1);
+});
+process.on('unhandledRejection', (reason) => {
+  console.error(`furlong: the server stops after an unexpected error (unhandled rejection):\n${describe(reason)}`);
+  process.exit(1);
+});
+
+main().catch((err: unknown) => {
+  console.error(`furlong: the server could not start: ${err instanceof Error ? err.message : String(err)}`);
   process.exit(1);
 });

@@ -131,7 +131,23 @@ export class LocalCluster {
     fs.writeFileSync(pwFile, this.password);
     execFileSync('chown', ['postgres:postgres', pwFile]);
     try {
-      this.pg('initdb', ['-D', this.dir, '-U', 'postgres', '--pwfile', pwFile, '--auth-host=scram-sha-256', '--auth-local=peer', '-E', 'UTF8', '--locale=C.UTF-8'], { stdio: 'pipe' });
+      this.pg(
+        'initdb',
+        [
+          '-D',
+          this.dir,
+          '-U',
+          'postgres',
+          '--pwfile',
+          pwFile,
+          '--auth-host=scram-sha-256',
+          '--auth-local=peer',
+          '-E',
+          'UTF8',
+          '--locale=C.UTF-8',
+        ],
+        { stdio: 'pipe' },
+      );
     } finally {
       fs.rmSync(pwFile, { force: true });
     }
@@ -147,15 +163,20 @@ export class LocalCluster {
     if (this.isRunning()) return;
     fs.writeFileSync(this.logFile, '');
     execFileSync('chown', ['postgres:postgres', this.logFile]);
-    const opts = `-c listen_addresses=127.0.0.1 -p ${this.port} -c unix_socket_directories=${this.dir} -c fsync=${this.name.includes('test') ? 'off' : 'on'}`;
     try {
-      this.pg('pg_ctl', ['start', '-w', '-t', '60', '-D', this.dir, '-l', this.logFile, '-o', opts], { stdio: 'pipe' });
+      this.pg('pg_ctl', ['start', '-w', '-t', '60', '-D', this.dir, '-l', this.logFile, '-o', this.serverOptions()], { stdio: 'pipe' });
     } catch (err) {
       const tail = fs.readFileSync(this.logFile, 'utf8').split('\n').slice(-8).join('\n');
       throw new Error(`PostgreSQL did not start on 127.0.0.1:${this.port}:\n${tail}`, { cause: err });
     }
     this.startedHere = true;
     log(`PostgreSQL running on 127.0.0.1:${this.port} (data in .data/${this.name})`);
+  }
+
+  /** The server settings `pg_ctl start -o` gets (the fault tests restart the cluster with them). */
+  serverOptions() {
+    const scratch = this.name.includes('test') || this.name.includes('fault');
+    return `-c listen_addresses=127.0.0.1 -p ${this.port} -c unix_socket_directories=${this.dir} -c fsync=${scratch ? 'off' : 'on'}`;
   }
 
   stop() {
@@ -166,7 +187,9 @@ export class LocalCluster {
 
   /** psql as the postgres superuser over the cluster's own socket. */
   sql(statement, database = 'postgres') {
-    return this.pg('psql', ['-h', this.dir, '-p', String(this.port), '-d', database, '-v', 'ON_ERROR_STOP=1', '-qAtc', statement], { stdio: 'pipe' });
+    return this.pg('psql', ['-h', this.dir, '-p', String(this.port), '-d', database, '-v', 'ON_ERROR_STOP=1', '-qAtc', statement], {
+      stdio: 'pipe',
+    });
   }
 
   ensureDatabase(database, { fresh = false } = {}) {
@@ -183,4 +206,70 @@ export function intEnv(name, fallback) {
   const n = Number(raw);
   if (!Number.isInteger(n) || n < 1 || n > 65535) throw new Error(`${name} must be a port number, got "${raw}"`);
   return n;
+}
+
+/** Why a child process ended, in words: "exited with code 1", "killed by SIGKILL". */
+export function endReason(code, signal) {
+  return signal ? `killed by ${signal}` : `exited with code ${code}`;
+}
+
+/**
+ * Keeps what a script started (`npm start`: the web server and PostgreSQL) from outliving it.
+ * `stopAll` runs once, whatever ends things first: Ctrl-C, SIGTERM or SIGHUP to this script, an
+ * error nothing here caught, or the child ending on its own (by any exit code or signal). A child
+ * still running is asked to stop (SIGTERM, then SIGKILL after `graceMs`) before `stopAll` runs.
+ */
+export class Supervisor {
+  constructor(stopAll, { graceMs = 8000, exit = (code) => process.exit(code), say = log } = {}) {
+    this.stopAll = stopAll;
+    this.graceMs = graceMs;
+    this.exit = exit;
+    this.say = say;
+    this.child = null;
+    this.stopping = false;
+  }
+
+  /** Listens for the signals and failures that end this script. */
+  watchThisProcess() {
+    // Ctrl-C also reaches the child (same terminal): it starts its own orderly stop, and the
+    // SIGTERM sent by `stop` asks for the same; the child ignores the second.
+    process.on('SIGINT', () => this.stop(0));
+    process.on('SIGTERM', () => this.stop(0, 'stopping (SIGTERM)'));
+    process.on('SIGHUP', () => this.stop(0, 'stopping (the terminal closed)'));
+    process.on('uncaughtException', (err) => this.stop(1, `stopping after an unexpected error: ${err?.stack ?? err}`));
+    process.on('unhandledRejection', (err) => this.stop(1, `stopping after an unexpected error: ${err?.stack ?? err}`));
+    return this;
+  }
+
+  /** The child whose end ends everything. */
+  adopt(child, name = 'the web server') {
+    this.child = child;
+    child.on('exit', (code, signal) => {
+      if (!this.stopping) this.stop(code || 1, `${name} ended: ${endReason(code, signal)}; stopping the rest`);
+    });
+    child.on('error', (err) => this.stop(1, `${name} could not be started: ${err.message}`));
+    return child;
+  }
+
+  stop(code, reason) {
+    if (this.stopping) return;
+    this.stopping = true;
+    if (reason) this.say(reason);
+    const finish = () => {
+      try {
+        this.stopAll();
+      } catch (err) {
+        this.say(`stopping failed: ${err.message}`);
+        code ||= 1;
+      } finally {
+        this.exit(code);
+      }
+    };
+    const child = this.child;
+    if (child && child.exitCode === null && child.signalCode === null) {
+      child.once('exit', finish);
+      child.kill('SIGTERM');
+      setTimeout(() => child.kill('SIGKILL'), this.graceMs).unref();
+    } else finish();
+  }
 }

@@ -22,24 +22,55 @@ export const TOUCH_INTERVAL_MS = 60_000;
 /** How long a session read from PostgreSQL is reused for the same person's next requests. */
 export const SESSION_REUSE_MS = 5_000;
 
+/** How a lost or refused connection is reported: one line, no SQL and no values. */
+const reportDbError = (what: string, err: unknown) => {
+  const e = err as { code?: string; message?: string };
+  console.error(`furlong: ${what}: ${e?.code ? `${e.code} ` : ''}${e?.message ?? String(err)}`);
+};
+
 /** Sessions live in PostgreSQL (table `session`), so a server restart keeps people signed in. */
-export function createSessionStore(databaseUrl: string, prune = true): SessionStore {
-  const pool = new pg.Pool({ connectionString: databaseUrl, max: 4 });
+export function createSessionStore(
+  databaseUrl: string,
+  prune = true,
+  onError: (what: string, err: unknown) => void = reportDbError,
+): SessionStore {
+  // A connection waits at most 5 s for PostgreSQL, so requests during an outage fail quickly (503).
+  const pool = new pg.Pool({ connectionString: databaseUrl, max: 4, connectionTimeoutMillis: 5000 });
+  // An idle client whose server goes away (PostgreSQL restarted: 57P01) is reported on the pool;
+  // without a listener that report is an unhandled 'error' event and ends the process. The pool
+  // has already dropped the client; the next query opens a new connection.
+  pool.on('error', (err) => onError('a sessions database connection was lost', err));
   let n = 0;
   const principalSql = PRINCIPAL_SQL.replace(/\?/g, () => `$${++n}`);
   const PgStore = connectPgSimple(session);
-  const store = new PgStore({ pool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: prune ? 15 * 60 : false });
+  const store = new PgStore({
+    pool,
+    tableName: 'session',
+    createTableIfMissing: false,
+    pruneSessionInterval: prune ? 15 * 60 : false,
+    // Pruning during an outage fails and is tried again at the next interval.
+    errorLog: (what: string, err: unknown) => onError(String(what).replace(/:$/, '').toLowerCase(), err),
+  });
   throttleTouch(store);
   reuseReads(store);
+  let closing: Promise<void> | undefined;
   return {
     store,
     principal: async (userId, membershipId, signedInAt) => {
-      const { rows } = await pool.query<SessionPrincipal>({ name: 'session-principal', text: principalSql, values: [membershipId, userId, signedInAt] });
+      const { rows } = await pool.query<SessionPrincipal>({
+        name: 'session-principal',
+        text: principalSql,
+        values: [membershipId, userId, signedInAt],
+      });
       return rows[0];
     },
+    // Safe to call twice (a second SIGINT/SIGTERM during shutdown): pg refuses a second end().
     close: async () => {
-      (store as unknown as { close: () => void }).close();
-      await pool.end();
+      closing ??= (async () => {
+        await (store as unknown as { close: () => Promise<void> }).close();
+        await pool.end();
+      })();
+      return closing;
     },
   };
 }

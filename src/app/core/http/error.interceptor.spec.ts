@@ -10,7 +10,8 @@ import { OFFLINE_MESSAGE, errorInterceptor } from './error.interceptor';
 
 const ME: Me = {
   user: { id: 1, email: 'ingrid@example.test', name: 'Ingrid Sorensen' },
-  farm: { id: 1, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' }, membershipId: 1,
+  farm: { id: 1, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' },
+  membershipId: 1,
   role: 'owner',
 };
 
@@ -79,7 +80,22 @@ describe('errorInterceptor', () => {
     expect(error).toBeInstanceOf(ApiError);
     expect(error.status).toBe(0);
     expect(error.message).toBe(OFFLINE_MESSAGE);
-    expect(error.message).toBe('Cannot reach Furlong — check the connection');
+    expect(error.message).toBe("Cannot reach Furlong's server; your work is not lost. Check the connection and try again.");
+    expect(auth.me()).toEqual(ME);
+  });
+
+  it('when the database is not answering (503 db_unavailable), then the server message is shown and the person stays signed in', async () => {
+    const navigate = jest.spyOn(router, 'navigate').mockResolvedValue(true);
+    const message = "The farm's database is not answering; your work is not lost. Try again in a minute.";
+    const failure = failureOf('/api/board/2026-07-01');
+    httpTesting
+      .expectOne('/api/board/2026-07-01')
+      .flush({ error: { code: 'db_unavailable', message } }, { status: 503, statusText: 'Service Unavailable' });
+    const error = (await failure) as ApiError;
+    expect(error).toBeInstanceOf(ApiError);
+    expect(error).toMatchObject({ status: 503, code: 'db_unavailable', message });
+    expect(auth.me()).toEqual(ME);
+    expect(navigate).not.toHaveBeenCalled();
   });
 
   it('when a failure has no error shape (a proxy page), then a readable message replaces the raw body', async () => {

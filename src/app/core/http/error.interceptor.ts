@@ -5,7 +5,8 @@ import { catchError, throwError } from 'rxjs';
 import { AuthStore } from '../auth/auth-store';
 import { ApiError, isApiErrorBody } from './api-error';
 
-export const OFFLINE_MESSAGE = 'Cannot reach Furlong — check the connection';
+/** No answer at all (status 0): the network, or the server is down. Nothing typed is lost. */
+export const OFFLINE_MESSAGE = "Cannot reach Furlong's server; your work is not lost. Check the connection and try again.";
 
 /** Calls whose 401 is an answer ("not signed in", "wrong password"), not an expired session. */
 const SESSION_PROBES = /\/api\/auth\/(me|login)(?:[?#]|$)/;
@@ -24,7 +25,9 @@ const FALLBACK_MESSAGES: Record<number, string> = {
 
 /**
  * Turns every HTTP failure into an ApiError carrying the server's message, so components never
- * see raw responses; an expired session sends the person to sign-in and back afterwards.
+ * see raw responses; an expired session sends the person to sign-in and back afterwards. Only a
+ * 401 does that: a 503 (the farm's database not answering) or no answer at all keeps the person
+ * signed in, with the server's message or OFFLINE_MESSAGE.
  */
 export const errorInterceptor: HttpInterceptorFn = (req, next) => {
   const auth = inject(AuthStore);
