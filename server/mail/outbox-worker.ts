@@ -1,6 +1,7 @@
 import type { Transporter } from 'nodemailer';
 import type { Db } from '../db/knex';
-import { claimDue, markRetry, markSent } from './outbox.repository';
+import type { DbMailRow } from '../db/rows';
+import { claimNext, markRetry, markSent } from './outbox.repository';
 
 export interface OutboxOptions {
   from: string;
@@ -9,12 +10,29 @@ export interface OutboxOptions {
   /** First retry delay, doubled per attempt up to `maxDelayMs`. */
   baseDelayMs?: number;
   maxDelayMs?: number;
+  /**
+   * How long a claimed message is kept from other runs while it is sent, ms. Longer than one
+   * send can take (the transport's connection, greeting and socket timeouts: 10 + 10 + 30 s).
+   */
+  leaseMs?: number;
+  /** Attempts before a message that keeps failing is marked failed with its last error. */
+  maxAttempts?: number;
 }
 
+/** After this many failures in a row, one run stops and leaves the rest for the next poll. */
+const FAILURES_PER_RUN = 20;
+
 /**
- * Sends what the outbox holds. A message is marked sent only after the mail server took it;
- * a temporary failure (server down, 4xx) retries with exponential backoff and never gives up;
- * a permanent refusal (5xx, e.g. no such mailbox) is marked failed so the board can show it.
+ * Sends what the outbox holds. Each message is claimed in one short statement (a lease, see
+ * `claimNext`), sent with no database transaction open, then marked in another short statement,
+ * so a mail server that hangs holds no row lock and no connection. A message is marked sent only
+ * after the mail server took it; a temporary failure (server down or silent, 4xx) retries with
+ * exponential backoff, up to `maxAttempts` attempts; a permanent refusal (5xx, e.g. no such
+ * mailbox) or the last allowed attempt is marked failed so the board can show it.
+ *
+ * Delivery is at least once: if the message was taken but the database cannot be told (it is
+ * down that moment), the worker keeps the fact and records it on its next run; only if this
+ * process also ends before then is the message sent again when its lease runs out.
  */
 export class OutboxWorker {
   private timer: NodeJS.Timeout | null = null;
@@ -22,6 +40,10 @@ export class OutboxWorker {
   private readonly pollMs: number;
   private readonly baseDelayMs: number;
   private readonly maxDelayMs: number;
+  private readonly leaseMs: number;
+  private readonly maxAttempts: number;
+  /** Messages the mail server took whose `sent` mark did not reach the database yet. */
+  private readonly unrecorded = new Set<number>();
 
   constructor(
     private readonly db: Db,
@@ -31,6 +53,8 @@ export class OutboxWorker {
     this.pollMs = options.pollMs ?? 5000;
     this.baseDelayMs = options.baseDelayMs ?? 5000;
     this.maxDelayMs = options.maxDelayMs ?? 15 * 60_000;
+    this.leaseMs = options.leaseMs ?? 5 * 60_000;
+    this.maxAttempts = options.maxAttempts ?? 10;
   }
 
   start(): void {
@@ -67,34 +91,56 @@ export class OutboxWorker {
   }
 
   private async sendDue(): Promise<number> {
-    let sent = 0;
-    for (;;) {
-      const batch = await this.db.transaction(async (tx) => {
-        const due = await claimDue(tx, 20);
-        let n = 0;
-        for (const mail of due) {
-          try {
-            await this.transport.sendMail({
-              from: this.options.from,
-              to: mail.to_address,
-              subject: mail.subject,
-              text: mail.text_body,
-              html: mail.html_body ?? undefined,
-            });
-            await markSent(tx, mail.id);
-            n++;
-          } catch (err) {
-            const e = err as { responseCode?: number; message?: string };
-            const permanent = typeof e.responseCode === 'number' && e.responseCode >= 500;
-            const attempts = mail.attempts + 1;
-            const delay = Math.min(this.baseDelayMs * 2 ** (attempts - 1), this.maxDelayMs);
-            await markRetry(tx, mail.id, attempts, e.message ?? String(err), permanent, delay);
-          }
-        }
-        return { claimed: due.length, sent: n };
-      });
-      sent += batch.sent;
-      if (batch.claimed < 20 || batch.sent === 0) return sent;
+    for (const id of [...this.unrecorded]) {
+      await markSent(this.db, id);
+      this.unrecorded.delete(id);
     }
+    let sent = 0;
+    let failuresInARow = 0;
+    // Ids go up within one run, so each message is tried at most once per run, even one whose
+    // short retry delay has already passed.
+    let afterId = 0;
+    for (;;) {
+      const mail = await claimNext(this.db, afterId, this.leaseMs);
+      if (!mail) return sent;
+      afterId = mail.id;
+      if (await this.send(mail)) {
+        sent++;
+        failuresInARow = 0;
+      } else if (++failuresInARow >= FAILURES_PER_RUN) return sent;
+    }
+  }
+
+  /** One attempt at one claimed message; true when the mail server took it. */
+  private async send(mail: DbMailRow): Promise<boolean> {
+    if (mail.attempts > this.maxAttempts) {
+      // Its earlier attempts never came back (the sender died each time): give up now.
+      await markRetry(this.db, mail.id, `${mail.last_error ?? 'no answer'} (gave up after ${mail.attempts - 1} attempts)`, true, 0);
+      return false;
+    }
+    try {
+      await this.transport.sendMail({
+        from: this.options.from,
+        to: mail.to_address,
+        subject: mail.subject,
+        text: mail.text_body,
+        html: mail.html_body ?? undefined,
+      });
+    } catch (err) {
+      const e = err as { responseCode?: number; message?: string };
+      const permanent = typeof e.responseCode === 'number' && e.responseCode >= 500;
+      const last = mail.attempts >= this.maxAttempts;
+      const delay = Math.min(this.baseDelayMs * 2 ** (mail.attempts - 1), this.maxDelayMs);
+      const message = `${e.message ?? String(err)}${last && !permanent ? ` (gave up after ${mail.attempts} attempts)` : ''}`;
+      await markRetry(this.db, mail.id, message, permanent || last, delay);
+      return false;
+    }
+    try {
+      await markSent(this.db, mail.id);
+    } catch (err) {
+      this.unrecorded.add(mail.id);
+      throw err;
+    }
+    return true;
   }
 }
