@@ -3,15 +3,16 @@
 import { spawn } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
-import { LocalCluster, ensureNodeModules, intEnv, localSecret, log, root, run } from './lib/setup.mjs';
+import { LocalCluster, Supervisor, ensureNodeModules, intEnv, localSecret, log, root, run } from './lib/setup.mjs';
 
 const port = intEnv('PORT', 3080);
 const dbPort = intEnv('FURLONG_DB_PORT', 54329);
 
 ensureNodeModules();
 const cluster = new LocalCluster('pg-dev', dbPort);
-cluster.start();
-cluster.ensureDatabase('furlong');
+// PostgreSQL is stopped whenever the web server ends, for whatever reason, and when this script
+// is stopped or fails.
+const supervisor = new Supervisor(() => cluster.stop()).watchThisProcess();
 
 const env = {
   ...process.env,
@@ -21,56 +22,35 @@ const env = {
   SESSION_SECRET: process.env.SESSION_SECRET ?? localSecret('session-secret'),
 };
 
-let server;
-let stopping = false;
-function stop(code) {
-  if (stopping) return;
-  stopping = true;
-  const finish = () => {
-    try {
-      cluster.stop();
-    } finally {
-      process.exit(code);
-    }
-  };
-  if (server && server.exitCode === null) {
-    server.once('exit', finish);
-    server.kill('SIGTERM');
-    setTimeout(() => server.kill('SIGKILL'), 8000).unref();
-  } else finish();
-}
-process.on('SIGINT', () => stop(0));
-process.on('SIGTERM', () => stop(0));
-
 try {
+  cluster.start();
+  cluster.ensureDatabase('furlong');
   run('node', ['--import', 'tsx', 'scripts/prepare-db.ts'], { env });
   log('building the app…');
   run('npx', ['ng', 'build', '--configuration', 'production'], { env });
 } catch (err) {
-  log(err.message);
-  stop(1);
+  supervisor.stop(1, err.message);
 }
 
-if (!stopping) {
-  server = spawn('node', ['--import', 'tsx', 'server/index.ts'], { cwd: root, env, stdio: 'inherit' });
-  server.on('exit', (code) => {
-    if (!stopping) {
-      log(`the web server stopped (exit ${code})`);
-      stop(code ?? 1);
-    }
-  });
-  waitForHealth(`http://127.0.0.1:${port}/api/health`).then(() => {
-    const accounts = JSON.parse(fs.readFileSync(path.join(root, 'seeds', 'demo-accounts.json'), 'utf8'));
-    const lines = accounts.map((a) => `  ${a.role.padEnd(9)} ${a.email.padEnd(34)} ${a.password}`);
-    process.stdout.write(
-      `\nFurlong is running at http://127.0.0.1:${port}\n\nDemo sign-ins (role, e-mail, password):\n${lines.join('\n')}\n\n` +
-        `E-mail is caught by a local fake mail server; each message is saved in .data/mail/.\nPress Ctrl-C to stop the web server and the database.\n\n`,
-    );
-  });
+if (!supervisor.stopping) {
+  const server = spawn('node', ['--import', 'tsx', 'server/index.ts'], { cwd: root, env, stdio: 'inherit' });
+  supervisor.adopt(server, 'the web server');
+  waitForHealth(`http://127.0.0.1:${port}/api/health`).then(
+    () => {
+      if (supervisor.stopping) return;
+      const accounts = JSON.parse(fs.readFileSync(path.join(root, 'seeds', 'demo-accounts.json'), 'utf8'));
+      const lines = accounts.map((a) => `  ${a.role.padEnd(9)} ${a.email.padEnd(34)} ${a.password}`);
+      process.stdout.write(
+        `\nFurlong is running at http://127.0.0.1:${port}\n\nDemo sign-ins (role, e-mail, password):\n${lines.join('\n')}\n\n` +
+          `E-mail is caught by a local fake mail server; each message is saved in .data/mail/.\nPress Ctrl-C to stop the web server and the database.\n\n`,
+      );
+    },
+    (err) => supervisor.stop(1, err.message),
+  );
 }
 
 async function waitForHealth(url) {
-  for (let i = 0; i < 120 && !stopping; i++) {
+  for (let i = 0; i < 120 && !supervisor.stopping; i++) {
     try {
       const res = await fetch(url);
       if (res.ok) return;
