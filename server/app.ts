@@ -33,7 +33,7 @@ export interface CreateAppOptions extends Omit<AppDeps, 'compute'> {
 
 /** Builds the Express app (API + the built Angular app). Never listens: index.ts does. */
 export function createApp(options: CreateAppOptions): Express {
-  const deps: CreateAppOptions & AppDeps = { ...options, compute: options.compute ?? sharedComputePool() };
+  const deps: CreateAppOptions & AppDeps = { ...options, compute: options.compute ?? sharedComputePool({ timeLimitMs: options.config.computeTimeLimitMs }) };
   const { config } = deps;
   const log = deps.log ?? ((err: unknown) => console.error(err));
   const app = express();

@@ -1,3 +1,4 @@
+import { COMPUTE_TIME_LIMIT_MS } from '../shared/limits';
 import { z } from 'zod';
 
 const schema = z
@@ -17,6 +18,8 @@ const schema = z
     MAP_TILE_URL: z.string().optional(),
     MAP_TILE_ATTRIBUTION: z.string().optional(),
     TRUST_PROXY: z.enum(['0', '1']).default('0'),
+    /** How long one heavy computation (plan, boundary check, file import) may run before it is stopped, ms. */
+    COMPUTE_TIME_LIMIT_MS: z.coerce.number().int().min(1000).max(600_000).default(COMPUTE_TIME_LIMIT_MS),
   })
   .superRefine((c, ctx) => {
     if (c.NODE_ENV === 'production' && !c.SESSION_SECRET) {
@@ -41,6 +44,7 @@ export interface Config {
   mapTileUrl: string | null;
   mapTileAttribution: string | null;
   trustProxy: boolean;
+  computeTimeLimitMs: number;
 }
 
 /** Reads and checks the configuration; throws one message listing every problem. */
@@ -67,5 +71,6 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     mapTileUrl: c.MAP_TILE_URL ?? null,
     mapTileAttribution: c.MAP_TILE_ATTRIBUTION ?? null,
     trustProxy: c.TRUST_PROXY === '1',
+    computeTimeLimitMs: c.COMPUTE_TIME_LIMIT_MS,
   };
 }

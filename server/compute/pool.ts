@@ -5,13 +5,14 @@
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
+import { MessageChannel } from 'node:worker_threads';
 import Piscina from 'piscina';
 import { COMPUTE_MEMORY_LIMIT_MB, COMPUTE_TIME_LIMIT_MS } from '../../shared/limits';
 import { AppError } from '../http/errors';
 import type * as Tasks from './tasks';
 
 type TaskName = 'plan' | 'measureBoundary' | 'readBoundaryFile';
-type Input<K extends TaskName> = Parameters<(typeof Tasks)[K]>[0];
+type Input<K extends TaskName> = Omit<Parameters<(typeof Tasks)[K]>[0], 'started'>;
 type Output<K extends TaskName> = Awaited<ReturnType<(typeof Tasks)[K]>> extends Tasks.Envelope<infer T> ? T : never;
 
 export interface ComputeOptions {
@@ -47,7 +48,7 @@ export function createComputePool(options: ComputeOptions = {}): ComputePool {
     filename: workerFile(),
     // The server's own flags (e.g. a TypeScript loader) are not for the workers.
     execArgv: [],
-    minThreads: 0,
+    minThreads: 1,
     maxThreads: threads,
     idleTimeout: 60_000,
     maxQueue: options.maxQueue ?? threads * 4,
@@ -58,17 +59,29 @@ export function createComputePool(options: ComputeOptions = {}): ComputePool {
 
   return {
     async run(name, input) {
+      // The time limit counts from the moment a thread starts the task (the worker says so on a
+      // port of its own); waiting for a thread is bounded separately and answered "busy".
+      const abort = new AbortController();
+      const { port1, port2 } = new MessageChannel();
+      let timer = setTimeout(() => abort.abort('waited'), Math.max(60_000, 3 * timeLimitMs));
+      port1.once('message', () => {
+        clearTimeout(timer);
+        timer = setTimeout(() => abort.abort('ran'), timeLimitMs);
+      });
       let envelope: Tasks.Envelope<unknown>;
       try {
-        envelope = (await pool.run(input, { name, signal: AbortSignal.timeout(timeLimitMs) })) as Tasks.Envelope<unknown>;
+        envelope = (await pool.run({ ...input, started: port2 }, { name, signal: abort.signal, transferList: [port2] })) as Tasks.Envelope<unknown>;
       } catch (err) {
         const e = err as { name?: string; code?: string; message?: string };
-        if (e?.name === 'AbortError') throw tooHeavy(`This took longer than ${Math.round(timeLimitMs / 1000)} s to work out`);
-        if (e?.code === 'ERR_WORKER_OUT_OF_MEMORY') throw tooHeavy(`This needed more than ${memoryLimitMb} MB of memory to work out`);
-        if (/queue is at limit/i.test(e?.message ?? ''))
+        if (e?.name === 'AbortError' && abort.signal.reason === 'ran') throw tooHeavy(`This took longer than ${Math.round(timeLimitMs / 1000)} s to work out`);
+        if (e?.name === 'AbortError' || /queue is at limit/i.test(e?.message ?? ''))
           throw new AppError(503, 'busy', 'Furlong is busy working out other plans and files; try again in a minute.');
+        if (e?.code === 'ERR_WORKER_OUT_OF_MEMORY') throw tooHeavy(`This needed more than ${memoryLimitMb} MB of memory to work out`);
         if (e instanceof RangeError) throw tooHeavy('This was too large to work out');
         throw err;
+      } finally {
+        clearTimeout(timer);
+        port1.close();
       }
       if (!envelope.ok) {
         const f = envelope.error;
@@ -82,8 +95,11 @@ export function createComputePool(options: ComputeOptions = {}): ComputePool {
 }
 
 let shared: ComputePool | null = null;
-/** One pool per process for callers that were not given one (its idle threads do not keep the process alive). */
-export function sharedComputePool(): ComputePool {
-  shared ??= createComputePool();
+/**
+ * One pool per process for callers that were not given one (its idle threads do not keep the
+ * process alive); the options of the first call make it.
+ */
+export function sharedComputePool(options: ComputeOptions = {}): ComputePool {
+  shared ??= createComputePool(options);
   return shared;
 }

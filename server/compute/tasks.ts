@@ -1,5 +1,6 @@
 // The heavy computations, as run inside a compute worker thread (see pool.ts). Each answers an
 // envelope instead of throwing, so an AppError's status, code and fields cross the thread intact.
+import type { MessagePort } from 'node:worker_threads';
 import type { MultiPolygon, Polygon } from 'geojson';
 import { checkBoundary } from '../../shared/geo/boundary-check';
 import { geodesicAreaM2 } from '../../shared/geo/geodesic-area';
@@ -26,7 +27,14 @@ export interface MeasuredBoundary {
   acres: number;
 }
 
-async function wrap<T>(work: () => T | Promise<T>, plainErrorStatus: number, plainErrorCode: string): Promise<Envelope<T>> {
+/** Every task input carries a port on which the worker says when the task starts (see pool.ts). */
+export interface Started {
+  started?: MessagePort;
+}
+
+async function wrap<T>(input: Started, work: () => T | Promise<T>, plainErrorStatus: number, plainErrorCode: string): Promise<Envelope<T>> {
+  input.started?.postMessage('started');
+  input.started?.close();
   try {
     return { ok: true, value: await work() };
   } catch (err) {
@@ -39,13 +47,16 @@ async function wrap<T>(work: () => T | Promise<T>, plainErrorStatus: number, pla
 }
 
 /** A pass plan (the same code the browser's planning worker runs). */
-export function plan(input: PlanInput): Promise<Envelope<PlanResult>> {
-  return wrap(() => planPasses(input), 422, 'bad_plan');
+export function plan(input: PlanInput & Started): Promise<Envelope<PlanResult>> {
+  // eslint-disable-next-line @typescript-eslint/no-unused-vars
+  const { started, ...planInput } = input;
+  return wrap(input, () => planPasses(planInput), 422, 'bad_plan');
 }
 
 /** A field boundary's problems, and its area on the WGS84 ellipsoid when it has none. */
-export function measureBoundary(input: { geometry: unknown; label?: string }): Promise<Envelope<MeasuredBoundary>> {
+export function measureBoundary(input: { geometry: unknown; label?: string } & Started): Promise<Envelope<MeasuredBoundary>> {
   return wrap(
+    input,
     () => {
       const problems = checkBoundary(input.geometry, input.label);
       const areaM2 = problems.length ? 0 : geodesicAreaM2(input.geometry as Polygon | MultiPolygon);
@@ -57,7 +68,7 @@ export function measureBoundary(input: { geometry: unknown; label?: string }): P
 }
 
 /** A boundary file read into candidate fields (bytes arrive as a Uint8Array view). */
-export function readBoundaryFile(input: { name: string; data: Uint8Array; nameAttribute?: string }): Promise<Envelope<ImportPreview>> {
+export function readBoundaryFile(input: { name: string; data: Uint8Array; nameAttribute?: string } & Started): Promise<Envelope<ImportPreview>> {
   const data = Buffer.from(input.data.buffer, input.data.byteOffset, input.data.byteLength);
-  return wrap(() => readFile({ name: input.name, data }, input.nameAttribute), 422, 'bad_file');
+  return wrap(input, () => readFile({ name: input.name, data }, input.nameAttribute), 422, 'bad_file');
 }

@@ -56,7 +56,7 @@ export function planPasses(input: PlanInput): PlanResult {
   const mostPasses = Math.ceil(span / w);
   if (mostPasses > MAX_PASSES)
     throw new Error(
-      `At a working width of ${feet(w)}, ${field} could need up to ${mostPasses.toLocaleString('en-US')} passes; Furlong plans at most ${MAX_PASSES.toLocaleString('en-US')} passes per field (enough for a two-mile field at a 10 ft implement). Check the working width.`,
+      `At a working width of ${feet(w)} (${w} m), ${field} could need up to ${mostPasses.toLocaleString('en-US')} passes; Furlong plans at most ${MAX_PASSES.toLocaleString('en-US')} passes per field (enough for a two-mile field at a 10 ft implement). Check the working width.`,
     );
 
   const fieldM2 = geodesicAreaM2(p.boundary);
