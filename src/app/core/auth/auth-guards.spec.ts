@@ -1,6 +1,6 @@
 import { provideHttpClient } from '@angular/common/http';
 import { provideHttpClientTesting } from '@angular/common/http/testing';
-import { Component } from '@angular/core';
+import { ChangeDetectionStrategy, Component } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
 import { Router, provideRouter } from '@angular/router';
 import type { Role } from '@shared/schemas/auth';
@@ -8,7 +8,7 @@ import { roleGuard, signedIn, signedOut } from './auth-guards';
 import { AuthStore } from './auth-store';
 import { safeNext } from './role-home';
 
-@Component({ template: '' })
+@Component({ template: '', changeDetection: ChangeDetectionStrategy.OnPush })
 class Blank {}
 
 describe('route guards', () => {

@@ -1,4 +1,4 @@
-import { Component, computed, inject } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
 import { MatListModule } from '@angular/material/list';
 import { RouterLink } from '@angular/router';
@@ -15,6 +15,7 @@ export const ROLE_PURPOSE: Record<Role, string> = {
 
 @Component({
   selector: 'app-home',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [MatIconModule, MatListModule, RouterLink],
   templateUrl: './home.html',
   styleUrl: './home.scss',

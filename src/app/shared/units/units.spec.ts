@@ -1,4 +1,4 @@
-import { Component, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, signal } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
 import { provideHttpClient } from '@angular/common/http';
 import type { Me } from '@shared/schemas/auth';
@@ -40,6 +40,7 @@ describe('units', () => {
   });
 
   @Component({
+    changeDetection: ChangeDetectionStrategy.OnPush,
     imports: [AreaPipe, LengthPipe],
     template: `<span class="a">{{ acres() | area }}</span> <span class="l">{{ metres() | length }}</span>`,
   })

@@ -1,6 +1,6 @@
 import { provideHttpClient, withInterceptors } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
-import { Component } from '@angular/core';
+import { ChangeDetectionStrategy, Component } from '@angular/core';
 import { type ComponentFixture, TestBed } from '@angular/core/testing';
 import { Router, provideRouter } from '@angular/router';
 import type { Me, Role } from '@shared/schemas/auth';
@@ -9,7 +9,7 @@ import { errorInterceptor } from '../../http/error.interceptor';
 import { THEME_STORAGE_KEY } from '../theme';
 import { Shell } from './shell';
 
-@Component({ template: '<h1>Page</h1>' })
+@Component({ template: '<h1>Page</h1>', changeDetection: ChangeDetectionStrategy.OnPush })
 class Blank {}
 
 function me(role: Role): Me {

@@ -1,5 +1,5 @@
 import { httpResource } from '@angular/common/http';
-import { Component, computed, effect, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -17,6 +17,7 @@ import { linkProblem } from '../token-problem';
 
 @Component({
   selector: 'app-accept-invitation',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [AuthFrame, MatButtonModule, MatFormFieldModule, MatInputModule, MatProgressBarModule, ReactiveFormsModule, RouterLink],
   templateUrl: './accept-invitation.html',
   styleUrl: './accept-invitation.scss',

@@ -1,5 +1,5 @@
 import { httpResource } from '@angular/common/http';
-import { Component, computed, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -18,6 +18,7 @@ import { linkProblem } from '../token-problem';
 /** The page a password-reset e-mail links to: `/set-password?token=…`. */
 @Component({
   selector: 'app-set-password',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [AuthFrame, MatButtonModule, MatFormFieldModule, MatInputModule, MatProgressBarModule, ReactiveFormsModule, RouterLink],
   templateUrl: './set-password.html',
   styleUrl: './set-password.scss',

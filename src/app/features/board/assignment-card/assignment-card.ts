@@ -1,4 +1,4 @@
-import { Component, computed, input, output } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, input, output } from '@angular/core';
 import { DragDropModule } from '@angular/cdk/drag-drop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
@@ -19,6 +19,7 @@ export interface MoveTarget {
  */
 @Component({
   selector: 'app-assignment-card',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [AreaPipe, DragDropModule, MatButtonModule, MatIconModule, MatMenuModule],
   templateUrl: './assignment-card.html',
   styleUrl: './assignment-card.scss',

@@ -1,4 +1,4 @@
-import { Component, computed, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -53,6 +53,7 @@ export function canWork(machine: Machine, implement: Implement): boolean {
  */
 @Component({
   selector: 'app-assignment-form',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [AreaPipe, MatButtonModule, MatDialogModule, MatFormFieldModule, MatInputModule, MatSelectModule, ReactiveFormsModule],
   templateUrl: './assignment-form.html',
   styleUrl: './assignment-form.scss',

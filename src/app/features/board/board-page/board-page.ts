@@ -1,6 +1,6 @@
 import { type CdkDragDrop, DragDropModule } from '@angular/cdk/drag-drop';
 import { httpResource } from '@angular/common/http';
-import { Component, computed, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { provideNativeDateAdapter } from '@angular/material/core';
 import { type MatDatepickerInputEvent, MatDatepickerModule } from '@angular/material/datepicker';
@@ -47,6 +47,7 @@ interface StaleNotice {
  */
 @Component({
   selector: 'app-board-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [
     RouterLink,
     AssignmentCard,

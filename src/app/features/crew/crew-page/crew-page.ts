@@ -1,5 +1,5 @@
 import { httpResource } from '@angular/common/http';
-import { Component, computed, inject } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { type MatSelect, MatSelectModule } from '@angular/material/select';
@@ -22,6 +22,7 @@ const ROLE_ORDER = { owner: 0, operator: 1, viewer: 2 } as const;
 /** Who may do which operation: one row per person who works in the field, one select per operation. */
 @Component({
   selector: 'app-crew-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [MatButtonModule, MatProgressBarModule, MatSelectModule, MatTableModule],
   templateUrl: './crew-page.html',
   styleUrl: './crew-page.scss',

@@ -1,4 +1,4 @@
-import { Component, DestroyRef, inject, input, output, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, DestroyRef, inject, input, output, signal } from '@angular/core';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatIconModule } from '@angular/material/icon';
 import type { Feature, Geometry, MultiPolygon, Polygon, Position } from 'geojson';
@@ -19,6 +19,7 @@ const EDIT_EVENTS = 'pm:edit pm:markerdragend pm:markerdrag pm:vertexremoved pm:
  */
 @Component({
   selector: 'app-boundary-editor',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [FieldMap, MatButtonToggleModule, MatIconModule],
   templateUrl: './boundary-editor.html',
   styleUrl: './boundary-editor.scss',

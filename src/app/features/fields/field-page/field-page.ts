@@ -1,5 +1,5 @@
 import { httpResource } from '@angular/common/http';
-import { Component, computed, effect, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
@@ -53,6 +53,7 @@ interface HazardEdit {
  */
 @Component({
   selector: 'app-field-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [
     AreaPipe,
     BoundaryEditor,

@@ -1,5 +1,5 @@
 import { httpResource } from '@angular/common/http';
-import { Component, computed, effect, inject, signal, viewChild } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, signal, viewChild } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -26,6 +26,7 @@ import { seasonChoices } from '../seasons';
 /** Every field of the farm: a sortable, filterable table and a map; the owner's way in to add fields. */
 @Component({
   selector: 'app-fields-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [
     AreaPipe,
     FieldMap,

@@ -1,4 +1,4 @@
-import { Component, input, output } from '@angular/core';
+import { ChangeDetectionStrategy, Component, input, output } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { HAZARD_LABELS, type HazardKind } from '@shared/schemas/fields';
@@ -11,6 +11,7 @@ const SHAPES: Record<string, string> = { Point: 'point', MultiPoint: 'points', L
 /** A field's hazards with their clearances; the owner's edit, remove and confirm buttons. */
 @Component({
   selector: 'app-hazard-list',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [HazardSymbol, LengthPipe, MatButtonModule, MatIconModule],
   templateUrl: './hazard-list.html',
   styleUrl: './hazard-list.scss',

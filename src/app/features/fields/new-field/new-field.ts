@@ -1,5 +1,5 @@
 import { httpResource } from '@angular/common/http';
-import { Component, computed, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -20,6 +20,7 @@ import { AuthStore } from '../../../core/auth/auth-store';
 /** The owner draws a new field (parts and holes), sees its acres live, names it and saves it. */
 @Component({
   selector: 'app-new-field',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [AreaPipe, BoundaryEditor, MatButtonModule, MatFormFieldModule, MatInputModule, ReactiveFormsModule, RouterLink],
   templateUrl: './new-field.html',
   styleUrl: './new-field.scss',

@@ -1,5 +1,5 @@
 import { HttpEventType, type HttpEvent } from '@angular/common/http';
-import { Component, computed, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -31,6 +31,7 @@ const isPolygonal = (g: unknown): g is MapField['boundary'] =>
  */
 @Component({
   selector: 'app-upload-boundaries',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [
     AreaPipe,
     FieldMap,

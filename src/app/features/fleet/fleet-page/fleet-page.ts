@@ -1,5 +1,5 @@
 import { httpResource } from '@angular/common/http';
-import { Component, computed, inject } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
@@ -21,6 +21,7 @@ const byName = <T extends { name: string }>(list: readonly T[]): T[] => [...list
 /** The farm's machines and implements: everyone reads them, the owner keeps them. */
 @Component({
   selector: 'app-fleet-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [ImplementsTable, MachinesTable, MatButtonModule, MatIconModule, MatProgressBarModule],
   templateUrl: './fleet-page.html',
   styleUrl: './fleet-page.scss',

@@ -1,4 +1,4 @@
-import { Component, input } from '@angular/core';
+import { ChangeDetectionStrategy, Component, input } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
 import { DEFER_TO_LAW } from '../cautions';
 
@@ -11,6 +11,7 @@ export interface CautionLine {
 /** Road and power-line cautions for implements, in plain words, deferring to local law. */
 @Component({
   selector: 'app-implement-cautions',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [MatIconModule],
   templateUrl: './implement-cautions.html',
   styleUrl: './implement-cautions.scss',

@@ -1,4 +1,4 @@
-import { Component, computed, inject } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { type AbstractControl, FormControl, FormGroup, ReactiveFormsModule, type ValidationErrors, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -63,6 +63,7 @@ const SERVER_FIELDS: Record<string, string> = {
  */
 @Component({
   selector: 'app-implement-form',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [
     ImplementCautions,
     MatButtonModule,

@@ -1,4 +1,4 @@
-import { Component, computed, inject, input, output } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, output } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatTableModule } from '@angular/material/table';
@@ -23,6 +23,7 @@ interface ImplementRow {
 /** Implements with their widths in the farm's units, what they do and what may pull them. */
 @Component({
   selector: 'app-implements-table',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [ImplementCautions, MatButtonModule, MatIconModule, MatTableModule],
   templateUrl: './implements-table.html',
   styleUrl: './implements-table.scss',

@@ -1,5 +1,5 @@
 import { DecimalPipe } from '@angular/common';
-import { Component, computed, input, output } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, input, output } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatTableModule } from '@angular/material/table';
@@ -8,6 +8,7 @@ import { MACHINE_KIND_LABELS, type Machine } from '@shared/schemas/fleet';
 /** Tractors and self-propelled machines with their meters and when each falls due for service. */
 @Component({
   selector: 'app-machines-table',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [DecimalPipe, MatButtonModule, MatIconModule, MatTableModule],
   templateUrl: './machines-table.html',
   styleUrl: './machines-table.scss',

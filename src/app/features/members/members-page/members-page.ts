@@ -1,5 +1,5 @@
 import { httpResource } from '@angular/common/http';
-import { Component, computed, inject } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
@@ -20,6 +20,7 @@ import { ROLE_OPTIONS } from '../role-labels';
 /** The owner's page for the farm: its settings, and who belongs to it (invite, change role, remove; history stays). */
 @Component({
   selector: 'app-members-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [FarmSettingsForm, InviteMember, MatButtonModule, MatIconModule, MatProgressBarModule, MatSelectModule, MatTableModule],
   templateUrl: './members-page.html',
   styleUrl: './members-page.scss',

@@ -1,5 +1,5 @@
 import { httpResource } from '@angular/common/http';
-import { Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatExpansionModule } from '@angular/material/expansion';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -58,6 +58,7 @@ const positiveId = (v: string | undefined): number | null => {
  */
 @Component({
   selector: 'app-pass-plan-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [
     FieldMap,
     HazardLegend,

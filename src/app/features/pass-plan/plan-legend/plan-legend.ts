@@ -1,4 +1,4 @@
-import { Component, ViewEncapsulation, input } from '@angular/core';
+import { ChangeDetectionStrategy, Component, ViewEncapsulation, input } from '@angular/core';
 import type { CoverageRule } from '@shared/operations';
 
 /**
@@ -7,6 +7,7 @@ import type { CoverageRule } from '@shared/operations';
  */
 @Component({
   selector: 'app-plan-legend',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './plan-legend.html',
   styleUrl: './plan-legend.scss',
   encapsulation: ViewEncapsulation.None,

@@ -1,4 +1,4 @@
-import { Component, computed, input } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
 import type { PlanResult } from '@shared/plan/types';
 import type { UnitSystem } from '@shared/schemas/auth';
@@ -10,6 +10,7 @@ import { summaryRows } from '../plan-summary-rows';
  */
 @Component({
   selector: 'app-plan-summary',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [MatIconModule],
   templateUrl: './plan-summary.html',
   styleUrl: './plan-summary.scss',

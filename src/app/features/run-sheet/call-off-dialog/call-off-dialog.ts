@@ -1,4 +1,4 @@
-import { Component, inject } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
@@ -17,6 +17,7 @@ const REASON_LABELS: Record<Reason, string> = { weather: 'Weather', breakdown: '
 /** Call a job off: why (weather, breakdown, other) and a note, needed for "other". */
 @Component({
   selector: 'app-call-off-dialog',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [MatButtonModule, MatDialogModule, MatFormFieldModule, MatInputModule, MatRadioModule, ReactiveFormsModule],
   templateUrl: './call-off-dialog.html',
   styleUrl: '../job-dialog.scss',

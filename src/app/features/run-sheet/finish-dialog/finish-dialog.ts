@@ -1,4 +1,4 @@
-import { Component, computed, inject } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
@@ -18,6 +18,7 @@ const round2 = (n: number) => Math.round(n * 100) / 100;
 /** Finish a job: area done (acres, or hectares on a metric farm) and the engine-hour meter at the end. */
 @Component({
   selector: 'app-finish-dialog',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [MatButtonModule, MatDialogModule, MatFormFieldModule, MatInputModule, ReactiveFormsModule],
   templateUrl: './finish-dialog.html',
   styleUrl: '../job-dialog.scss',

@@ -1,4 +1,4 @@
-import { Component, computed, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -31,6 +31,7 @@ const DEFAULT_CLEARANCE_M = 15;
  */
 @Component({
   selector: 'app-problem-dialog',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [
     FieldMap,
     MatButtonModule,

@@ -1,4 +1,4 @@
-import { Component, type Type, computed, inject, input, output, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, type Type, computed, inject, input, output, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
@@ -41,6 +41,7 @@ const EVENT_WORDS: Record<AssignmentEvent['type'], string> = {
  */
 @Component({
   selector: 'app-run-sheet-job',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [AreaPipe, FieldMap, HazardSymbol, LengthPipe, MatButtonModule, MatIconModule],
   templateUrl: './run-sheet-job.html',
   styleUrl: './run-sheet-job.scss',

@@ -1,5 +1,5 @@
 import { httpResource } from '@angular/common/http';
-import { Component, computed, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { provideNativeDateAdapter } from '@angular/material/core';
 import { type MatDatepickerInputEvent, MatDatepickerModule } from '@angular/material/datepicker';
@@ -40,6 +40,7 @@ export function firstOpen(items: readonly RunSheetItem[]): number | null {
  */
 @Component({
   selector: 'app-run-sheet-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [
     MatButtonModule,
     MatDatepickerModule,

@@ -1,4 +1,4 @@
-import { Component, computed, input } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import type { ChartConfiguration } from 'chart.js';
 import { BaseChartDirective } from 'ng2-charts';
 import { CHART } from '../chart-colours';
@@ -7,6 +7,7 @@ import type { Table } from '../season-shaping';
 /** Area finished per operation in two seasons, bars side by side (rows of the compare table). */
 @Component({
   selector: 'app-compare-chart',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [BaseChartDirective],
   template: `<div class="frame">
     <canvas baseChart type="bar" [data]="data()" [options]="options" role="img" [attr.aria-label]="description()"></canvas>

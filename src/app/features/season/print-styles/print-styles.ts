@@ -1,4 +1,4 @@
-import { Component, ViewEncapsulation } from '@angular/core';
+import { ChangeDetectionStrategy, Component, ViewEncapsulation } from '@angular/core';
 
 /**
  * The Season screen's print stylesheet. It must reach the app shell (navigation, top bar, the
@@ -7,6 +7,7 @@ import { Component, ViewEncapsulation } from '@angular/core';
  */
 @Component({
   selector: 'app-print-styles',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   template: '',
   styleUrl: './print-styles.scss',
   encapsulation: ViewEncapsulation.None,

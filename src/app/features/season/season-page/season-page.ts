@@ -1,5 +1,5 @@
 import { httpResource } from '@angular/common/http';
-import { Component, computed, inject, input } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
@@ -36,6 +36,7 @@ import { WeekChart } from '../week-chart/week-chart';
  */
 @Component({
   selector: 'app-season-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [CompareChart, MatButtonModule, MatFormFieldModule, MatIconModule, MatProgressBarModule, MatSelectModule, PrintStyles, SeasonTable, WeekChart],
   templateUrl: './season-page.html',
   styleUrl: './season-page.scss',

@@ -1,4 +1,4 @@
-import { Component, computed, effect, input, viewChild } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, input, viewChild } from '@angular/core';
 import { MatSort, MatSortModule } from '@angular/material/sort';
 import { MatTableDataSource, MatTableModule } from '@angular/material/table';
 import { formatCell, type Row, type Table } from '../season-shaping';
@@ -6,6 +6,7 @@ import { formatCell, type Row, type Table } from '../season-shaping';
 /** One table of the season report: sortable by any column, with its totals row at the foot. */
 @Component({
   selector: 'app-season-table',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [MatSortModule, MatTableModule],
   templateUrl: './season-table.html',
   styleUrl: './season-table.scss',

@@ -1,4 +1,4 @@
-import { Component, computed, input } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import type { ChartConfiguration } from 'chart.js';
 import { BaseChartDirective } from 'ng2-charts';
 import { CHART } from '../chart-colours';
@@ -9,6 +9,7 @@ const oneDecimal = new Intl.NumberFormat('en-US', { maximumFractionDigits: 1 });
 /** One operation over the weeks of the season: bars for each week's work, a line for the season to date. */
 @Component({
   selector: 'app-week-chart',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [BaseChartDirective],
   templateUrl: './week-chart.html',
   styleUrl: './week-chart.scss',

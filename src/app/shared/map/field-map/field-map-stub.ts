@@ -1,4 +1,4 @@
-import { Component, input, output } from '@angular/core';
+import { ChangeDetectionStrategy, Component, input, output } from '@angular/core';
 import type * as L from 'leaflet';
 import type { HazardFeature, MapField, MapLayer } from '../map-types';
 
@@ -8,6 +8,7 @@ import type { HazardFeature, MapField, MapLayer } from '../map-types';
  */
 @Component({
   selector: 'app-field-map',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   template: `<ul class="map-stub" [attr.aria-label]="label()">
     @for (f of fields(); track f.id) {
       <li>{{ f.name }}</li>

@@ -1,4 +1,5 @@
 import {
+  ChangeDetectionStrategy,
   Component,
   DestroyRef,
   type ElementRef,
@@ -40,6 +41,7 @@ interface Band {
  */
 @Component({
   selector: 'app-field-map',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './field-map.html',
   styleUrl: './field-map.scss',
   // Leaflet builds its own DOM; these styles must reach it.

@@ -1,4 +1,4 @@
-import { Component, computed, input } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import { HAZARD_KINDS, HAZARD_LABELS, type HazardKind } from '@shared/schemas/fields';
 import { HazardSymbol } from '../hazard-symbol/hazard-symbol';
 
@@ -8,6 +8,7 @@ import { HazardSymbol } from '../hazard-symbol/hazard-symbol';
  */
 @Component({
   selector: 'app-hazard-legend',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [HazardSymbol],
   templateUrl: './hazard-legend.html',
   styleUrl: './hazard-legend.scss',

@@ -1,9 +1,10 @@
-import { Component, ElementRef, ViewEncapsulation, effect, inject, input } from '@angular/core';
+import { ChangeDetectionStrategy, Component, ElementRef, ViewEncapsulation, effect, inject, input } from '@angular/core';
 import { hazardSvg } from '../hazard-symbols';
 
 /** One hazard kind's symbol, as on the map, for lists and legends. Decorative: pair it with text. */
 @Component({
   selector: 'app-hazard-symbol',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   template: '',
   styleUrl: './hazard-symbol.scss',
   encapsulation: ViewEncapsulation.None,

@@ -1,4 +1,4 @@
-import { Component, inject } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule } from '@angular/material/dialog';
 
@@ -12,6 +12,7 @@ export interface ConfirmDialogData {
 /** A yes/no question; closes with `true` when confirmed. Open it through MatDialog. */
 @Component({
   selector: 'app-confirm-dialog',
+  changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [MatButtonModule, MatDialogModule],
   templateUrl: './confirm-dialog.html',
   styleUrl: './confirm-dialog.scss',
