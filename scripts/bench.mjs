@@ -6,6 +6,7 @@ import { ensureNodeModules, log, root } from './lib/setup.mjs';
 const benches = [
   ['pass plan', ['--import', 'tsx', 'scripts/bench-plan.ts']],
   ['server', ['--import', 'tsx', 'scripts/bench-server.ts']],
+  ['limits', ['--import', 'tsx', 'scripts/bench-limits.ts']],
 ];
 const only = process.argv.slice(2);
 
