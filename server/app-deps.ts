@@ -1,6 +1,7 @@
 import type { ComputePool } from './compute/pool';
 import type { Config } from './config';
 import type { Db } from './db/knex';
+import type { Logger } from './logging/logger';
 
 /** What the app needs from outside; tests build the same thing against the test database. */
 export interface AppDeps {
@@ -10,5 +11,11 @@ export interface AppDeps {
   compute: ComputePool;
   /** Wakes the mail worker after a commit that queued e-mail. */
   nudgeMail: () => void;
+  /**
+   * Also told of every failure the error handler logs, with the same object (tests capture it).
+   * Failures go to the request's logger (`logger`) either way.
+   */
   log?: (err: unknown) => void;
+  /** Where request lines and failures are logged; defaults to `createLogger(config)`. */
+  logger?: Logger;
 }

@@ -1,6 +1,9 @@
 import { COMPUTE_TIME_LIMIT_MS } from '../shared/limits';
 import { z } from 'zod';
 
+export const LOG_LEVELS = ['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent'] as const;
+export type LogLevel = (typeof LOG_LEVELS)[number];
+
 const schema = z
   .object({
     NODE_ENV: z.enum(['development', 'test', 'production']).default('development'),
@@ -20,6 +23,8 @@ const schema = z
     TRUST_PROXY: z.enum(['0', '1']).default('0'),
     /** How long one heavy computation (plan, boundary check, file import) may run before it is stopped, ms. */
     COMPUTE_TIME_LIMIT_MS: z.coerce.number().int().min(1000).max(600_000).default(COMPUTE_TIME_LIMIT_MS),
+    /** How much the server logs (pino's levels). Default: info; in test: silent. */
+    LOG_LEVEL: z.enum(LOG_LEVELS, { message: `LOG_LEVEL must be one of ${LOG_LEVELS.join(', ')}` }).optional(),
   })
   .superRefine((c, ctx) => {
     if (c.NODE_ENV === 'production' && !c.SESSION_SECRET) {
@@ -45,6 +50,7 @@ export interface Config {
   mapTileAttribution: string | null;
   trustProxy: boolean;
   computeTimeLimitMs: number;
+  logLevel: LogLevel;
 }
 
 /** Reads and checks the configuration; throws one message listing every problem. */
@@ -72,5 +78,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     mapTileAttribution: c.MAP_TILE_ATTRIBUTION ?? null,
     trustProxy: c.TRUST_PROXY === '1',
     computeTimeLimitMs: c.COMPUTE_TIME_LIMIT_MS,
+    // Tests stay quiet unless someone asks for logs (LOG_LEVEL=debug while chasing a failure).
+    logLevel: c.LOG_LEVEL ?? (c.NODE_ENV === 'test' ? 'silent' : 'info'),
   };
 }

@@ -6,9 +6,16 @@ import { FakeMailServer } from './mail/fake-smtp';
 import { OutboxWorker } from './mail/outbox-worker';
 import { createTransport } from './mail/transport';
 import { createSessionStore } from './http/session';
+import { createLogger, type Logger } from './logging/logger';
+
+/** Set once the configuration is read; before that, failures go to stderr as plain text. */
+let logger: Logger | null = null;
 
 async function main(): Promise<void> {
   const config = loadConfig();
+  const log = createLogger(config);
+  logger = log;
+  log.info({ env: config.env, logLevel: config.logLevel }, 'starting');
   const db = createDb(config.databaseUrl);
   const sessions = createSessionStore(config.databaseUrl);
 
@@ -27,11 +34,16 @@ async function main(): Promise<void> {
       }
     }, 500).unref();
   }
-  const worker = new OutboxWorker(db, createTransport(config.smtpUrl, mailPort), { from: config.mailFrom });
+  const worker = new OutboxWorker(db, createTransport(config.smtpUrl, mailPort), {
+    from: config.mailFrom,
+    logger: log.child({ worker: 'mail' }),
+  });
   worker.start();
 
-  const app = createApp({ config, db, sessions, nudgeMail: () => worker.nudge() });
+  const app = createApp({ config, db, sessions, nudgeMail: () => worker.nudge(), logger: log });
   const server = app.listen(config.port, config.host, () => {
+    // Plain text on stdout in every environment and at every LOG_LEVEL: `npm start`, the tests
+    // and the benchmarks wait for "listening on".
     console.log(`Furlong API and app listening on http://${config.host}:${config.port}`);
   });
 
@@ -41,6 +53,7 @@ async function main(): Promise<void> {
   const shutdown = async () => {
     if (stopping) return;
     stopping = true;
+    log.info('shutting down: finishing the requests under way');
     // Let requests under way finish (idle keep-alive sockets close now), then close the rest.
     const closed = new Promise((r) => server.close(r));
     server.closeIdleConnections();
@@ -57,10 +70,11 @@ async function main(): Promise<void> {
       try {
         await close();
       } catch (err) {
-        console.error(`furlong: closing ${what} failed: ${err instanceof Error ? err.message : String(err)}`);
+        log.error({ error: err instanceof Error ? err.message : String(err) }, `closing ${what} failed`);
         code = 1;
       }
     }
+    log.info({ exitCode: code }, 'stopped');
     process.exit(code);
   };
   process.on('SIGTERM', () => void shutdown());
@@ -80,15 +94,25 @@ function describe(err: unknown): string {
 // then end (the supervisor, `npm start` or a service manager, restarts or reports it). Requests'
 // own failures never get here: Express 5 passes a rejected handler to the error handler.
 process.on('uncaughtException', (err, origin) => {
-  console.error(`furlong: the server stops after an unexpected error (${origin}):\n${describe(err)}`);
+  fatal(`the server stops after an unexpected error (${origin})`, describe(err));
   process.exit(1);
 });
 process.on('unhandledRejection', (reason) => {
-  console.error(`furlong: the server stops after an unexpected error (unhandled rejection):\n${describe(reason)}`);
+  fatal('the server stops after an unexpected error (unhandled rejection)', describe(reason));
   process.exit(1);
 });
 
 main().catch((err: unknown) => {
-  console.error(`furlong: the server could not start: ${err instanceof Error ? err.message : String(err)}`);
+  fatal('the server could not start', err instanceof Error ? err.message : String(err));
   process.exit(1);
 });
+
+/**
+ * The last words of the process. Through the logger when it is there and not silenced; otherwise
+ * on stderr as before, so a crash is never lost (tests run with LOG_LEVEL silent). pino writes
+ * what it holds before the process exits.
+ */
+function fatal(what: string, detail: string): void {
+  if (logger?.isLevelEnabled('fatal')) logger.fatal({ detail }, what);
+  else console.error(`furlong: ${what}:\n${detail}`);
+}

@@ -119,10 +119,19 @@ export interface RequestFailureLog {
   stack?: string;
 }
 
-/** Turns every failure into `{ error: { code, message, fields? } }`. */
-export function errorHandler(log: (err: unknown) => void): ErrorRequestHandler {
+/**
+ * Turns every failure into `{ error: { code, message, fields?, requestId? } }`. A failure worth
+ * logging goes to the request's own logger (`req.log`, so the line carries the request id) and to
+ * `log` when given (tests capture it); with neither, to stderr.
+ */
+export function errorHandler(log?: (err: unknown) => void): ErrorRequestHandler {
   return (err: unknown, req, res, next) => {
     if (res.headersSent) return next(err);
+    const report = (failure: RequestFailureLog) => {
+      if (req.log) req.log.error(failure, 'request failed');
+      if (log) log(failure);
+      else if (!req.log) console.error(failure);
+    };
     let status = 500;
     let body: ApiErrorBody = {
       error: { code: 'internal', message: 'Something went wrong on the server; nothing was changed. Try again.' },
@@ -144,7 +153,7 @@ export function errorHandler(log: (err: unknown) => void): ErrorRequestHandler {
         status = 503;
         body = { error: { code: 'db_unavailable', message: DB_UNAVAILABLE_MESSAGE } };
         res.set('Retry-After', '30');
-        log({ code: e.code ?? e.name ?? 'db_unavailable', message: logMessage(err), route } satisfies RequestFailureLog);
+        report({ code: e.code ?? e.name ?? 'db_unavailable', message: logMessage(err), route });
       } else if (isSqlState(e?.code) && DATA_ERRORS[e.code]) {
         status = 400;
         body = { error: { code: 'invalid_input', message: `${DATA_ERRORS[e.code]}; nothing was changed.` } };
@@ -153,14 +162,16 @@ export function errorHandler(log: (err: unknown) => void): ErrorRequestHandler {
         body = { error: { code: 'bad_request', message: e.message ?? 'The request was not understood' } };
       } else {
         const fromDb = isSqlState(e?.code) || SQL_START.test(e?.message ?? '') || (typeof err === 'object' && err !== null && 'sql' in err);
-        log({
+        report({
           code: e?.code ?? 'internal',
           message: logMessage(err),
           route,
           ...(!fromDb && err instanceof Error && err.stack ? { stack: err.stack.split('\n').slice(1, 8).join('\n') } : {}),
-        } satisfies RequestFailureLog);
+        });
       }
     }
+    // Set by the request logger (server/logging/request-log.ts); an app without it has no id to give.
+    if (typeof req.id === 'string') body.error.requestId = req.id;
     res.status(status).json(body);
   };
 }

@@ -35,7 +35,13 @@ export class Routes {
 
   private add(method: Method, path: string, access: Access, handlers: RequestHandler[]): this {
     this.registry.push({ method, path: this.prefix + path, access });
-    this.router[method](path, requireAccess(access), ...handlers);
+    // The request log names the route's pattern (/api/fields/:id), never the URL it was called with.
+    const pattern = this.prefix + path;
+    const named: RequestHandler = (_req, res, next) => {
+      res.locals.routePattern = pattern;
+      next();
+    };
+    this.router[method](path, named, requireAccess(access), ...handlers);
     return this;
   }
 

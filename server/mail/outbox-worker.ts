@@ -1,6 +1,8 @@
 import type { Transporter } from 'nodemailer';
 import type { Db } from '../db/knex';
 import type { DbMailRow } from '../db/rows';
+import { logMessage } from '../http/errors';
+import { silentLogger, type Logger } from '../logging/logger';
 import { claimNext, markRetry, markSent } from './outbox.repository';
 
 export interface OutboxOptions {
@@ -17,7 +19,22 @@ export interface OutboxOptions {
   leaseMs?: number;
   /** Attempts before a message that keeps failing is marked failed with its last error. */
   maxAttempts?: number;
+  /** Where each attempt's outcome is logged (mail id and kind, never the address or body); default silent. */
+  logger?: Logger;
 }
+
+/** One send attempt as the log shows it. */
+export interface MailAttemptLog {
+  mailId: number;
+  kind: string;
+  attempt: number;
+  outcome: 'sent' | 'retry' | 'failed';
+  error?: string;
+}
+
+/** Mail servers quote the address they refused ("550 <x@y>: no such user"); the log keeps neither. */
+const ADDRESS = /[^\s<>"'(),;:]+@[^\s<>"'(),;:]+/g;
+const withoutAddresses = (message: string): string => message.replace(ADDRESS, '[address]').slice(0, 300);
 
 /** After this many failures in a row, one run stops and leaves the rest for the next poll. */
 const FAILURES_PER_RUN = 20;
@@ -44,6 +61,8 @@ export class OutboxWorker {
   private readonly maxAttempts: number;
   /** Messages the mail server took whose `sent` mark did not reach the database yet. */
   private readonly unrecorded = new Set<number>();
+  private readonly log: Logger;
+  private announced = false;
 
   constructor(
     private readonly db: Db,
@@ -55,13 +74,18 @@ export class OutboxWorker {
     this.maxDelayMs = options.maxDelayMs ?? 15 * 60_000;
     this.leaseMs = options.leaseMs ?? 5 * 60_000;
     this.maxAttempts = options.maxAttempts ?? 10;
+    this.log = options.logger ?? silentLogger();
   }
 
   start(): void {
     if (this.timer) return;
+    // nudge() restarts the timer through here: say it once.
+    if (!this.announced) this.log.info({ pollMs: this.pollMs, maxAttempts: this.maxAttempts }, 'mail worker started');
+    this.announced = true;
     const tick = () => {
       void this.drain()
-        .catch(() => undefined)
+        // logMessage: a failed statement's message holds its SQL and values; the log gets neither.
+        .catch((err: unknown) => this.log.warn({ error: withoutAddresses(logMessage(err)) }, 'mail run stopped early'))
         .finally(() => {
           if (this.timer) this.timer = setTimeout(tick, this.pollMs);
         });
@@ -73,6 +97,8 @@ export class OutboxWorker {
     if (this.timer) clearTimeout(this.timer);
     this.timer = null;
     await this.running?.catch(() => undefined);
+    if (this.announced) this.log.info('mail worker stopped');
+    this.announced = false;
   }
 
   /** Ask for a send soon (after a commit that queued mail). */
@@ -115,6 +141,7 @@ export class OutboxWorker {
   private async send(mail: DbMailRow): Promise<boolean> {
     if (mail.attempts > this.maxAttempts) {
       // Its earlier attempts never came back (the sender died each time): give up now.
+      this.attempt(mail, 'failed', `no answer after ${mail.attempts - 1} attempts`);
       await markRetry(this.db, mail.id, `${mail.last_error ?? 'no answer'} (gave up after ${mail.attempts - 1} attempts)`, true, 0);
       return false;
     }
@@ -132,9 +159,11 @@ export class OutboxWorker {
       const last = mail.attempts >= this.maxAttempts;
       const delay = Math.min(this.baseDelayMs * 2 ** (mail.attempts - 1), this.maxDelayMs);
       const message = `${e.message ?? String(err)}${last && !permanent ? ` (gave up after ${mail.attempts} attempts)` : ''}`;
+      this.attempt(mail, permanent || last ? 'failed' : 'retry', message);
       await markRetry(this.db, mail.id, message, permanent || last, delay);
       return false;
     }
+    this.attempt(mail, 'sent');
     try {
       await markSent(this.db, mail.id);
     } catch (err) {
@@ -142,5 +171,18 @@ export class OutboxWorker {
       throw err;
     }
     return true;
+  }
+
+  /** Logs one attempt's outcome: the mail's id and kind, never its address, subject or body. */
+  private attempt(mail: DbMailRow, outcome: MailAttemptLog['outcome'], error?: string): void {
+    const line: MailAttemptLog = {
+      mailId: mail.id,
+      kind: mail.kind,
+      attempt: mail.attempts,
+      outcome,
+      ...(error ? { error: withoutAddresses(error) } : {}),
+    };
+    const level = outcome === 'sent' ? 'info' : outcome === 'retry' ? 'warn' : 'error';
+    this.log[level](line, `mail ${outcome}`);
   }
 }

@@ -7,6 +7,8 @@ export interface ApiErrorBody {
     message: string;
     /** Per-field messages for forms, keyed by the input's path (`email`, `boundary.coordinates.0`). */
     fields?: Record<string, string>;
+    /** The request's id (its `X-Request-Id`), to find its log lines. */
+    requestId?: string;
   };
 }
 

@@ -49,7 +49,7 @@ describe('sign-in and sessions', () => {
     await c.prime();
     const res = await c.post('/api/auth/login', { email: farm.viewer.email, password: 'wrong-password' });
     expect(res.status).toBe(401);
-    expect(res.body.error).toEqual({ code: 'bad_credentials', message: expect.stringMatching(/do not match/) });
+    expect(res.body.error).toEqual({ code: 'bad_credentials', message: expect.stringMatching(/do not match/), requestId: res.headers['x-request-id'] });
     expect((await c.get('/api/auth/me')).status).toBe(401);
   });
 

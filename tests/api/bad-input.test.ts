@@ -24,7 +24,7 @@ describe('bad input gets the error shape and stores nothing', () => {
     const before = await memberCount();
     const res = await owner.agent.post('/api/members/invite').set('X-XSRF-TOKEN', owner.xsrf).set('Content-Type', 'application/json').send('{"email": "a@b.c",');
     expect(res.status).toBe(400);
-    expect(res.body).toEqual({ error: { code: 'bad_json', message: 'The request body is not valid JSON' } });
+    expect(res.body).toEqual({ error: { code: 'bad_json', message: 'The request body is not valid JSON', requestId: res.headers['x-request-id'] } });
     expect(await memberCount()).toBe(before);
   });
 
@@ -62,7 +62,7 @@ describe('bad input gets the error shape and stores nothing', () => {
   it('when an API path does not exist, then a JSON 404', async () => {
     const res = await owner.get('/api/no-such-thing');
     expect(res.status).toBe(404);
-    expect(res.body.error).toEqual({ code: 'not_found', message: 'There is no API at GET /no-such-thing' });
+    expect(res.body.error).toEqual({ code: 'not_found', message: 'There is no API at GET /no-such-thing', requestId: res.headers['x-request-id'] });
   });
 
   it('when the password is too short, then 400 says how long it must be', async () => {

@@ -587,7 +587,7 @@ describe('season report', () => {
     for (const path of [`/api/season/${YEAR}/summary`, `/api/season/${YEAR}/export/fields.csv`, '/api/season']) {
       const res = await operator.get(path);
       expect(res.status).toBe(403);
-      expect(res.body.error).toEqual({ code: 'forbidden', message: expect.any(String) });
+      expect(res.body.error).toEqual({ code: 'forbidden', message: expect.any(String), requestId: res.headers['x-request-id'] });
     }
   });
 

@@ -1,9 +1,11 @@
 import type { Express } from 'express';
+import type { DestinationStream } from 'pino';
 import request from 'supertest';
 import { createApp } from '../../server/app';
 import { loadConfig, type Config } from '../../server/config';
 import { createDb, type Db } from '../../server/db/knex';
 import { createSessionStore, type SessionStore } from '../../server/http/session';
+import { createLogger } from '../../server/logging/logger';
 import { FakeMailServer } from '../../server/mail/fake-smtp';
 import { OutboxWorker } from '../../server/mail/outbox-worker';
 import { createTransport } from '../../server/mail/transport';
@@ -25,8 +27,14 @@ export interface TestApp {
 
 export const TEST_SECRET = 'test-secret-test-secret-test-secret-0123456789';
 
-/** The real app on the test database, with an in-process fake mail server on a free port. */
-export async function startTestApp(overrides: Partial<NodeJS.ProcessEnv> = {}): Promise<TestApp> {
+/**
+ * The real app on the test database, with an in-process fake mail server on a free port.
+ * `logTo` takes the app's JSON log lines (at LOG_LEVEL, silent unless set in `overrides`).
+ */
+export async function startTestApp(
+  overrides: Partial<NodeJS.ProcessEnv> = {},
+  { logTo }: { logTo?: DestinationStream } = {},
+): Promise<TestApp> {
   const mail = new FakeMailServer();
   const port = await mail.start(0);
   const config = loadConfig({
@@ -40,7 +48,8 @@ export async function startTestApp(overrides: Partial<NodeJS.ProcessEnv> = {}): 
   const sessions = createSessionStore(config.databaseUrl, false);
   const worker = new OutboxWorker(db, createTransport(null, port), { from: config.mailFrom, baseDelayMs: 50, maxDelayMs: 200 });
   const logged: unknown[] = [];
-  const app = createApp({ config, db, sessions, nudgeMail: () => undefined, log: (err) => logged.push(err) });
+  const logger = logTo ? createLogger(config, logTo) : undefined;
+  const app = createApp({ config, db, sessions, nudgeMail: () => undefined, log: (err) => logged.push(err), logger });
   return {
     app,
     db,
@@ -103,7 +112,10 @@ export class Client {
     return this.agent.get(path);
   }
   post(path: string, body?: object | string) {
-    return this.agent.post(path).set('X-XSRF-TOKEN', this.xsrf).send(body as object);
+    return this.agent
+      .post(path)
+      .set('X-XSRF-TOKEN', this.xsrf)
+      .send(body as object);
   }
   patch(path: string, body?: object) {
     return this.agent.patch(path).set('X-XSRF-TOKEN', this.xsrf).send(body);
