@@ -13,6 +13,8 @@ import type { SessionStore } from './http/session';
 import { AppError, apiNotFound, errorHandler } from './http/errors';
 import { Routes, type RouteEntry } from './http/routes';
 import { nonceOf, securityHeaders } from './http/security';
+import { createLogger } from './logging/logger';
+import { requestLogger } from './logging/request-log';
 import { farmRoutes } from './farm/farm.routes';
 import { cropPlanRoutes, fieldRoutes } from './fields/fields.routes';
 import { memberRoutes } from './members/members.routes';
@@ -22,6 +24,7 @@ import { crewRoutes } from './crew/crew.routes';
 import { fleetRoutes } from './fleet/fleet.routes';
 import { jobLogRoutes, runSheetRoutes } from './run-sheet/run-sheet.routes';
 import { seasonRoutes } from './season/season.routes';
+import { openapiRoutes } from './openapi/openapi.routes';
 
 export interface CreateAppOptions extends Omit<AppDeps, 'compute'> {
   /** Defaults to the process's shared compute pool. */
@@ -33,13 +36,17 @@ export interface CreateAppOptions extends Omit<AppDeps, 'compute'> {
 
 /** Builds the Express app (API + the built Angular app). Never listens: index.ts does. */
 export function createApp(options: CreateAppOptions): Express {
-  const deps: CreateAppOptions & AppDeps = { ...options, compute: options.compute ?? sharedComputePool({ timeLimitMs: options.config.computeTimeLimitMs }) };
+  const deps: CreateAppOptions & AppDeps = {
+    ...options,
+    compute: options.compute ?? sharedComputePool({ timeLimitMs: options.config.computeTimeLimitMs }),
+  };
   const { config } = deps;
-  const log = deps.log ?? ((err: unknown) => console.error(err));
   const app = express();
   const routes: RouteEntry[] = [];
   app.locals.routes = routes;
   app.disable('x-powered-by');
+  // First, so every answer (also a refused or failed one) has its X-Request-Id and its log line.
+  app.use(requestLogger(deps.logger ?? createLogger(config)));
   if (config.trustProxy) app.set('trust proxy', 1);
   app.use(securityHeaders(config.secureCookies, config.mapTileUrl));
 
@@ -80,11 +87,12 @@ export function createApp(options: CreateAppOptions): Express {
   mount('/assignments', (r) => jobLogRoutes(r, deps));
   mount('/run-sheet', (r) => runSheetRoutes(r, deps));
   mount('/season', (r) => seasonRoutes(r, deps));
+  mount('', (r) => openapiRoutes(r, deps));
   api.use(apiNotFound);
   app.use('/api', api);
 
   serveApp(app, deps.staticDir ?? path.resolve(__dirname, '..', 'dist', 'furlong', 'browser'));
-  app.use(errorHandler(log));
+  app.use(errorHandler(deps.log));
   return app;
 }
 
@@ -95,7 +103,10 @@ function serveApp(app: Express, dir: string): void {
   app.use(express.static(dir, { index: false, maxAge: '1h', setHeaders: noCacheForIndex }));
   app.get('/{*splat}', (_req, res) => {
     if (!index) throw new AppError(503, 'not_built', 'The app is not built yet: run npm start');
-    res.set('Cache-Control', 'no-cache').type('html').send(index.replaceAll('CSP_NONCE', nonceOf(res)));
+    res
+      .set('Cache-Control', 'no-cache')
+      .type('html')
+      .send(index.replaceAll('CSP_NONCE', nonceOf(res)));
   });
 }
 

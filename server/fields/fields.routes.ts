@@ -1,8 +1,20 @@
 import type { Request } from 'express';
 import multer from 'multer';
-import { z } from 'zod';
-import { dbId, idParam } from '../../shared/schemas/common';
-import { cropPlanBody, fieldCreateBody, fieldPatchBody, hazardBody, hazardPatchBody, importQuery, importSelection, season } from '../../shared/schemas/fields';
+import { idParam } from '../../shared/schemas/common';
+import {
+  cropCopyBody,
+  cropParams,
+  cropPlanBody,
+  fieldCreateBody,
+  fieldPatchBody,
+  hazardBody,
+  hazardParams,
+  hazardPatchBody,
+  importQuery,
+  importSelection,
+  seasonParam,
+  seasonQuery,
+} from '../../shared/schemas/fields';
 import { MAX_UPLOAD_BYTES } from '../../shared/limits';
 import type { AppDeps } from '../app-deps';
 import { heavyWork } from '../http/heavy';
@@ -15,11 +27,8 @@ import { previewImport, saveImport } from './import/import.service';
 
 const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: MAX_UPLOAD_BYTES, files: 1, fields: 10, fieldSize: 256 * 1024 } });
 
-const seasonQuery = z.object({ season: season.optional() });
 /** The season asked for (`?season=`), else the farm's current one (the year at the farm). */
 const seasonOf = (req: Request): number => query(req, seasonQuery).season ?? fields.currentSeason(principal(req).timeZone);
-const hazardParams = idParam.extend({ hazardId: dbId });
-const cropParams = idParam.extend({ season });
 
 export function fieldRoutes(r: Routes, deps: AppDeps): void {
   // Boundary checks and file imports run in a compute worker.
@@ -112,13 +121,12 @@ export function fieldRoutes(r: Routes, deps: AppDeps): void {
 }
 
 export function cropPlanRoutes(r: Routes, deps: AppDeps): void {
-  const seasonParam = z.object({ season });
   r.get('/:season', 'member', async (req, res) => {
     res.json(await fields.listCropPlans(deps, principal(req).farmId, params(req, seasonParam).season));
   });
   r.post('/:season/copy', ['owner'], async (req, res) => {
     const to = params(req, seasonParam).season;
-    const { from } = body(req, z.object({ from: season }));
+    const { from } = body(req, cropCopyBody);
     res.json(await fields.copyCropPlans(deps, principal(req).farmId, from, to));
   });
 }

@@ -1,7 +1,7 @@
 // Fields of a farm: boundaries (checked and measured on the ellipsoid), hazards and crop plans.
 // Every query is scoped by the farm of the signed-in member.
 import type { Feature, FeatureCollection, Geometry, MultiPolygon, Polygon } from 'geojson';
-import type { FieldSummary } from '../../shared/schemas/fields';
+import type { FieldDetail, FieldHazardProperties, FieldSummary } from '../../shared/schemas/fields';
 import { acresToHa } from '../../shared/units';
 import type { AppDeps } from '../app-deps';
 import type { Tx } from '../db/knex';
@@ -41,7 +41,7 @@ export async function listFields(deps: AppDeps, farmId: number, season: number):
   }));
 }
 
-export async function getField(deps: AppDeps, farmId: number, id: number, season: number) {
+export async function getField(deps: AppDeps, farmId: number, id: number, season: number): Promise<FieldDetail> {
   const f = await repo.getField(deps.db, farmId, id);
   if (!f) throw notFound('That field');
   const hazards = await repo.hazardsOfField(deps.db, farmId, id);
@@ -54,7 +54,7 @@ export async function getField(deps: AppDeps, farmId: number, id: number, season
     areaM2: f.area_m2,
     notes: f.notes,
     boundary: f.boundary,
-    hazards: { type: 'FeatureCollection', features: hazards.map(hazardFeature) } as FeatureCollection,
+    hazards: { type: 'FeatureCollection', features: hazards.map(hazardFeature) } as FeatureCollection<Geometry, FieldHazardProperties>,
     crop: crops.find((c) => c.season === season)?.crop ?? null,
     crops,
     updatedAt: f.updated_at.toISOString(),

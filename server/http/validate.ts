@@ -62,7 +62,37 @@ function parse<S extends z.ZodType>(schema: S, value: unknown, where: string): z
   throw new AppError(400, 'invalid_input', `Check the ${where}: ${at}${first.message}`, fields);
 }
 
+/** Where a validator reads its input from. */
+export type Slot = 'body' | 'params' | 'query';
+/** Told which schema object a validator used on which route (`GET /api/fields/:id`). */
+export type ValidatorRecorder = (route: string, slot: Slot, schema: z.ZodType) => void;
+
+let recorder: ValidatorRecorder | null = null;
+
+/**
+ * Tests turn this on to check that the OpenAPI contract names the very schemas the handlers use
+ * (tests/api/openapi.test.ts). Off, it costs one null check per validation.
+ */
+export function recordValidators(r: ValidatorRecorder | null): void {
+  recorder = r;
+}
+
+function note(req: Request, slot: Slot, schema: z.ZodType): void {
+  // req.route is the matched route; baseUrl is where its router is mounted (/api/fields).
+  const route = req.route as { path?: unknown } | undefined;
+  recorder?.(`${req.method} ${req.baseUrl}${typeof route?.path === 'string' ? route.path : '(no route)'}`, slot, schema);
+}
+
 /** Parses `req.body` with a zod schema, or answers 400 with per-field messages. */
-export const body = <S extends z.ZodType>(req: Request, schema: S): z.infer<S> => parse(schema, req.body ?? {}, 'form');
-export const params = <S extends z.ZodType>(req: Request, schema: S): z.infer<S> => parse(schema, req.params, 'address');
-export const query = <S extends z.ZodType>(req: Request, schema: S): z.infer<S> => parse(schema, req.query, 'query');
+export const body = <S extends z.ZodType>(req: Request, schema: S): z.infer<S> => {
+  if (recorder) note(req, 'body', schema);
+  return parse(schema, req.body ?? {}, 'form');
+};
+export const params = <S extends z.ZodType>(req: Request, schema: S): z.infer<S> => {
+  if (recorder) note(req, 'params', schema);
+  return parse(schema, req.params, 'address');
+};
+export const query = <S extends z.ZodType>(req: Request, schema: S): z.infer<S> => {
+  if (recorder) note(req, 'query', schema);
+  return parse(schema, req.query, 'query');
+};

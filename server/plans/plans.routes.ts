@@ -1,6 +1,4 @@
-import { z } from 'zod';
-import { dbId } from '../../shared/schemas/common';
-import { planParams, planPreviewBody, planSettings } from '../../shared/schemas/plans';
+import { planListQuery, planParams, planPreviewBody, planSettings } from '../../shared/schemas/plans';
 import type { AppDeps } from '../app-deps';
 import { heavyWork } from '../http/heavy';
 import type { Routes } from '../http/routes';
@@ -19,7 +17,7 @@ export function planRoutes(r: Routes, deps: AppDeps): void {
   });
 
   r.get('/', 'member', async (req, res) => {
-    const q = query(req, z.object({ fieldId: dbId.optional() }));
+    const q = query(req, planListQuery);
     res.json(await plans.listPlans(deps, principal(req).farmId, q.fieldId));
   });
 

@@ -1,5 +1,4 @@
-import { isSeasonTable, SEASON_TABLES, seasonParams } from '../../shared/schemas/season';
-import { z } from 'zod';
+import { isSeasonTable, SEASON_TABLES, seasonExportParams, seasonParams } from '../../shared/schemas/season';
 import type { AppDeps } from '../app-deps';
 import { AppError } from '../http/errors';
 import type { Routes } from '../http/routes';
@@ -10,7 +9,6 @@ import { seasonIndex, seasonSummary } from './season.service';
 
 /** Who reads the season: the owner (every report) and viewers (partners, landlord, accountant). */
 const READERS = ['owner', 'viewer'] as const;
-const exportParams = seasonParams.extend({ table: z.string() });
 
 export function seasonRoutes(r: Routes, deps: AppDeps): void {
   r.get('/', READERS, async (req, res) => {
@@ -23,7 +21,7 @@ export function seasonRoutes(r: Routes, deps: AppDeps): void {
   });
 
   r.get('/:year/export/:table.csv', READERS, async (req, res) => {
-    const { year, table } = params(req, exportParams);
+    const { year, table } = params(req, seasonExportParams);
     if (!isSeasonTable(table)) throw new AppError(404, 'not_found', `There is no season table called “${table}”; choose one of: ${SEASON_TABLES.join(', ')}`);
     const me = principal(req);
     const csv = seasonCsv(await seasonSummary(deps, me.farmId, year), table, me.units);

@@ -1,5 +1,6 @@
+import type { FeatureCollection, Geometry, MultiPolygon, Polygon } from 'geojson';
 import { z } from 'zod';
-import { textWithoutNul } from './common';
+import { dbId, idParam, textWithoutNul } from './common';
 
 export const HAZARD_KINDS = ['bin', 'rock', 'power', 'draw', 'waterway', 'fence', 'neighbour', 'other'] as const;
 export type HazardKind = (typeof HAZARD_KINDS)[number];
@@ -45,6 +46,15 @@ export const hazardPatchBody = hazardBody.partial().extend({ status: z.enum(['co
 
 export const season = z.coerce.number().int().min(1990, 'Season is a year such as 2026').max(2100, 'Season is a year such as 2026');
 
+/** `?season=` on the field routes: the crop year to show; the farm's current year when left out. */
+export const seasonQuery = z.object({ season: season.optional() });
+export const hazardParams = idParam.extend({ hazardId: dbId });
+export const cropParams = idParam.extend({ season });
+/** `/api/crop-plans/:season` */
+export const seasonParam = z.object({ season });
+/** Copy every crop plan of the season `from` into the season in the address. */
+export const cropCopyBody = z.object({ from: season });
+
 export const cropPlanBody = z.object({
   crop: z.string().trim().min(1, 'Choose a crop').max(60),
   varietyNote: z.string().trim().max(200).optional().nullable(),
@@ -84,3 +94,46 @@ export interface ImportPreview {
   nameAttribute: string | null;
   features: ImportedFeature[];
 }
+
+/** One crop plan of a field: the crop of a season. */
+export const cropPlan = z.object({ season: z.number().int(), crop: z.string(), varietyNote: z.string().nullable() });
+export type CropPlan = z.infer<typeof cropPlan>;
+
+/** What the API keeps on each hazard feature of a field. */
+export const fieldHazardProperties = z.object({
+  id: z.number().int(),
+  fieldId: z.number().int(),
+  kind: z.string(),
+  /** Clearance distance around the hazard, metres. */
+  clearanceM: z.number(),
+  note: z.string().nullable(),
+  status: z.string(),
+});
+export type FieldHazardProperties = z.infer<typeof fieldHazardProperties>;
+
+/** `GET /api/fields/:id` (also the answer to creating or changing a field). */
+export const fieldDetail = z.object({
+  id: z.number().int(),
+  name: z.string(),
+  acres: z.number(),
+  hectares: z.number(),
+  areaM2: z.number(),
+  notes: z.string().nullable(),
+  boundary: z.object({ type: z.enum(['Polygon', 'MultiPolygon']), coordinates: z.unknown() }),
+  hazards: z.object({
+    type: z.literal('FeatureCollection'),
+    features: z.array(z.object({ type: z.literal('Feature'), id: z.number().int(), geometry, properties: fieldHazardProperties })),
+  }),
+  crop: z.string().nullable(),
+  crops: z.array(cropPlan),
+  updatedAt: z.string(),
+});
+/** The schema says the JSON; the GeoJSON parts are typed with the geojson types the map code uses. */
+export type FieldDetail = Omit<z.infer<typeof fieldDetail>, 'boundary' | 'hazards'> & {
+  boundary: Polygon | MultiPolygon;
+  hazards: FeatureCollection<Geometry, FieldHazardProperties>;
+};
+
+/** `POST /api/fields/import` when fields were saved. */
+export const importSaved = z.object({ saved: z.array(z.object({ id: z.number().int(), name: z.string(), acres: z.number() })) });
+export type ImportSaved = z.infer<typeof importSaved>;

@@ -28,6 +28,9 @@ export const planPreviewBody = planSettings.extend({
   fieldName: z.string().max(120).optional(),
 });
 
+/** `GET /api/plans?fieldId=`: the saved plans of one field, or of every field. */
+export const planListQuery = z.object({ fieldId: dbId.optional() });
+
 export const planParams = z.object({
   fieldId: dbId,
   operation: z.enum(OPERATIONS, { message: `Operation must be one of: ${OPERATIONS.join(', ')}` }),

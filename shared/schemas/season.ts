@@ -11,6 +11,8 @@ export const seasonYear = z
   .pipe(z.number().min(1990, 'The season is a year from 1990 to 2100').max(2100, 'The season is a year from 1990 to 2100'));
 
 export const seasonParams = z.object({ year: seasonYear });
+/** `/:year/export/:table.csv`: the table name is checked by the route, so an unknown one gets a 404 that lists the tables. */
+export const seasonExportParams = seasonParams.extend({ table: z.string() });
 
 /** The tables of the season report that download as CSV. */
 export const SEASON_TABLES = ['operations', 'fields', 'people', 'machines', 'weekly'] as const;

@@ -2,9 +2,10 @@
 import { board } from './board';
 import { fields } from './fields';
 import { foundation } from './foundation';
+import { openapi } from './openapi';
 import { plans } from './plans';
 import { season } from './season';
 import type { Case } from './types';
 
-export const MATRIX: Record<string, Case> = { ...foundation, ...fields, ...plans, ...board, ...season };
+export const MATRIX: Record<string, Case> = { ...foundation, ...fields, ...plans, ...board, ...season, ...openapi };
 export type { Who } from './types';

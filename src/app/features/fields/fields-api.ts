@@ -1,10 +1,10 @@
 import { HttpClient, type HttpEvent } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import type { UnitSystem } from '@shared/schemas/auth';
-import type { ImportPreview } from '@shared/schemas/fields';
+import type { CropPlan, FieldDetail, ImportPreview, ImportSaved } from '@shared/schemas/fields';
 import type { Geometry, MultiPolygon, Polygon } from 'geojson';
 import { type Observable } from 'rxjs';
-import type { HazardCollection, HazardFeature } from '../../shared/map/map-types';
+import type { HazardFeature } from '../../shared/map/map-types';
 import type { FarmSettings } from '@shared/schemas/farm';
 
 export const FIELDS_URL = '/api/fields';
@@ -14,37 +14,12 @@ export const EXPORT_URL = `${FIELDS_URL}/export.geojson`;
 
 export type Boundary = Polygon | MultiPolygon;
 
-export interface CropPlan {
-  season: number;
-  crop: string;
-  varietyNote: string | null;
-}
-
-/** `GET /api/fields/:id` */
-export interface FieldDetail {
-  id: number;
-  name: string;
-  acres: number;
-  hectares: number;
-  areaM2: number;
-  notes: string | null;
-  boundary: Boundary;
-  hazards: HazardCollection;
-  crop: string | null;
-  crops: CropPlan[];
-  updatedAt: string;
-}
-
 export interface HazardInput {
   kind: string;
   geometry: Geometry;
   /** Metres (0–500). */
   clearanceM: number;
   note?: string | null;
-}
-
-export interface ImportSaved {
-  saved: { id: number; name: string; acres: number }[];
 }
 
 /** Writes for the Fields screens (owner only on the server). Reads use httpResource on the URLs above. */

@@ -8,7 +8,8 @@ import { MatSelectModule } from '@angular/material/select';
 import { CROPS } from '@shared/schemas/fields';
 import type { Observable } from 'rxjs';
 import { messageOf } from '../../../core/http/api-error';
-import { type CropPlan, FieldsApi } from '../fields-api';
+import type { CropPlan } from '@shared/schemas/fields';
+import { FieldsApi } from '../fields-api';
 import { seasonChoices } from '../seasons';
 import { AuthStore } from '../../../core/auth/auth-store';
 

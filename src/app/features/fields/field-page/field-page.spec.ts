@@ -8,7 +8,7 @@ import { AuthStore } from '../../../core/auth/auth-store';
 import { errorInterceptor } from '../../../core/http/error.interceptor';
 import { FieldMap } from '../../../shared/map/field-map/field-map';
 import { FieldMapStub } from '../../../shared/map/field-map/field-map-stub';
-import type { FieldDetail } from '../fields-api';
+import type { FieldDetail } from '@shared/schemas/fields';
 import { FieldPage } from './field-page';
 
 const me = (role: Me['role']): Me => ({ user: { id: 1, email: 'a@example.test', name: 'A' }, farm: { id: 1, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' }, membershipId: 1, role });

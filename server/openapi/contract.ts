@@ -1,0 +1,394 @@
+// What each API route takes and gives, for the OpenAPI document (server/openapi/document.ts).
+// The schemas are the very objects the handlers validate with; tests/api/openapi.test.ts records
+// which schema each validator used and fails when this file names another one, or none.
+// Who may call a route is not repeated here: the document takes it from the route registry.
+import { z } from 'zod';
+import { forgotBody, inviteBody, loginBody, roleChangeBody, setPasswordBody, tokenParam } from '../../shared/schemas/auth';
+import {
+  assignmentCreateBody,
+  assignmentPatchBody,
+  boardDateParam,
+  boardOrderBody,
+  boardQuery,
+  eventBody,
+  logPatchBody,
+  problemBody,
+  publishBody,
+  runSheetQuery,
+} from '../../shared/schemas/board';
+import { idParam } from '../../shared/schemas/common';
+import { farmPatchBody } from '../../shared/schemas/farm';
+import {
+  cropCopyBody,
+  cropParams,
+  cropPlan,
+  cropPlanBody,
+  fieldCreateBody,
+  fieldDetail,
+  fieldPatchBody,
+  hazardBody,
+  hazardParams,
+  hazardPatchBody,
+  importQuery,
+  importSaved,
+  importSelection,
+  seasonParam,
+  seasonQuery,
+} from '../../shared/schemas/fields';
+import { implementBody, implementPatchBody, machineBody, machinePatchBody, skillBody, skillParams } from '../../shared/schemas/fleet';
+import { planListQuery, planParams, planPreviewBody, planSettings } from '../../shared/schemas/plans';
+import { seasonExportParams, seasonIndex, seasonParams, seasonSummary } from '../../shared/schemas/season';
+
+export interface ResponseContract {
+  status: number;
+  description: string;
+  /** The zod schema of the answer, where one exists. */
+  schema?: z.ZodType;
+  /** Else the name of its TypeScript type in shared/schemas, for the reader. */
+  type?: string;
+  /** Defaults to application/json; none for 204. */
+  contentType?: string;
+}
+
+export interface RouteContract {
+  /** One plain sentence. */
+  summary: string;
+  params?: z.ZodType;
+  query?: z.ZodType;
+  body?: z.ZodType;
+  /** A multipart/form-data upload: the file's form field, and other form fields (JSON text) with their schemas. */
+  upload?: { file: string; fields: Record<string, z.ZodType> };
+  /**
+   * The board version a write was made on may also come as an `If-Match` header (and, for a
+   * DELETE, as `?version=`): read by server/board/board-version.ts, not by a zod validator.
+   */
+  boardVersion?: 'header' | 'header-or-query';
+  /** The success answers, the usual one first. */
+  responses: [ResponseContract, ...ResponseContract[]];
+}
+
+/** The key of a route, as in the matrix files: `POST /api/plans/preview` (no trailing slash). */
+export const routeKey = (method: string, path: string): string => `${method.toUpperCase()} ${path.replace(/(.)\/$/, '$1')}`;
+
+const json = (description: string, s: z.ZodType | string, status = 200): ResponseContract =>
+  typeof s === 'string' ? { status, description, type: s } : { status, description, schema: s };
+const noContent = (description: string): ResponseContract => ({ status: 204, description });
+
+const fieldCrop = cropPlan.extend({ fieldId: z.number().int() });
+
+export const CONTRACT: Record<string, RouteContract> = {
+  // Foundation
+  'GET /api/health': {
+    summary: 'Says whether the server and its database are answering.',
+    responses: [
+      json('The server and database are up.', z.object({ status: z.literal('ok'), db: z.literal('ok') })),
+      json('The database is down.', z.object({ status: z.literal('degraded'), db: z.literal('down') }), 503),
+    ],
+  },
+  'GET /api/config': {
+    summary: 'Gives the settings the app needs before sign-in, such as the optional map tile layer.',
+    responses: [json('The settings.', z.object({ mapTileUrl: z.string().nullable(), mapTileAttribution: z.string().nullable() }))],
+  },
+  'GET /api/auth/me': {
+    summary: 'Tells who is signed in, on which farm and with which role.',
+    responses: [json('The signed-in person.', 'Me')],
+  },
+  'POST /api/auth/login': {
+    summary: 'Signs in with e-mail and password and starts a session.',
+    body: loginBody,
+    responses: [json('Signed in; a new session cookie and XSRF token are set.', 'Me')],
+  },
+  'POST /api/auth/logout': { summary: 'Signs out and ends the session.', responses: [noContent('Signed out.')] },
+  'POST /api/auth/forgot': {
+    summary: 'Sends a link to set a new password, if the address belongs to an account.',
+    body: forgotBody,
+    responses: [json('Always the same answer, whether or not the address has an account.', z.object({ message: z.string() }), 202)],
+  },
+  'GET /api/auth/token/:token': {
+    summary: 'Tells what an invitation or password link is for, while it is still valid.',
+    params: tokenParam,
+    responses: [json('The link is valid.', 'TokenInfo')],
+  },
+  'POST /api/auth/set-password': {
+    summary: 'Sets a password with an invitation or password link and signs in.',
+    body: setPasswordBody,
+    responses: [json('Password set and signed in.', 'Me')],
+  },
+  'GET /api/members': { summary: 'Lists the people of the farm with their roles.', responses: [json('The members.', 'Member[]')] },
+  'POST /api/members/invite': {
+    summary: 'Invites a person to the farm by e-mail with a role.',
+    body: inviteBody,
+    responses: [json('The invited member.', 'Member', 201)],
+  },
+  'PATCH /api/members/:id': {
+    summary: "Changes a member's role.",
+    params: idParam,
+    body: roleChangeBody,
+    responses: [json('The member with the new role.', 'Member')],
+  },
+  'DELETE /api/members/:id': { summary: 'Removes a person from the farm.', params: idParam, responses: [noContent('Removed.')] },
+  'GET /api/farm': {
+    summary: "Gives the farm's settings: name, units, a day's hour limit and time zone.",
+    responses: [json('The settings.', 'FarmSettings')],
+  },
+  'PATCH /api/farm': {
+    summary: "Changes the farm's settings.",
+    body: farmPatchBody,
+    responses: [json('The settings after the change.', 'FarmSettings')],
+  },
+
+  // Fields
+  'GET /api/fields': {
+    summary: 'Lists the fields of the farm with their acres and crop of the season.',
+    query: seasonQuery,
+    responses: [json('The fields.', 'FieldSummary[]')],
+  },
+  'GET /api/fields/export.geojson': {
+    summary: 'Downloads every field and hazard as one GeoJSON file.',
+    query: seasonQuery,
+    responses: [
+      {
+        status: 200,
+        description: 'A GeoJSON FeatureCollection (RFC 7946).',
+        type: 'FeatureCollection',
+        contentType: 'application/geo+json',
+      },
+    ],
+  },
+  'POST /api/fields': {
+    summary: 'Adds a field from its drawn or pasted boundary.',
+    body: fieldCreateBody,
+    query: seasonQuery,
+    responses: [json('The new field.', fieldDetail, 201)],
+  },
+  'POST /api/fields/import': {
+    summary: 'Reads a boundary file (GeoJSON, KML, KMZ or zipped shapefile) and previews or saves its fields.',
+    query: importQuery,
+    upload: { file: 'file', fields: { selection: importSelection } },
+    responses: [
+      json('The fields saved.', importSaved, 201),
+      json('With dryRun=true: what the file holds, nothing saved.', 'ImportPreview'),
+    ],
+  },
+  'GET /api/fields/:id': {
+    summary: 'Gives one field with its boundary, hazards and crop plans.',
+    params: idParam,
+    query: seasonQuery,
+    responses: [json('The field.', fieldDetail)],
+  },
+  'PATCH /api/fields/:id': {
+    summary: "Changes a field's name, boundary or notes.",
+    params: idParam,
+    body: fieldPatchBody,
+    query: seasonQuery,
+    responses: [json('The field after the change.', fieldDetail)],
+  },
+  'DELETE /api/fields/:id': {
+    summary: 'Deletes a field with its hazards and crop plans.',
+    params: idParam,
+    responses: [noContent('Deleted.')],
+  },
+  'POST /api/fields/:id/hazards': {
+    summary: 'Marks a hazard on a field.',
+    params: idParam,
+    body: hazardBody,
+    responses: [json('The hazard as a GeoJSON Feature.', 'Feature', 201)],
+  },
+  'PATCH /api/fields/:id/hazards/:hazardId': {
+    summary: 'Changes or confirms a hazard.',
+    params: hazardParams,
+    body: hazardPatchBody,
+    responses: [json('The hazard as a GeoJSON Feature.', 'Feature')],
+  },
+  'DELETE /api/fields/:id/hazards/:hazardId': {
+    summary: 'Removes a hazard from a field.',
+    params: hazardParams,
+    responses: [noContent('Removed.')],
+  },
+  'PUT /api/fields/:id/crops/:season': {
+    summary: "Sets a field's crop for a season.",
+    params: cropParams,
+    body: cropPlanBody,
+    responses: [json('The crop plan.', fieldCrop)],
+  },
+  'DELETE /api/fields/:id/crops/:season': {
+    summary: "Clears a field's crop for a season.",
+    params: cropParams,
+    responses: [noContent('Cleared.')],
+  },
+  'GET /api/crop-plans/:season': {
+    summary: 'Lists the crop plans of every field for a season.',
+    params: seasonParam,
+    responses: [json('The crop plans.', z.array(fieldCrop))],
+  },
+  'POST /api/crop-plans/:season/copy': {
+    summary: "Copies another season's crop plans into this season.",
+    params: seasonParam,
+    body: cropCopyBody,
+    responses: [json('How many plans were copied.', z.object({ copied: z.number().int() }))],
+  },
+
+  // Pass plans
+  'POST /api/plans/preview': {
+    summary: 'Computes a pass plan for a field or a boundary without saving it.',
+    body: planPreviewBody,
+    responses: [json('The plan.', 'PlanResult')],
+  },
+  'GET /api/plans': {
+    summary: 'Lists the saved pass plans, of one field or of all.',
+    query: planListQuery,
+    responses: [json('The saved plans.', 'SavedPlan[]')],
+  },
+  'GET /api/plans/:fieldId/:operation': {
+    summary: "Gives a field's saved plan for an operation, with its passes.",
+    params: planParams,
+    responses: [json('The plan.', 'SavedPlan & { result: PlanResult }')],
+  },
+  'GET /api/plans/:fieldId/:operation/passes.geojson': {
+    summary: "Downloads a saved plan's passes as a GeoJSON file.",
+    params: planParams,
+    responses: [
+      {
+        status: 200,
+        description: 'A GeoJSON FeatureCollection of the passes.',
+        type: 'FeatureCollection',
+        contentType: 'application/geo+json',
+      },
+    ],
+  },
+  'PUT /api/plans/:fieldId/:operation': {
+    summary: "Saves a field's plan for an operation with these settings.",
+    params: planParams,
+    body: planSettings,
+    responses: [json('The saved plan.', 'SavedPlan & { result: PlanResult }')],
+  },
+  'DELETE /api/plans/:fieldId/:operation': {
+    summary: "Deletes a field's saved plan for an operation.",
+    params: planParams,
+    responses: [noContent('Deleted.')],
+  },
+
+  // Fleet and crew
+  'GET /api/fleet/machines': { summary: 'Lists the machines of the farm.', responses: [json('The machines.', 'Machine[]')] },
+  'POST /api/fleet/machines': { summary: 'Adds a machine.', body: machineBody, responses: [json('The new machine.', 'Machine', 201)] },
+  'GET /api/fleet/machines/:id': { summary: 'Gives one machine.', params: idParam, responses: [json('The machine.', 'Machine')] },
+  'PATCH /api/fleet/machines/:id': {
+    summary: 'Changes a machine.',
+    params: idParam,
+    body: machinePatchBody,
+    responses: [json('The machine after the change.', 'Machine')],
+  },
+  'DELETE /api/fleet/machines/:id': { summary: 'Removes a machine.', params: idParam, responses: [noContent('Removed.')] },
+  'GET /api/fleet/implements': { summary: 'Lists the implements of the farm.', responses: [json('The implements.', 'Implement[]')] },
+  'POST /api/fleet/implements': {
+    summary: 'Adds an implement.',
+    body: implementBody,
+    responses: [json('The new implement.', 'Implement', 201)],
+  },
+  'GET /api/fleet/implements/:id': { summary: 'Gives one implement.', params: idParam, responses: [json('The implement.', 'Implement')] },
+  'PATCH /api/fleet/implements/:id': {
+    summary: 'Changes an implement.',
+    params: idParam,
+    body: implementPatchBody,
+    responses: [json('The implement after the change.', 'Implement')],
+  },
+  'DELETE /api/fleet/implements/:id': { summary: 'Removes an implement.', params: idParam, responses: [noContent('Removed.')] },
+  'GET /api/crew': { summary: 'Lists the crew with their skills per operation.', responses: [json('The crew.', 'CrewMember[]')] },
+  'PUT /api/crew/:membershipId/skills/:operation': {
+    summary: "Sets a crew member's skill level for an operation.",
+    params: skillParams,
+    body: skillBody,
+    responses: [json('The crew member after the change.', 'CrewMember')],
+  },
+
+  // Work board, run sheet and job log
+  'GET /api/board': {
+    summary: 'Gives the work board of a day: who runs what, where, in which order.',
+    query: boardQuery,
+    responses: [json('The board (gzip-compressed when asked, with an ETag).', 'Board')],
+  },
+  'POST /api/board/:date/order': {
+    summary: "Reorders the jobs in the board's columns for a day.",
+    params: boardDateParam,
+    body: boardOrderBody,
+    boardVersion: 'header',
+    responses: [json('The board after the change.', 'Board')],
+  },
+  'POST /api/board/:date/publish': {
+    summary: "Publishes a day's board and queues each operator's work order by e-mail.",
+    params: boardDateParam,
+    body: publishBody,
+    boardVersion: 'header',
+    responses: [json('What was published and sent.', 'PublishResult')],
+  },
+  'POST /api/assignments': {
+    summary: 'Puts a job on the board.',
+    body: assignmentCreateBody,
+    boardVersion: 'header',
+    responses: [json('The board after the change.', 'Board', 201)],
+  },
+  'PATCH /api/assignments/:id': {
+    summary: 'Changes a job on the board.',
+    params: idParam,
+    body: assignmentPatchBody,
+    boardVersion: 'header',
+    responses: [json('The board after the change.', 'Board')],
+  },
+  'DELETE /api/assignments/:id': {
+    summary: 'Takes a job off the board.',
+    params: idParam,
+    boardVersion: 'header-or-query',
+    responses: [json('The board after the change.', 'Board')],
+  },
+  'POST /api/assignments/:id/events': {
+    summary: 'Logs a job starting, pausing, resuming, finishing or being called off.',
+    params: idParam,
+    body: eventBody,
+    responses: [json('The job as it shows on the run sheet.', 'RunSheetItem', 201)],
+  },
+  'POST /api/assignments/:id/problems': {
+    summary: 'Reports a problem on a job: a breakdown, a hazard or something else.',
+    params: idParam,
+    body: problemBody,
+    responses: [json('The job as it shows on the run sheet.', 'RunSheetItem', 201)],
+  },
+  'PATCH /api/assignments/:id/log': {
+    summary: "Corrects a job's logged acres, hours or engine-hour meter readings.",
+    params: idParam,
+    body: logPatchBody,
+    responses: [json('The job after the correction.', 'RunSheetItem')],
+  },
+  'DELETE /api/assignments/:id/log': {
+    summary: "Deletes a job's log, back to planned.",
+    params: idParam,
+    responses: [json('The job after the change.', 'RunSheetItem')],
+  },
+  'GET /api/run-sheet': {
+    summary: "Gives a person's jobs for a day, in order.",
+    query: runSheetQuery,
+    responses: [json('The run sheet.', 'RunSheet')],
+  },
+
+  // Season
+  'GET /api/season': { summary: 'Lists the seasons with crop plans or logged work.', responses: [json('The seasons.', seasonIndex)] },
+  'GET /api/season/:year/summary': {
+    summary: "Gives a season's report: acres, hours and rates by operation, field, person and machine.",
+    params: seasonParams,
+    responses: [json('The report.', seasonSummary)],
+  },
+  'GET /api/season/:year/export/:table.csv': {
+    summary: "Downloads one table of a season's report as CSV.",
+    params: seasonExportParams,
+    responses: [{ status: 200, description: 'The table as CSV.', contentType: 'text/csv' }],
+  },
+
+  // This document
+  'GET /api/openapi.json': {
+    summary: 'Gives this API description as an OpenAPI 3.1 document.',
+    responses: [{ status: 200, description: 'The OpenAPI document.', type: 'OpenAPI 3.1 document' }],
+  },
+  'GET /api/docs': {
+    summary: 'Shows this API description as a plain web page.',
+    responses: [{ status: 200, description: 'The reference page.', contentType: 'text/html' }],
+  },
+};
