@@ -15,11 +15,12 @@ import { ApiError, messageOf } from '../../../core/http/api-error';
 import { FieldMap } from '../../../shared/map/field-map/field-map';
 import type { MapField } from '../../../shared/map/map-types';
 import { AreaPipe } from '../../../shared/units/area-pipe';
+import { LIMIT_TEXT, MAX_UPLOAD_BYTES } from '@shared/limits';
 import { FieldsApi } from '../fields-api';
 import { type ImportRow, rename, rowsFromPreview, selectionOf, selectionProblems, setAllTicked, setTicked } from '../import-selection';
 
 /** Largest file the server takes, bytes (it answers 413 above). */
-export const MAX_UPLOAD_BYTES = 10 * 1024 * 1024;
+export { MAX_UPLOAD_BYTES };
 
 const isPolygonal = (g: unknown): g is MapField['boundary'] =>
   typeof g === 'object' && g !== null && ['Polygon', 'MultiPolygon'].includes((g as { type?: string }).type ?? '');
@@ -48,6 +49,8 @@ const isPolygonal = (g: unknown): g is MapField['boundary'] =>
   styleUrl: './upload-boundaries.scss',
 })
 export class UploadBoundaries {
+  /** The server's budgets for boundary files, in plain words. */
+  protected readonly limits = LIMIT_TEXT.upload;
   private readonly api = inject(FieldsApi);
   private readonly router = inject(Router);
   private readonly snackBar = inject(MatSnackBar);
@@ -81,7 +84,7 @@ export class UploadBoundaries {
     this.error.set(null);
     this.serverProblems.set([]);
     if (file.size > MAX_UPLOAD_BYTES) {
-      this.error.set(`${file.name} is ${(file.size / 1048576).toFixed(1)} MB; files up to 10 MB can be uploaded.`);
+      this.error.set(`${file.name} is ${(file.size / 1048576).toFixed(1)} MB; files up to ${MAX_UPLOAD_BYTES / 1048576} MB can be uploaded.`);
       return;
     }
     this.file.set(file);

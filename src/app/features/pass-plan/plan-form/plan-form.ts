@@ -7,6 +7,7 @@ import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import { MatSlideToggleModule } from '@angular/material/slide-toggle';
 import { MatSliderModule } from '@angular/material/slider';
+import { LIMIT_TEXT } from '@shared/limits';
 import { OPERATION_INFO, type CoverageRule, type Operation } from '@shared/operations';
 import { COMMON_PRACTICE, DEFAULT_TURN_SECONDS, implementDefaults, type ImplementKind } from '@shared/plan/implement-defaults';
 import type { UnitSystem } from '@shared/schemas/auth';
@@ -50,6 +51,8 @@ export class PlanForm {
   readonly headingUsed = input<number | null>(null);
 
   protected readonly coverageText = COVERAGE_TEXT;
+  /** The planner's budgets, in plain words. */
+  protected readonly planLimits = LIMIT_TEXT.plan;
   protected readonly coverageRules = Object.keys(COVERAGE_TEXT) as CoverageRule[];
   protected readonly kindLabels = IMPLEMENT_KIND_LABELS;
   protected readonly kinds = computed(() => OPERATION_INFO[this.operation()].implementKinds);
