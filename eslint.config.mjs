@@ -2,6 +2,7 @@ import js from '@eslint/js';
 import angular from 'angular-eslint';
 import prettier from 'eslint-config-prettier';
 import tseslint from 'typescript-eslint';
+import boundaries from 'eslint-plugin-boundaries';
 
 export default tseslint.config(
   { ignores: ['dist/', '.angular/', 'node_modules/', '.data/', 'artifacts/', 'coverage/'] },
@@ -12,6 +13,38 @@ export default tseslint.config(
     rules: {
       '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_' }],
       '@typescript-eslint/consistent-type-imports': ['error', { fixStyle: 'inline-type-imports' }],
+    },
+  },
+  // The three rooms and their one direction: shared/ depends on nothing of ours; the app never
+  // reaches into the server; only repositories (and the database set-up) use knex itself.
+  {
+    files: ['shared/**/*.ts', 'server/**/*.ts', 'src/**/*.ts'],
+    plugins: { boundaries },
+    settings: {
+      'import/resolver': { node: { extensions: ['.ts', '.js', '.mjs'] } },
+      'boundaries/elements': [
+        { type: 'shared', pattern: 'shared/**/*', partialMatch: false },
+        { type: 'server', pattern: 'server/**/*', partialMatch: false },
+        { type: 'app', pattern: 'src/**/*', partialMatch: false },
+      ],
+      'boundaries/files': [
+        { category: 'data-access', pattern: ['server/**/*.repository.ts', 'server/db/**', 'server/**/*.read.ts'] },
+        { category: 'route-or-service', pattern: ['server/**/*.routes.ts', 'server/**/*.service.ts'] },
+      ],
+    },
+    rules: {
+      'boundaries/dependencies': [
+        'error',
+        {
+          default: 'allow',
+          checkAllOrigins: true,
+          policies: [
+            { from: { element: { type: 'shared' } }, disallow: { to: { element: { types: { anyOf: ['server', 'app'] } } } } },
+            { from: { element: { type: 'app' } }, disallow: { to: { element: { type: 'server' } } } },
+            { from: { file: { categories: 'route-or-service' } }, disallow: { to: { module: { origin: 'external', source: 'knex' } } } },
+          ],
+        },
+      ],
     },
   },
   {
