@@ -49,7 +49,18 @@ export default tseslint.config(
   },
   {
     files: ['**/*.js', '**/*.mjs', '**/*.cjs'],
-    languageOptions: { globals: { process: 'readonly', console: 'readonly', __dirname: 'readonly', module: 'writable', require: 'readonly', fetch: 'readonly', setTimeout: 'readonly', URL: 'readonly' } },
+    languageOptions: {
+      globals: {
+        process: 'readonly',
+        console: 'readonly',
+        __dirname: 'readonly',
+        module: 'writable',
+        require: 'readonly',
+        fetch: 'readonly',
+        setTimeout: 'readonly',
+        URL: 'readonly',
+      },
+    },
     rules: { '@typescript-eslint/no-require-imports': 'off' },
   },
   {

@@ -39,8 +39,14 @@ async function worstPreview(): Promise<void> {
   const square = squareBoundary(1609);
   const widthM = (Math.hypot(1609, 1609) / MAX_PASSES) * 1.01;
   const cases = [
-    { what: `section at the pass budget (${MAX_PASSES.toLocaleString('en-US')} passes, auto heading)`, input: { boundary: square, widthM, headlandPasses: 0, headingDeg: 'auto' as const } },
-    { what: 'comb of 10,004 points at 10 ft with 2 headland passes', input: { boundary: combBoundary(2_500), widthM: 3.048, headlandPasses: 2, headingDeg: 'auto' as const } },
+    {
+      what: `section at the pass budget (${MAX_PASSES.toLocaleString('en-US')} passes, auto heading)`,
+      input: { boundary: square, widthM, headlandPasses: 0, headingDeg: 'auto' as const },
+    },
+    {
+      what: 'comb of 10,004 points at 10 ft with 2 headland passes',
+      input: { boundary: combBoundary(2_500), widthM: 3.048, headlandPasses: 2, headingDeg: 'auto' as const },
+    },
   ];
   try {
     await pool.run('plan', { boundary: squareBoundary(400), widthM: 18.288 }); // start the worker
@@ -110,7 +116,11 @@ async function readsUnderHostileLoad(): Promise<void> {
   await db.migrate.latest(migrationConfig);
   const farms = await Promise.all([makeFarm(db, 'Bench'), makeFarm(db, 'Hostile')]);
   await db.destroy();
-  const server = await startServerProcess({ DATABASE_URL: url, SESSION_SECRET: 'bench-secret-bench-secret-bench-secret-0123', NODE_ENV: 'development' });
+  const server = await startServerProcess({
+    DATABASE_URL: url,
+    SESSION_SECRET: 'bench-secret-bench-secret-bench-secret-0123',
+    NODE_ENV: 'development',
+  });
   try {
     const reader = new HttpClient(server.url);
     await reader.signIn(farms[0].operator.email, farms[0].operator.password);
@@ -130,7 +140,9 @@ async function readsUnderHostileLoad(): Promise<void> {
     await readFor(2); // warm-up
     const quiet = await readFor(8);
     const comb = combBoundary(2_500);
-    const previews = hostile.map((c) => c.request('POST', '/api/plans/preview', { boundary: comb, widthM: 3.048, headlandPasses: 2, headingDeg: 'auto' }));
+    const previews = hostile.map((c) =>
+      c.request('POST', '/api/plans/preview', { boundary: comb, widthM: 3.048, headlandPasses: 2, headingDeg: 'auto' }),
+    );
     const loaded = await readFor(15);
     const answers = await Promise.all(previews);
     rows.push({

@@ -60,16 +60,23 @@ async function generate(db: Db): Promise<number> {
   await db('memberships').insert({ farm_id: farmId, user_id: owner.id, role: 'owner', status: 'active' });
   const operators: number[] = [];
   for (let i = 1; i <= 8; i++) {
-    const [u] = await db('users').insert({ email: `op${i}@bench.test`, name: `Operator ${i}` }).returning('id');
+    const [u] = await db('users')
+      .insert({ email: `op${i}@bench.test`, name: `Operator ${i}` })
+      .returning('id');
     const [m] = await db('memberships').insert({ farm_id: farmId, user_id: u.id, role: 'operator', status: 'active' }).returning('id');
     operators.push(m.id);
   }
   // Each operator has a machine and an implement of their own for each operation, as a crew of
   // eight would need to work side by side (one shared sprayer for eight people would make every
   // card on the board clash with every other).
-  const machine = async (name: string, kind: string, hp: number) => (await db('machines').insert({ farm_id: farmId, name, kind, power_hp: hp }).returning('id'))[0].id as number;
+  const machine = async (name: string, kind: string, hp: number) =>
+    (await db('machines').insert({ farm_id: farmId, name, kind, power_hp: hp }).returning('id'))[0].id as number;
   const implement = async (name: string, kind: string, widthM: number, op: string) =>
-    (await db('implements').insert({ farm_id: farmId, name, kind, width_m: widthM, operations: [op] }).returning('id'))[0].id as number;
+    (
+      await db('implements')
+        .insert({ farm_id: farmId, name, kind, width_m: widthM, operations: [op] })
+        .returning('id')
+    )[0].id as number;
   const FLEET: Record<string, [string, string, number, string, string, number]> = {
     harrowing: ['4WD A', 'tractor-4wd', 500, 'Harrow', 'harrow', 25.6],
     seeding: ['4WD B', 'tractor-4wd', 450, 'Drill', 'air-drill', 18.3],
@@ -154,7 +161,12 @@ interface Run {
   detail: string;
 }
 
-async function measure(url: string, cookie: string, connections: number, seconds = DURATION_S): Promise<{ r: CannonResult; times: number[] }> {
+async function measure(
+  url: string,
+  cookie: string,
+  connections: number,
+  seconds = DURATION_S,
+): Promise<{ r: CannonResult; times: number[] }> {
   const times: number[] = [];
   // The headers a browser sends with the app's requests: the session cookie and the encodings it takes.
   const inst = autocannon({ url, connections, duration: seconds, headers: { cookie, 'accept-encoding': 'gzip, deflate, br' } });
@@ -197,7 +209,11 @@ async function startServer(databaseUrl: string): Promise<{ child: ChildProcess; 
     SESSION_SECRET: 'bench-secret-bench-secret-bench-secret-0123',
     FAKE_SMTP_PORT: '0',
   };
-  const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], { cwd: path.resolve(__dirname, '..'), env, stdio: ['ignore', 'pipe', 'inherit'] });
+  const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
+    cwd: path.resolve(__dirname, '..'),
+    env,
+    stdio: ['ignore', 'pipe', 'inherit'],
+  });
   await listening(child, 'the server');
   return { child, base: `http://127.0.0.1:${port}` };
 }
@@ -235,7 +251,9 @@ async function main(): Promise<void> {
     let t = performance.now();
     await generate(db);
     const [{ count }] = await db('assignments').where({ state: 'finished' }).count<Array<{ count: number }>>('* as count');
-    console.log(`generated ${FIELDS} fields, ${SEASONS} seasons, ${count} finished jobs in ${((performance.now() - t) / 1000).toFixed(1)} s`);
+    console.log(
+      `generated ${FIELDS} fields, ${SEASONS} seasons, ${count} finished jobs in ${((performance.now() - t) / 1000).toFixed(1)} s`,
+    );
 
     const started = await startServer(url);
     server = started.child;
@@ -250,7 +268,10 @@ async function main(): Promise<void> {
       body: JSON.stringify({ email: 'owner@bench.test', password: PASSWORD }),
     });
     if (login.status !== 200) throw new Error(`sign-in failed: ${login.status} ${await login.text()}`);
-    const sid = login.headers.getSetCookie().map((c) => c.split(';')[0]).find((c) => c.startsWith('furlong.sid='));
+    const sid = login.headers
+      .getSetCookie()
+      .map((c) => c.split(';')[0])
+      .find((c) => c.startsWith('furlong.sid='));
     const cookie = [`XSRF-TOKEN=${xsrf}`, sid].join('; ');
 
     const summaryUrl = `${base}/api/season/${LAST_SEASON}/summary`;
@@ -264,37 +285,95 @@ async function main(): Promise<void> {
     const boardRes = await fetch(boardUrl, { headers: { cookie, 'accept-encoding': 'gzip' } });
     const boardBytes = Number(boardRes.headers.get('content-length'));
     const board = (await boardRes.json()) as { assignments?: unknown[] };
-    console.log(`season ${LAST_SEASON}: ${sample.totals.jobsFinished} finished jobs; board ${BOARD_DAY}: ${board.assignments?.length ?? '?'} jobs, ${boardBytes} bytes gzipped`);
+    console.log(
+      `season ${LAST_SEASON}: ${sample.totals.jobsFinished} finished jobs; board ${BOARD_DAY}: ${board.assignments?.length ?? '?'} jobs, ${boardBytes} bytes gzipped`,
+    );
 
     const runs: Run[] = [];
     t = performance.now();
     // The cost every signed-in request pays (session, principal, rolling cookie), for reading the rest.
     const floor = await measure(`${base}/api/auth/me`, cookie, 1);
-    runs.push({ name: `signed-in floor (GET /api/auth/me), 1 connection, ${DURATION_S} s`, target: '(information)', measured: `median ${ms(pct(floor.times, 50))}`, pass: true, detail: `p95 ${ms(pct(floor.times, 95))}, ${floor.r.requests.total} requests` });
+    runs.push({
+      name: `signed-in floor (GET /api/auth/me), 1 connection, ${DURATION_S} s`,
+      target: '(information)',
+      measured: `median ${ms(pct(floor.times, 50))}`,
+      pass: true,
+      detail: `p95 ${ms(pct(floor.times, 95))}, ${floor.r.requests.total} requests`,
+    });
     const one = await measure(summaryUrl, cookie, 1);
-    runs.push({ name: `season summary, 1 connection, ${DURATION_S} s`, target: 'median < 100 ms', measured: `median ${ms(pct(one.times, 50))}`, pass: pct(one.times, 50) < 100, detail: `p95 ${ms(pct(one.times, 95))}, ${one.r.requests.total} requests` });
+    runs.push({
+      name: `season summary, 1 connection, ${DURATION_S} s`,
+      target: 'median < 100 ms',
+      measured: `median ${ms(pct(one.times, 50))}`,
+      pass: pct(one.times, 50) < 100,
+      detail: `p95 ${ms(pct(one.times, 95))}, ${one.r.requests.total} requests`,
+    });
     const ten = await measure(summaryUrl, cookie, 10);
-    runs.push({ name: `season summary, 10 connections, ${DURATION_S} s`, target: '(information)', measured: `median ${ms(pct(ten.times, 50))}`, pass: true, detail: `p95 ${ms(pct(ten.times, 95))}, ${ten.r.requests.total} requests` });
+    runs.push({
+      name: `season summary, 10 connections, ${DURATION_S} s`,
+      target: '(information)',
+      measured: `median ${ms(pct(ten.times, 50))}`,
+      pass: true,
+      detail: `p95 ${ms(pct(ten.times, 95))}, ${ten.r.requests.total} requests`,
+    });
     const sErrors = [one, ten].reduce((n, m) => n + m.r.errors + m.r.timeouts + m.r.non2xx, 0);
-    runs.push({ name: 'season summary errors', target: '0', measured: String(sErrors), pass: sErrors === 0, detail: 'errors, timeouts and non-2xx answers' });
+    runs.push({
+      name: 'season summary errors',
+      target: '0',
+      measured: String(sErrors),
+      pass: sErrors === 0,
+      detail: 'errors, timeouts and non-2xx answers',
+    });
     const b1 = await measure(boardUrl, cookie, 1);
-    runs.push({ name: `work board for a day, 1 connection, ${DURATION_S} s`, target: '(information)', measured: `p95 ${ms(pct(b1.times, 95))}`, pass: true, detail: `median ${ms(pct(b1.times, 50))}, ${b1.r.requests.total} requests` });
+    runs.push({
+      name: `work board for a day, 1 connection, ${DURATION_S} s`,
+      target: '(information)',
+      measured: `p95 ${ms(pct(b1.times, 95))}`,
+      pass: true,
+      detail: `median ${ms(pct(b1.times, 50))}, ${b1.r.requests.total} requests`,
+    });
     // Three seconds of the same load first, unmeasured: the server's code is compiled hot by then.
     await measure(boardUrl, cookie, 50, 3);
     const b = await measure(boardUrl, cookie, 50);
     const bErrors = [b1, b].reduce((n, m) => n + m.r.errors + m.r.timeouts + m.r.non2xx, 0);
-    runs.push({ name: `work board for a day, 50 connections, ${DURATION_S} s`, target: 'p95 < 30 ms', measured: `p95 ${ms(pct(b.times, 95))}`, pass: pct(b.times, 95) < 30, detail: `median ${ms(pct(b.times, 50))}, ${b.r.requests.total} requests` });
+    runs.push({
+      name: `work board for a day, 50 connections, ${DURATION_S} s`,
+      target: 'p95 < 30 ms',
+      measured: `p95 ${ms(pct(b.times, 95))}`,
+      pass: pct(b.times, 95) < 30,
+      detail: `median ${ms(pct(b.times, 50))}, ${b.r.requests.total} requests`,
+    });
     const bare = await startBareExpress(boardBytes);
     try {
       await measure(bare.base, '', 50, 3);
       const e = await measure(bare.base, '', 50);
-      runs.push({ name: `bare Express, same bytes, 50 connections, ${DURATION_S} s`, target: '(information)', measured: `p95 ${ms(pct(e.times, 95))}`, pass: true, detail: `median ${ms(pct(e.times, 50))}, ${e.r.requests.total} requests` });
+      runs.push({
+        name: `bare Express, same bytes, 50 connections, ${DURATION_S} s`,
+        target: '(information)',
+        measured: `p95 ${ms(pct(e.times, 95))}`,
+        pass: true,
+        detail: `median ${ms(pct(e.times, 50))}, ${e.r.requests.total} requests`,
+      });
     } finally {
       await stopServer(bare.child);
     }
-    runs.push({ name: 'work board errors', target: '0', measured: String(bErrors), pass: bErrors === 0, detail: 'errors, timeouts and non-2xx answers' });
+    runs.push({
+      name: 'work board errors',
+      target: '0',
+      measured: String(bErrors),
+      pass: bErrors === 0,
+      detail: 'errors, timeouts and non-2xx answers',
+    });
 
-    console.table(runs.map((r) => ({ bench: r.name, target: r.target, measured: r.measured, result: r.target.startsWith('(') ? '—' : r.pass ? 'PASS' : 'FAIL', detail: r.detail })));
+    console.table(
+      runs.map((r) => ({
+        bench: r.name,
+        target: r.target,
+        measured: r.measured,
+        result: r.target.startsWith('(') ? '—' : r.pass ? 'PASS' : 'FAIL',
+        detail: r.detail,
+      })),
+    );
     console.log(`measured in ${((performance.now() - t) / 1000).toFixed(0)} s`);
     process.exitCode = runs.every((r) => r.pass) ? 0 : 1;
   } finally {

@@ -24,9 +24,16 @@ export async function seed(knex: Knex, options: { reset?: boolean } = {}): Promi
     if (existing && !options.reset) return existing.id as number;
     if (existing) {
       await tx('farms').where({ id: existing.id }).delete();
-      await tx('users').whereIn('email', demoAccounts.map((a) => a.email)).delete();
+      await tx('users')
+        .whereIn(
+          'email',
+          demoAccounts.map((a) => a.email),
+        )
+        .delete();
     }
-    const [farm] = await tx('farms').insert({ name: DEMO_FARM_NAME, units: 'us', day_hours_limit: 12, time_zone: DEMO_TIME_ZONE }).returning('id');
+    const [farm] = await tx('farms')
+      .insert({ name: DEMO_FARM_NAME, units: 'us', day_hours_limit: 12, time_zone: DEMO_TIME_ZONE })
+      .returning('id');
     const ctx: DemoContext = { farmId: farm.id, users: {} };
     for (const a of demoAccounts) {
       // The app's own cost: a demo account with a cheaper hash would answer a wrong password
@@ -36,7 +43,14 @@ export async function seed(knex: Knex, options: { reset?: boolean } = {}): Promi
         .onConflict('email')
         .merge()
         .returning('id');
-      await tx('memberships').insert({ farm_id: farm.id, user_id: user.id, role: a.role, status: 'active', invited_at: tx.fn.now(), joined_at: tx.fn.now() });
+      await tx('memberships').insert({
+        farm_id: farm.id,
+        user_id: user.id,
+        role: a.role,
+        status: 'active',
+        invited_at: tx.fn.now(),
+        joined_at: tx.fn.now(),
+      });
       ctx.users[a.email] = user.id;
     }
     for (const step of DEMO_STEPS) await step(tx, ctx);

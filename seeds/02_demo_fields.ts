@@ -76,7 +76,17 @@ const FIELDS: DemoField[] = [
     rings: [ring(box(3, 0, 2, 1))],
     crops: ['barley', 'durum'],
     hazards: [
-      { kind: 'draw', geometry: area([[3.7, 0], [3.85, 0], [4.1, 1], [3.95, 1]]), clearanceM: 10, note: 'Steep draw crossing north–south: cross only at the culvert' },
+      {
+        kind: 'draw',
+        geometry: area([
+          [3.7, 0],
+          [3.85, 0],
+          [4.1, 1],
+          [3.95, 1],
+        ]),
+        clearanceM: 10,
+        note: 'Steep draw crossing north–south: cross only at the culvert',
+      },
       { kind: 'fence', geometry: line([5, 0], [5, 1]), clearanceM: 2, note: 'Pasture fence on the east edge' },
     ],
   },
@@ -88,7 +98,15 @@ const FIELDS: DemoField[] = [
   },
   {
     name: 'Skewed Quarter',
-    rings: [ring([[5, 0], [6, 0], [6, 1], [5.35, 1], [5, 0.65]])],
+    rings: [
+      ring([
+        [5, 0],
+        [6, 0],
+        [6, 1],
+        [5.35, 1],
+        [5, 0.65],
+      ]),
+    ],
     crops: ['spring wheat', 'canola'],
     hazards: [{ kind: 'neighbour', geometry: line([5, 0.65], [5.35, 1]), clearanceM: 3, note: "Neighbour's edge along the angled road" }],
   },
@@ -114,7 +132,14 @@ const FIELDS: DemoField[] = [
     name: 'Coulee Section',
     rings: [ring(box(2, -3, 2, 2))],
     crops: ['spring wheat', 'canola'],
-    hazards: [{ kind: 'draw', geometry: line([2, -2.2], [2.8, -2.0], [3.4, -1.6], [4, -1.5]), clearanceM: 12, note: 'Coulee bank: steep, keep well off the break' }],
+    hazards: [
+      {
+        kind: 'draw',
+        geometry: line([2, -2.2], [2.8, -2.0], [3.4, -1.6], [4, -1.5]),
+        clearanceM: 12,
+        note: 'Coulee bank: steep, keep well off the break',
+      },
+    ],
   },
   { name: 'Railroad Eighty', rings: [ring(box(4, -1.5, 1, 0.5))], crops: ['canola', 'barley'] },
   { name: 'West Half', rings: [ring(box(-1, 0, 1, 2))], crops: ['barley', 'durum'] },
@@ -133,7 +158,14 @@ export const seedDemoFields: DemoStep = async (tx, { farmId }) => {
       { farm_id: farmId, field_id: row.id, season, crop: f.crops[1] },
     ]);
     for (const h of f.hazards ?? []) {
-      await tx('hazards').insert({ farm_id: farmId, field_id: row.id, kind: h.kind, geometry: JSON.stringify(h.geometry), clearance_m: h.clearanceM, note: h.note });
+      await tx('hazards').insert({
+        farm_id: farmId,
+        field_id: row.id,
+        kind: h.kind,
+        geometry: JSON.stringify(h.geometry),
+        clearance_m: h.clearanceM,
+        note: h.note,
+      });
     }
   }
 };

@@ -270,9 +270,7 @@ export const seedDemoFleetCrew: DemoStep = async (tx, { farmId, users }) => {
     const by = userOf.get(a.operator_id) ?? null;
     const base = { farm_id: farmId, assignment_id: a.id, by_user_id: by };
     if (a.state === 'called-off')
-      return [
-        { ...base, type: 'call-off', at: DateTime.fromISO(`${a.day}T07:30`, { zone }).toJSDate(), reason: 'weather', note: a.note },
-      ];
+      return [{ ...base, type: 'call-off', at: DateTime.fromISO(`${a.day}T07:30`, { zone }).toJSDate(), reason: 'weather', note: a.note }];
     return [
       { ...base, type: 'start', at: a.started_at, engine_hours: a.engine_hours_start },
       { ...base, type: 'finish', at: a.finished_at, engine_hours: a.engine_hours_end, acres: a.acres_done },

@@ -25,7 +25,8 @@ const GENERAL = [
 ];
 const POWER_LINES = 'Look up before folding, unfolding or raising the implement: keep well clear of overhead power lines and poles.';
 const SLOPES = 'Slow down near draws, steep breaks and side slopes: they can tip a tractor. Keep to the clearance shown around them.';
-const ROAD = 'On public roads: lights, flashers and slow-moving-vehicle emblem on, and check the width and escort rules for wide implements where you travel.';
+const ROAD =
+  'On public roads: lights, flashers and slow-moving-vehicle emblem on, and check the width and escort rules for wide implements where you travel.';
 const BINS = 'Keep the clearance around bins, yard sites and power poles shown on the map.';
 
 export const OPERATION_INFO: Readonly<Record<Operation, OperationInfo>> = {
@@ -76,7 +77,14 @@ export const OPERATION_INFO: Readonly<Record<Operation, OperationInfo>> = {
     label: 'Combining',
     coverage: 'gaps-ok',
     implementKinds: ['combine-header'],
-    cautions: ['Stop the header and the engine before clearing a plug; keep a fire extinguisher on the machine.', POWER_LINES, SLOPES, ROAD, BINS, ...GENERAL],
+    cautions: [
+      'Stop the header and the engine before clearing a plug; keep a fire extinguisher on the machine.',
+      POWER_LINES,
+      SLOPES,
+      ROAD,
+      BINS,
+      ...GENERAL,
+    ],
     windMph: null,
   },
   baling: {

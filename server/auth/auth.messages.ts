@@ -1,7 +1,16 @@
 import type { OutgoingMail } from '../mail/outbox.repository';
 import { esc, wrapHtml } from '../mail/html';
 
-export function invitationMail(p: { to: string; name: string; farmId: number; farmName: string; inviter: string; role: string; link: string; days: number }): OutgoingMail {
+export function invitationMail(p: {
+  to: string;
+  name: string;
+  farmId: number;
+  farmName: string;
+  inviter: string;
+  role: string;
+  link: string;
+  days: number;
+}): OutgoingMail {
   const subject = `${p.inviter} invited you to ${p.farmName} on Furlong`;
   const text = `Hello ${p.name},
 

@@ -30,7 +30,10 @@ const ipKey = (req: Request) => ipKeyGenerator(req.ip ?? '0.0.0.0');
  * elsewhere runs out of tries without locking the owner out of their own account. Guessing one
  * account from many addresses is still held back by each address's own limit (`perAddress`).
  */
-const accountKey = (req: Request) => `account:${String(req.body?.email ?? '').trim().toLowerCase()}|${ipKey(req)}`;
+const accountKey = (req: Request) =>
+  `account:${String(req.body?.email ?? '')
+    .trim()
+    .toLowerCase()}|${ipKey(req)}`;
 
 function signIn(req: Request, res: Response, next: NextFunction, deps: AppDeps, user: SessionPrincipal): void {
   // passport's req.login regenerates the session id, so a planted id is worthless (no fixation).
@@ -87,7 +90,9 @@ export function authRoutes(r: Routes, deps: AppDeps, passport: ReturnType<typeof
     res.on('close', () => {
       auth.requestReset(deps, email).catch((err: unknown) => (deps.log ?? console.error)(err));
     });
-    res.status(202).json({ message: 'If that address belongs to a Furlong account, a link to set a new password is on its way. Check your e-mail.' });
+    res
+      .status(202)
+      .json({ message: 'If that address belongs to a Furlong account, a link to set a new password is on its way. Check your e-mail.' });
   });
 
   r.get('/token/:token', 'public', async (req, res) => {

@@ -11,13 +11,17 @@ import { BCRYPT_ROUNDS, hashPassword } from './passwords';
 import { RESET_MINUTES, hashToken, newToken } from './tokens';
 import * as users from './users.repository';
 
-
 export { BCRYPT_ROUNDS, hashPassword };
 /** Compared against when an address has no password, so such a sign-in takes as long as any. */
 const DUMMY_HASH = bcrypt.hashSync('not-a-real-password', BCRYPT_ROUNDS);
 
 export function toMe(p: SessionPrincipal): Me {
-  return { user: { id: p.id, email: p.email, name: p.name }, farm: { id: p.farmId, name: p.farmName, units: p.units, timeZone: p.timeZone }, role: p.role, membershipId: p.membershipId };
+  return {
+    user: { id: p.id, email: p.email, name: p.name },
+    farm: { id: p.farmId, name: p.farmName, units: p.units, timeZone: p.timeZone },
+    role: p.role,
+    membershipId: p.membershipId,
+  };
 }
 
 const badCredentials = () => new AppError(401, 'bad_credentials', 'That e-mail and password do not match an account');
@@ -28,7 +32,12 @@ export async function verifyLogin(deps: AppDeps, email: string, password: string
   if (!user || !user.password_hash || !ok) throw badCredentials();
   const membership = await users.firstActiveMembership(deps.db, user.id);
   const principal = membership && (await users.loadPrincipal(deps.db, user.id, membership.id));
-  if (!principal) throw new AppError(403, 'no_farm', 'Your account is not a member of any farm on Furlong any more; ask the farm owner to invite you again');
+  if (!principal)
+    throw new AppError(
+      403,
+      'no_farm',
+      'Your account is not a member of any farm on Furlong any more; ask the farm owner to invite you again',
+    );
   return principal;
 }
 
@@ -40,7 +49,13 @@ export async function requestReset(deps: AppDeps, email: string): Promise<void> 
     if (!membership) return;
     await users.voidOpenTokens(tx, user.id, 'reset');
     const token = newToken();
-    await users.insertToken(tx, { userId: user.id, farmId: null, kind: 'reset', hash: token.hash, expiresAt: new Date(Date.now() + RESET_MINUTES * 60_000) });
+    await users.insertToken(tx, {
+      userId: user.id,
+      farmId: null,
+      kind: 'reset',
+      hash: token.hash,
+      expiresAt: new Date(Date.now() + RESET_MINUTES * 60_000),
+    });
     const link = `${deps.config.publicUrl}/set-password?token=${token.raw}`;
     await enqueueMail(tx, resetMail({ to: user.email, name: user.name, link, minutes: RESET_MINUTES }));
   });
@@ -71,7 +86,10 @@ export async function setPasswordWithToken(deps: AppDeps, raw: string, password:
     await users.setPasswordHash(tx, token.user_id, hash, token.kind === 'invite' ? name : undefined);
     let membershipId: number | undefined;
     if (token.kind === 'invite' && token.farm_id) {
-      const m = await tx('memberships').where({ user_id: token.user_id, farm_id: token.farm_id }).whereIn('status', ['invited', 'active']).first('id');
+      const m = await tx('memberships')
+        .where({ user_id: token.user_id, farm_id: token.farm_id })
+        .whereIn('status', ['invited', 'active'])
+        .first('id');
       if (!m) throw new AppError(410, 'token_used', 'This invitation was withdrawn by the farm owner');
       await tx('memberships').where({ id: m.id }).update({ status: 'active', joined_at: tx.fn.now() });
       membershipId = m.id;

@@ -42,7 +42,12 @@ export const PRINCIPAL_SQL = `
  * The principal for a user acting in one membership, or undefined if it is not active or if the
  * sign-in (at `signedInAt`) is older than the person's last new password.
  */
-export async function loadPrincipal(db: Tx, userId: number, membershipId: number, signedInAt = new Date()): Promise<SessionPrincipal | undefined> {
+export async function loadPrincipal(
+  db: Tx,
+  userId: number,
+  membershipId: number,
+  signedInAt = new Date(),
+): Promise<SessionPrincipal | undefined> {
   const { rows } = await db.raw<{ rows: SessionPrincipal[] }>(PRINCIPAL_SQL, [membershipId, userId, signedInAt]);
   return rows[0];
 }
@@ -51,11 +56,21 @@ export async function loadPrincipal(db: Tx, userId: number, membershipId: number
 export const firstActiveMembership = (db: Tx, userId: number) =>
   db<DbMembershipRow>('memberships').where({ user_id: userId, status: 'active' }).orderBy('id').first();
 
-export async function insertToken(db: Tx, t: { userId: number; farmId: number | null; kind: 'invite' | 'reset'; hash: string; expiresAt: Date }) {
-  await db<DbAuthTokenRow>('auth_tokens').insert({ user_id: t.userId, farm_id: t.farmId, kind: t.kind, token_hash: t.hash, expires_at: t.expiresAt });
+export async function insertToken(
+  db: Tx,
+  t: { userId: number; farmId: number | null; kind: 'invite' | 'reset'; hash: string; expiresAt: Date },
+) {
+  await db<DbAuthTokenRow>('auth_tokens').insert({
+    user_id: t.userId,
+    farm_id: t.farmId,
+    kind: t.kind,
+    token_hash: t.hash,
+    expires_at: t.expiresAt,
+  });
 }
 
-export const findTokenForUpdate = (db: Tx, hash: string) => db<DbAuthTokenRow>('auth_tokens').where({ token_hash: hash }).forUpdate().first();
+export const findTokenForUpdate = (db: Tx, hash: string) =>
+  db<DbAuthTokenRow>('auth_tokens').where({ token_hash: hash }).forUpdate().first();
 export const findToken = (db: Tx, hash: string) => db<DbAuthTokenRow>('auth_tokens').where({ token_hash: hash }).first();
 
 export async function markTokenUsed(db: Tx, id: number): Promise<void> {

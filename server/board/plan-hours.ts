@@ -32,4 +32,3 @@ export function planHours(
   const capacity = effectiveCapacityAcPerH(mToFt(implement.widthM), d.speedMph, d.efficiency);
   return { hours: roundTo(capacity > 0 ? acresPlanned / capacity : 0), source: 'estimate' };
 }
-

@@ -38,7 +38,11 @@ function workerFile(): string {
 }
 
 const tooHeavy = (what: string) =>
-  new AppError(422, 'too_complex', `${what}, so Furlong stopped it. Simplify the input (a wider working width, fewer boundary points) and try again.`);
+  new AppError(
+    422,
+    'too_complex',
+    `${what}, so Furlong stopped it. Simplify the input (a wider working width, fewer boundary points) and try again.`,
+  );
 
 export function createComputePool(options: ComputeOptions = {}): ComputePool {
   const threads = options.threads ?? Math.max(2, os.availableParallelism() - 1);
@@ -70,10 +74,14 @@ export function createComputePool(options: ComputeOptions = {}): ComputePool {
       });
       let envelope: Tasks.Envelope<unknown>;
       try {
-        envelope = (await pool.run({ ...input, started: port2 }, { name, signal: abort.signal, transferList: [port2] })) as Tasks.Envelope<unknown>;
+        envelope = (await pool.run(
+          { ...input, started: port2 },
+          { name, signal: abort.signal, transferList: [port2] },
+        )) as Tasks.Envelope<unknown>;
       } catch (err) {
         const e = err as { name?: string; code?: string; message?: string };
-        if (e?.name === 'AbortError' && abort.signal.reason === 'ran') throw tooHeavy(`This took longer than ${Math.round(timeLimitMs / 1000)} s to work out`);
+        if (e?.name === 'AbortError' && abort.signal.reason === 'ran')
+          throw tooHeavy(`This took longer than ${Math.round(timeLimitMs / 1000)} s to work out`);
         if (e?.name === 'AbortError' || /queue is at limit/i.test(e?.message ?? ''))
           throw new AppError(503, 'busy', 'Furlong is busy working out other plans and files; try again in a minute.');
         if (e?.code === 'ERR_WORKER_OUT_OF_MEMORY') throw tooHeavy(`This needed more than ${memoryLimitMb} MB of memory to work out`);

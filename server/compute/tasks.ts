@@ -38,9 +38,13 @@ async function wrap<T>(input: Started, work: () => T | Promise<T>, plainErrorSta
   try {
     return { ok: true, value: await work() };
   } catch (err) {
-    if (err instanceof AppError) return { ok: false, error: { status: err.status, code: err.code, message: err.message, fields: err.fields, extra: err.extra } };
+    if (err instanceof AppError)
+      return { ok: false, error: { status: err.status, code: err.code, message: err.message, fields: err.fields, extra: err.extra } };
     // The shared computations throw plain Errors with a message for the farmer (bad input).
-    if (err instanceof Error && !(err instanceof RangeError && /call stack|Invalid array length|Array buffer allocation/i.test(err.message)))
+    if (
+      err instanceof Error &&
+      !(err instanceof RangeError && /call stack|Invalid array length|Array buffer allocation/i.test(err.message))
+    )
       return { ok: false, error: { status: plainErrorStatus, code: plainErrorCode, message: err.message } };
     throw err;
   }
@@ -68,7 +72,9 @@ export function measureBoundary(input: { geometry: unknown; label?: string } & S
 }
 
 /** A boundary file read into candidate fields (bytes arrive as a Uint8Array view). */
-export function readBoundaryFile(input: { name: string; data: Uint8Array; nameAttribute?: string } & Started): Promise<Envelope<ImportPreview>> {
+export function readBoundaryFile(
+  input: { name: string; data: Uint8Array; nameAttribute?: string } & Started,
+): Promise<Envelope<ImportPreview>> {
   const data = Buffer.from(input.data.buffer, input.data.byteOffset, input.data.byteLength);
   return wrap(input, () => readFile({ name: input.name, data }, input.nameAttribute), 422, 'bad_file');
 }

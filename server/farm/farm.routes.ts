@@ -17,7 +17,8 @@ export function farmRoutes(r: Routes, deps: AppDeps): void {
   r.patch('/', ['owner'], async (req, res) => {
     const p = body(req, farmPatchBody);
     const farmId = principal(req).farmId;
-    await deps.db('farms')
+    await deps
+      .db('farms')
       .where({ id: farmId })
       .update({
         ...(p.name ? { name: p.name } : {}),

@@ -70,14 +70,28 @@ export const fieldNameTaken = async (db: Tx, farmId: number, name: string, excep
   return !!(await q.first('id'));
 };
 
-export async function insertField(db: Tx, f: { farmId: number; name: string; boundary: Polygon | MultiPolygon; areaM2: number; acres: number; notes?: string | null }): Promise<number> {
+export async function insertField(
+  db: Tx,
+  f: { farmId: number; name: string; boundary: Polygon | MultiPolygon; areaM2: number; acres: number; notes?: string | null },
+): Promise<number> {
   const [row] = await db('fields')
-    .insert({ farm_id: f.farmId, name: f.name, boundary: JSON.stringify(f.boundary), area_m2: f.areaM2, acres: f.acres, notes: f.notes ?? null })
+    .insert({
+      farm_id: f.farmId,
+      name: f.name,
+      boundary: JSON.stringify(f.boundary),
+      area_m2: f.areaM2,
+      acres: f.acres,
+      notes: f.notes ?? null,
+    })
     .returning('id');
   return row.id;
 }
 
-export async function updateField(db: Tx, id: number, patch: Partial<{ name: string; boundary: Polygon | MultiPolygon; areaM2: number; acres: number; notes: string | null }>): Promise<void> {
+export async function updateField(
+  db: Tx,
+  id: number,
+  patch: Partial<{ name: string; boundary: Polygon | MultiPolygon; areaM2: number; acres: number; notes: string | null }>,
+): Promise<void> {
   const cols: Record<string, unknown> = { updated_at: db.fn.now() };
   if (patch.name !== undefined) cols.name = patch.name;
   if (patch.boundary !== undefined) cols.boundary = JSON.stringify(patch.boundary);
@@ -104,7 +118,11 @@ export async function insertHazard(db: Tx, h: Omit<DbHazardRow, 'id' | 'created_
   return row.id;
 }
 
-export async function updateHazard(db: Tx, id: number, patch: Partial<Pick<DbHazardRow, 'kind' | 'geometry' | 'clearance_m' | 'note' | 'status'>>): Promise<void> {
+export async function updateHazard(
+  db: Tx,
+  id: number,
+  patch: Partial<Pick<DbHazardRow, 'kind' | 'geometry' | 'clearance_m' | 'note' | 'status'>>,
+): Promise<void> {
   const cols: Record<string, unknown> = { ...patch };
   if (patch.geometry) cols.geometry = JSON.stringify(patch.geometry);
   await db('hazards').where({ id }).update(cols);
@@ -115,7 +133,10 @@ export const deleteHazard = (db: Tx, id: number) => db('hazards').where({ id }).
 export const cropPlans = (db: Tx, farmId: number, season: number) =>
   db<DbCropPlanRow>('crop_plans').where({ farm_id: farmId, season }).orderBy('field_id');
 
-export async function upsertCropPlan(db: Tx, p: { farmId: number; fieldId: number; season: number; crop: string; varietyNote: string | null }): Promise<void> {
+export async function upsertCropPlan(
+  db: Tx,
+  p: { farmId: number; fieldId: number; season: number; crop: string; varietyNote: string | null },
+): Promise<void> {
   await db('crop_plans')
     .insert({ farm_id: p.farmId, field_id: p.fieldId, season: p.season, crop: p.crop, variety_note: p.varietyNote })
     .onConflict(['field_id', 'season'])

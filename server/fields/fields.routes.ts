@@ -25,7 +25,10 @@ import { body, params, query } from '../http/validate';
 import * as fields from './fields.service';
 import { previewImport, saveImport } from './import/import.service';
 
-const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: MAX_UPLOAD_BYTES, files: 1, fields: 10, fieldSize: 256 * 1024 } });
+const upload = multer({
+  storage: multer.memoryStorage(),
+  limits: { fileSize: MAX_UPLOAD_BYTES, files: 1, fields: 10, fieldSize: 256 * 1024 },
+});
 
 /** The season asked for (`?season=`), else the farm's current one (the year at the farm). */
 const seasonOf = (req: Request): number => query(req, seasonQuery).season ?? fields.currentSeason(principal(req).timeZone);

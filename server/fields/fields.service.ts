@@ -15,7 +15,9 @@ import { yearIn } from '../../shared/calendar';
 export const currentSeason = (timeZone: string): number => yearIn(timeZone);
 
 const nameTaken = (name: string) =>
-  new AppError(409, 'name_taken', `There is already a field called "${name}" on this farm; choose another name`, { name: 'Name already used' });
+  new AppError(409, 'name_taken', `There is already a field called "${name}" on this farm; choose another name`, {
+    name: 'Name already used',
+  });
 
 export function hazardFeature(h: repo.DbHazardRow): Feature<Geometry> {
   return {
@@ -25,7 +27,6 @@ export function hazardFeature(h: repo.DbHazardRow): Feature<Geometry> {
     properties: { id: h.id, fieldId: h.field_id, kind: h.kind, clearanceM: h.clearance_m, note: h.note, status: h.status },
   };
 }
-
 
 export async function listFields(deps: AppDeps, farmId: number, season: number): Promise<FieldSummary[]> {
   const rows = await repo.listFields(deps.db, farmId, season);
@@ -45,7 +46,11 @@ export async function getField(deps: AppDeps, farmId: number, id: number, season
   const f = await repo.getField(deps.db, farmId, id);
   if (!f) throw notFound('That field');
   const hazards = await repo.hazardsOfField(deps.db, farmId, id);
-  const crops = await deps.db('crop_plans').where({ field_id: id }).orderBy('season', 'desc').select('season', 'crop', 'variety_note as varietyNote');
+  const crops = await deps
+    .db('crop_plans')
+    .where({ field_id: id })
+    .orderBy('season', 'desc')
+    .select('season', 'crop', 'variety_note as varietyNote');
   return {
     id: f.id,
     name: f.name,
@@ -72,14 +77,26 @@ export async function createField(
   const m = measured ?? (await measureBoundary(deps.compute, input.boundary, input.name));
   if (await repo.fieldNameTaken(db, farmId, input.name)) throw nameTaken(input.name);
   try {
-    return await repo.insertField(db, { farmId, name: input.name, boundary: m.boundary, areaM2: m.areaM2, acres: m.acres, notes: input.notes });
+    return await repo.insertField(db, {
+      farmId,
+      name: input.name,
+      boundary: m.boundary,
+      areaM2: m.areaM2,
+      acres: m.acres,
+      notes: input.notes,
+    });
   } catch (err) {
     if ((err as { code?: string }).code === '23505') throw nameTaken(input.name);
     throw err;
   }
 }
 
-export async function updateField(deps: AppDeps, farmId: number, id: number, patch: { name?: string; boundary?: unknown; notes?: string | null }): Promise<void> {
+export async function updateField(
+  deps: AppDeps,
+  farmId: number,
+  id: number,
+  patch: { name?: string; boundary?: unknown; notes?: string | null },
+): Promise<void> {
   const f = await repo.getField(deps.db, farmId, id);
   if (!f) throw notFound('That field');
   const name = patch.name ?? f.name;
@@ -112,7 +129,15 @@ export async function addHazard(
 ): Promise<Feature> {
   await fieldOr404(deps, farmId, fieldId);
   const geometry = checkHazardGeometry(h.geometry);
-  const id = await repo.insertHazard(deps.db, { farm_id: farmId, field_id: fieldId, kind: h.kind, geometry, clearance_m: h.clearanceM, note: h.note ?? null, status });
+  const id = await repo.insertHazard(deps.db, {
+    farm_id: farmId,
+    field_id: fieldId,
+    kind: h.kind,
+    geometry,
+    clearance_m: h.clearanceM,
+    note: h.note ?? null,
+    status,
+  });
   return hazardFeature((await repo.getHazard(deps.db, farmId, fieldId, id))!);
 }
 
@@ -141,7 +166,14 @@ export async function deleteHazard(deps: AppDeps, farmId: number, fieldId: numbe
   await repo.deleteHazard(deps.db, id);
 }
 
-export async function setCropPlan(deps: AppDeps, farmId: number, fieldId: number, season: number, crop: string, varietyNote: string | null): Promise<void> {
+export async function setCropPlan(
+  deps: AppDeps,
+  farmId: number,
+  fieldId: number,
+  season: number,
+  crop: string,
+  varietyNote: string | null,
+): Promise<void> {
   await fieldOr404(deps, farmId, fieldId);
   await repo.upsertCropPlan(deps.db, { farmId, fieldId, season, crop, varietyNote });
 }
@@ -169,7 +201,15 @@ export async function exportGeoJson(deps: AppDeps, farmId: number, season: numbe
   const features: Feature[] = fields.map((f) => ({
     type: 'Feature',
     geometry: f.boundary as Polygon | MultiPolygon,
-    properties: { type: 'field', id: f.id, name: f.name, acres: roundTo(f.acres, 4), hectares: roundTo(acresToHa(f.acres), 4), crop: f.crop, season },
+    properties: {
+      type: 'field',
+      id: f.id,
+      name: f.name,
+      acres: roundTo(f.acres, 4),
+      hectares: roundTo(acresToHa(f.acres), 4),
+      crop: f.crop,
+      season,
+    },
   }));
   for (const h of hazards) {
     const feat = hazardFeature(h);

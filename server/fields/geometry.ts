@@ -25,7 +25,9 @@ const HAZARD_TYPES = new Set(['Point', 'LineString', 'Polygon', 'MultiPoint', 'M
 export function checkHazardGeometry(geometry: unknown): Geometry {
   const g = geometry as { type?: unknown; coordinates?: unknown };
   if (!g || typeof g.type !== 'string' || !HAZARD_TYPES.has(g.type)) {
-    throw new AppError(422, 'bad_hazard', `A hazard must be a point, a line or an area, not ${String(g?.type ?? 'nothing')}`, { geometry: 'Draw a point, a line or an area' });
+    throw new AppError(422, 'bad_hazard', `A hazard must be a point, a line or an area, not ${String(g?.type ?? 'nothing')}`, {
+      geometry: 'Draw a point, a line or an area',
+    });
   }
   if (g.type === 'Polygon' || g.type === 'MultiPolygon') {
     const problems = checkBoundary(g, 'the hazard area');
@@ -40,7 +42,8 @@ export function checkHazardGeometry(geometry: unknown): Geometry {
   };
   const depth = { Point: 0, LineString: 1, MultiPoint: 1, MultiLineString: 2 }[g.type] as number;
   walk(g.coordinates, depth);
-  if (flat.length === 0 || (g.type === 'LineString' && flat.length < 2)) throw new AppError(422, 'bad_hazard', 'The hazard has too few positions');
+  if (flat.length === 0 || (g.type === 'LineString' && flat.length < 2))
+    throw new AppError(422, 'bad_hazard', 'The hazard has too few positions');
   flat.forEach((p, i) => {
     const ok = Array.isArray(p) && p.length >= 2 && p.every((n) => typeof n === 'number' && Number.isFinite(n));
     if (!ok || Math.abs((p as number[])[0]) > 180 || Math.abs((p as number[])[1]) > 90) {

@@ -21,12 +21,14 @@ export function heavyWork(perMinute: number): RequestHandler[] {
     standardHeaders: 'draft-8',
     legacyHeaders: false,
     keyGenerator: personKey,
-    handler: (_req, _res, next) => next(new AppError(429, 'rate_limited', `You started more than ${perMinute} of these in a minute; wait a minute and try again`)),
+    handler: (_req, _res, next) =>
+      next(new AppError(429, 'rate_limited', `You started more than ${perMinute} of these in a minute; wait a minute and try again`)),
   });
   const oneAtATime: RequestHandler = (req, res, next) => {
     const id = req.user?.id ?? 0;
     const now = running.get(id) ?? 0;
-    if (now >= MAX_RUNNING_PER_PERSON) throw new AppError(429, 'busy_for_you', 'Your earlier request is still being worked out; wait for it to finish');
+    if (now >= MAX_RUNNING_PER_PERSON)
+      throw new AppError(429, 'busy_for_you', 'Your earlier request is still being worked out; wait for it to finish');
     running.set(id, now + 1);
     res.once('close', () => {
       const left = (running.get(id) ?? 1) - 1;

@@ -3,7 +3,6 @@ import type { Member, Role } from '../../shared/schemas/auth';
 import type { Tx } from '../db/knex';
 import type { DbMembershipRow } from '../db/rows';
 
-
 const columns = (db: Tx) => [
   'm.id',
   db.raw(`CASE WHEN m.status = 'invited' THEN NULL ELSE m.user_id END as "userId"`),

@@ -25,18 +25,47 @@ export async function invite(deps: AppDeps, by: SessionPrincipal, input: { email
     const existing = await repo.findMembershipOfUser(tx, by.farmId, user.id);
     let membershipId: number;
     if (existing && existing.status !== 'removed') {
-      throw new AppError(409, 'already_member', `${input.email} is already ${existing.status === 'invited' ? 'invited to' : 'a member of'} this farm`, { email: 'Already on this farm' });
+      throw new AppError(
+        409,
+        'already_member',
+        `${input.email} is already ${existing.status === 'invited' ? 'invited to' : 'a member of'} this farm`,
+        { email: 'Already on this farm' },
+      );
     } else if (existing) {
       await repo.updateMembership(tx, existing.id, { role: input.role, status: 'invited', reinvited: true, invitedName: input.name });
       membershipId = existing.id;
     } else {
-      membershipId = await repo.insertMembership(tx, { farmId: by.farmId, userId: user.id, role: input.role, status: 'invited', invitedName: input.name });
+      membershipId = await repo.insertMembership(tx, {
+        farmId: by.farmId,
+        userId: user.id,
+        role: input.role,
+        status: 'invited',
+        invitedName: input.name,
+      });
     }
     await users.voidOpenTokens(tx, user.id, 'invite');
     const token = newToken();
-    await users.insertToken(tx, { userId: user.id, farmId: by.farmId, kind: 'invite', hash: token.hash, expiresAt: new Date(Date.now() + INVITE_DAYS * 86_400_000) });
+    await users.insertToken(tx, {
+      userId: user.id,
+      farmId: by.farmId,
+      kind: 'invite',
+      hash: token.hash,
+      expiresAt: new Date(Date.now() + INVITE_DAYS * 86_400_000),
+    });
     const link = `${deps.config.publicUrl}/accept-invitation?token=${token.raw}`;
-    await enqueueMail(tx, invitationMail({ to: user.email, name: input.name, farmId: by.farmId, farmName: by.farmName, inviter: by.name, role: input.role, link, days: INVITE_DAYS }));
+    await enqueueMail(
+      tx,
+      invitationMail({
+        to: user.email,
+        name: input.name,
+        farmId: by.farmId,
+        farmName: by.farmName,
+        inviter: by.name,
+        role: input.role,
+        link,
+        days: INVITE_DAYS,
+      }),
+    );
     return membershipId;
   });
   deps.nudgeMail();

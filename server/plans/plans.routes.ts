@@ -30,7 +30,10 @@ export function planRoutes(r: Routes, deps: AppDeps): void {
     const p = params(req, planParams);
     const plan = await plans.getPlan(deps, principal(req).farmId, p.fieldId, p.operation);
     const name = `${plan.fieldName}-${plan.operation}-passes.geojson`.replace(/[^A-Za-z0-9._-]+/g, '-');
-    res.set('Content-Disposition', `attachment; filename="${name}"`).type('application/geo+json').send(JSON.stringify(plans.passesGeoJson(plan)));
+    res
+      .set('Content-Disposition', `attachment; filename="${name}"`)
+      .type('application/geo+json')
+      .send(JSON.stringify(plans.passesGeoJson(plan)));
   });
 
   r.put('/:fieldId/:operation', ['owner'], ...saves, async (req, res) => {

@@ -108,7 +108,12 @@ export async function listPlans(deps: AppDeps, farmId: number, fieldId?: number)
   return ((await q) as DbPlanRow[]).map(toSaved);
 }
 
-export async function getPlan(deps: AppDeps, farmId: number, fieldId: number, operation: Operation): Promise<SavedPlan & { result: PlanResult }> {
+export async function getPlan(
+  deps: AppDeps,
+  farmId: number,
+  fieldId: number,
+  operation: Operation,
+): Promise<SavedPlan & { result: PlanResult }> {
   const row = (await plans(deps, farmId).where({ 'p.field_id': fieldId, 'p.operation': operation }).first()) as DbPlanRow | undefined;
   if (!row) throw notFound(`A saved ${OPERATION_INFO[operation].label.toLowerCase()} plan for that field`);
   const saved = toSaved(row);
@@ -128,7 +133,14 @@ export async function getPlan(deps: AppDeps, farmId: number, fieldId: number, op
   return { ...saved, result };
 }
 
-export async function savePlan(deps: AppDeps, farmId: number, userId: number, fieldId: number, operation: Operation, s: Settings): Promise<SavedPlan & { result: PlanResult }> {
+export async function savePlan(
+  deps: AppDeps,
+  farmId: number,
+  userId: number,
+  fieldId: number,
+  operation: Operation,
+  s: Settings,
+): Promise<SavedPlan & { result: PlanResult }> {
   const { field, hazards } = await fieldInput(deps, farmId, fieldId);
   const result = await computePlan(deps, { ...inputOf(s, operation), boundary: field.boundary, hazards, fieldName: field.name });
   if (s.implementId) {
@@ -161,9 +173,14 @@ export async function deletePlan(deps: AppDeps, farmId: number, fieldId: number,
 }
 
 /** The passes as GeoJSON LineStrings for a guidance display: pass number, segment, heading, length. */
-export function passesGeoJson(plan: SavedPlan & { result: PlanResult }): FeatureCollection<LineString, PassProperties & { field: string; operation: string }> {
+export function passesGeoJson(
+  plan: SavedPlan & { result: PlanResult },
+): FeatureCollection<LineString, PassProperties & { field: string; operation: string }> {
   return {
     type: 'FeatureCollection',
-    features: plan.result.passes.features.map((f) => ({ ...f, properties: { ...f.properties, field: plan.fieldName, operation: plan.operation } })),
+    features: plan.result.passes.features.map((f) => ({
+      ...f,
+      properties: { ...f.properties, field: plan.fieldName, operation: plan.operation },
+    })),
   };
 }

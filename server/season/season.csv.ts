@@ -53,7 +53,9 @@ export function seasonCsv(s: SeasonSummary, table: SeasonTable, units: UnitSyste
       return toCsv(
         ['field', 'crop', `field_${area}`, 'operation', `${area}_finished`, 'hours_logged', 'date_finished'],
         s.byField.flatMap((f): Cell[][] => {
-          const ops = Object.entries(f.operations) as Array<[keyof typeof OPERATION_INFO, { acres: number; hours: number; dateFinished: string | null }]>;
+          const ops = Object.entries(f.operations) as Array<
+            [keyof typeof OPERATION_INFO, { acres: number; hours: number; dateFinished: string | null }]
+          >;
           if (!ops.length) return [[f.field, f.crop, a(f.acres), '', 0, 0, '']];
           return ops.map(([op, v]) => [f.field, f.crop, a(f.acres), label(op), a(v.acres), v.hours, v.dateFinished]);
         }),
@@ -62,20 +64,23 @@ export function seasonCsv(s: SeasonSummary, table: SeasonTable, units: UnitSyste
       return toCsv(
         ['person', 'operation', `${area}_finished`, 'hours_logged', `${area}_per_hour`],
         s.byPerson.flatMap((p) =>
-          (Object.entries(p.operations) as Array<[keyof typeof OPERATION_INFO, { acres: number; hours: number }]>).map(([op, v]): Cell[] => [
-            p.name,
-            label(op),
-            a(v.acres),
-            v.hours,
-            v.hours > 0 ? a(v.acres / v.hours) : null,
-          ]),
+          (Object.entries(p.operations) as Array<[keyof typeof OPERATION_INFO, { acres: number; hours: number }]>).map(
+            ([op, v]): Cell[] => [p.name, label(op), a(v.acres), v.hours, v.hours > 0 ? a(v.acres / v.hours) : null],
+          ),
         ),
       );
     case 'machines':
       return toCsv(
         ['machine', 'operation', `${area}_finished`, 'hours_logged', 'engine_hours', `${area}_per_engine_hour`],
         s.byMachine.flatMap((m) =>
-          m.operations.map((o): Cell[] => [m.machine, label(o.operation), a(o.acres), o.hours, o.engineHours, o.engineHours > 0 ? a(o.acres / o.engineHours) : null]),
+          m.operations.map((o): Cell[] => [
+            m.machine,
+            label(o.operation),
+            a(o.acres),
+            o.hours,
+            o.engineHours,
+            o.engineHours > 0 ? a(o.acres / o.engineHours) : null,
+          ]),
         ),
       );
     case 'weekly':

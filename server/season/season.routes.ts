@@ -22,9 +22,14 @@ export function seasonRoutes(r: Routes, deps: AppDeps): void {
 
   r.get('/:year/export/:table.csv', READERS, async (req, res) => {
     const { year, table } = params(req, seasonExportParams);
-    if (!isSeasonTable(table)) throw new AppError(404, 'not_found', `There is no season table called “${table}”; choose one of: ${SEASON_TABLES.join(', ')}`);
+    if (!isSeasonTable(table))
+      throw new AppError(404, 'not_found', `There is no season table called “${table}”; choose one of: ${SEASON_TABLES.join(', ')}`);
     const me = principal(req);
     const csv = seasonCsv(await seasonSummary(deps, me.farmId, year), table, me.units);
-    res.set('Content-Disposition', `attachment; filename="furlong-${year}-${table}.csv"`).set('Cache-Control', 'no-store').type('text/csv; charset=utf-8').send(csv);
+    res
+      .set('Content-Disposition', `attachment; filename="furlong-${year}-${table}.csv"`)
+      .set('Cache-Control', 'no-store')
+      .type('text/csv; charset=utf-8')
+      .send(csv);
   });
 }

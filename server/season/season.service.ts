@@ -20,8 +20,15 @@ import { yearIn } from '../../shared/calendar';
 const ratio = (a: number, b: number | null) => (b && b > 0 ? roundTo(a / b) : null);
 
 export async function seasonSummary(deps: AppDeps, farmId: number, year: number): Promise<SeasonSummary> {
-  const { operationLogs: logs, operationPlans: plans, weeks, fields, fieldOperations: fieldOps, personOperations: personOps, machineOperations: machineOps } =
-    await repo.seasonRows(deps.db, farmId, year);
+  const {
+    operationLogs: logs,
+    operationPlans: plans,
+    weeks,
+    fields,
+    fieldOperations: fieldOps,
+    personOperations: personOps,
+    machineOperations: machineOps,
+  } = await repo.seasonRows(deps.db, farmId, year);
 
   const logOf = new Map(logs.map((l) => [l.operation, l]));
   const planOf = new Map(plans.map((p) => [p.operation, p]));
@@ -54,7 +61,12 @@ export async function seasonSummary(deps: AppDeps, farmId: number, year: number)
   return {
     year,
     operations,
-    weekly: weeks.map((w) => ({ operation: w.operation, week: w.week, acresFinished: roundTo(w.acres), cumulativeAcres: roundTo(w.cumulative) })),
+    weekly: weeks.map((w) => ({
+      operation: w.operation,
+      week: w.week,
+      acresFinished: roundTo(w.acres),
+      cumulativeAcres: roundTo(w.cumulative),
+    })),
     byField: byField(fields, fieldOps),
     byPerson: byPerson(personOps),
     byMachine: byMachine(machineOps),
@@ -72,7 +84,10 @@ export async function seasonSummary(deps: AppDeps, farmId: number, year: number)
 
 function byField(fields: repo.FieldRow[], rows: repo.FieldOperationRow[]): FieldSeason[] {
   const out = new Map<number, FieldSeason>(
-    fields.map((f) => [f.id, { fieldId: f.id, field: f.name, crop: f.crop, acres: roundTo(f.acres), operations: {}, totalAcres: 0, totalHours: 0 }]),
+    fields.map((f) => [
+      f.id,
+      { fieldId: f.id, field: f.name, crop: f.crop, acres: roundTo(f.acres), operations: {}, totalAcres: 0, totalHours: 0 },
+    ]),
   );
   for (const r of [...rows].sort((a, b) => OPERATIONS.indexOf(a.operation) - OPERATIONS.indexOf(b.operation))) {
     const f = out.get(r.field_id);
@@ -87,20 +102,45 @@ function byField(fields: repo.FieldRow[], rows: repo.FieldOperationRow[]): Field
 function byPerson(rows: repo.PersonOperationRow[]): PersonSeason[] {
   const out = new Map<number, PersonSeason>();
   for (const r of rows) {
-    const p = out.get(r.membership_id) ?? { membershipId: r.membership_id, name: r.name, operations: {}, totalAcres: 0, totalHours: 0, acresPerHour: null };
+    const p = out.get(r.membership_id) ?? {
+      membershipId: r.membership_id,
+      name: r.name,
+      operations: {},
+      totalAcres: 0,
+      totalHours: 0,
+      acresPerHour: null,
+    };
     p.operations[r.operation] = { acres: roundTo(r.acres), hours: roundTo(r.hours) };
     p.totalAcres += r.acres;
     p.totalHours += r.hours;
     out.set(r.membership_id, p);
   }
-  return [...out.values()].map((p) => ({ ...p, totalAcres: roundTo(p.totalAcres), totalHours: roundTo(p.totalHours), acresPerHour: ratio(p.totalAcres, p.totalHours) }));
+  return [...out.values()].map((p) => ({
+    ...p,
+    totalAcres: roundTo(p.totalAcres),
+    totalHours: roundTo(p.totalHours),
+    acresPerHour: ratio(p.totalAcres, p.totalHours),
+  }));
 }
 
 function byMachine(rows: repo.MachineOperationRow[]): MachineSeason[] {
   const out = new Map<number, MachineSeason>();
   for (const r of rows) {
-    const m = out.get(r.machine_id) ?? { machineId: r.machine_id, machine: r.name, engineHours: 0, acres: 0, hours: 0, acresPerEngineHour: null, operations: [] };
-    m.operations.push({ operation: r.operation as Operation, acres: roundTo(r.acres), hours: roundTo(r.hours), engineHours: roundTo(r.engine_hours) });
+    const m = out.get(r.machine_id) ?? {
+      machineId: r.machine_id,
+      machine: r.name,
+      engineHours: 0,
+      acres: 0,
+      hours: 0,
+      acresPerEngineHour: null,
+      operations: [],
+    };
+    m.operations.push({
+      operation: r.operation as Operation,
+      acres: roundTo(r.acres),
+      hours: roundTo(r.hours),
+      engineHours: roundTo(r.engine_hours),
+    });
     m.engineHours += r.engine_hours;
     m.acres += r.acres;
     m.hours += r.hours;

@@ -76,6 +76,8 @@ export function bestHeading(clipper: PassClipper, region: PlanarRegion, speedMps
   if (best) return best;
   const fallback = clipper.summary(0);
   if (fallback.overBudget)
-    throw new Error(`At every heading the passes would break into more segments than Furlong plans for one field (${MAX_SEGMENTS.toLocaleString('en-US')}); use a wider working width or a simpler boundary`);
+    throw new Error(
+      `At every heading the passes would break into more segments than Furlong plans for one field (${MAX_SEGMENTS.toLocaleString('en-US')}); use a wider working width or a simpler boundary`,
+    );
   return fallback;
 }

@@ -48,7 +48,9 @@ function checkHazards(hazards: unknown, field: string): FeatureCollection | unde
     if (!type || !HAZARD_TYPES.has(type)) throw new Error(`${where} must be a point, line or area (got ${String(type ?? 'no geometry')})`);
     positions += checkPositions((f.geometry as { coordinates: unknown }).coordinates, where);
     if (positions > MAX_HAZARD_VERTICES)
-      throw new Error(`The hazards of ${field} have more than ${MAX_HAZARD_VERTICES.toLocaleString('en-US')} points together, more than Furlong plans around; simplify them`);
+      throw new Error(
+        `The hazards of ${field} have more than ${MAX_HAZARD_VERTICES.toLocaleString('en-US')} points together, more than Furlong plans around; simplify them`,
+      );
     const c = (f.properties as { clearanceM?: unknown } | null)?.clearanceM;
     if (c !== undefined && c !== null && (!finite(c) || c < 0))
       throw new Error(`${where} has a clearance of ${String(c)} m; it must be a distance of 0 m or more`);

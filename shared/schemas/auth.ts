@@ -16,10 +16,7 @@ export const loginBody = z.object({
 export const forgotBody = z.object({ email });
 
 /** Passwords: at least 10 characters (NIST SP 800-63B allows 8; we ask a little more). */
-export const newPassword = z
-  .string()
-  .min(10, 'Use at least 10 characters')
-  .max(200, 'Use at most 200 characters');
+export const newPassword = z.string().min(10, 'Use at least 10 characters').max(200, 'Use at most 200 characters');
 
 export const setPasswordBody = z.object({
   token: z.string().min(20).max(200),

@@ -17,7 +17,20 @@ export const HAZARD_LABELS: Record<HazardKind, string> = {
   other: 'Other',
 };
 
-export const CROPS = ['spring wheat', 'durum', 'barley', 'oats', 'canola', 'field peas', 'lentils', 'flax', 'sunflowers', 'soybeans', 'corn', 'fallow'] as const;
+export const CROPS = [
+  'spring wheat',
+  'durum',
+  'barley',
+  'oats',
+  'canola',
+  'field peas',
+  'lentils',
+  'flax',
+  'sunflowers',
+  'soybeans',
+  'corn',
+  'fallow',
+] as const;
 
 // Without NUL here too: an import's list of names comes as a multipart form field, not through server/http/validate.
 const fieldName = textWithoutNul('A field name').trim().min(1, 'Give the field a name').max(120, 'Use at most 120 characters');
@@ -66,7 +79,9 @@ export const importQuery = z.object({
 });
 
 /** The owner's choices in an import: which features to save, under which names. */
-export const importSelection = z.array(z.object({ index: z.number().int().min(0), name: fieldName })).min(1, 'Tick at least one field to save');
+export const importSelection = z
+  .array(z.object({ index: z.number().int().min(0), name: fieldName }))
+  .min(1, 'Tick at least one field to save');
 
 export interface FieldSummary {
   id: number;

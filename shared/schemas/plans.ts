@@ -11,7 +11,9 @@ const kinds = Object.keys(IMPLEMENT_DEFAULTS) as [ImplementKind, ...ImplementKin
 export const planSettings = z.object({
   widthM: z.number().positive('The working width must be greater than zero').max(100, 'The working width is at most 100 m (328 ft)'),
   headlandPasses: z.number().int('Headland passes are a whole number').min(0).max(50).optional(),
-  headingDeg: z.union([z.literal('auto'), z.number().min(0, 'The heading is from 0° to 179°').lt(180, 'The heading is from 0° to 179°')]).optional(),
+  headingDeg: z
+    .union([z.literal('auto'), z.number().min(0, 'The heading is from 0° to 179°').lt(180, 'The heading is from 0° to 179°')])
+    .optional(),
   speedMph: z.number().positive().max(60).optional(),
   efficiency: z.number().gt(0).max(1, 'Field efficiency is a fraction up to 1 (e.g. 0.75)').optional(),
   turnSeconds: z.number().min(0).max(600).optional(),
@@ -23,7 +25,10 @@ export const planSettings = z.object({
 export const planPreviewBody = planSettings.extend({
   fieldId: dbIdNumber.optional(),
   boundary: geometry.optional(),
-  hazards: z.object({ type: z.literal('FeatureCollection'), features: z.array(z.unknown()) }).passthrough().optional(),
+  hazards: z
+    .object({ type: z.literal('FeatureCollection'), features: z.array(z.unknown()) })
+    .passthrough()
+    .optional(),
   operation: z.enum(OPERATIONS).optional(),
   fieldName: z.string().max(120).optional(),
 });

@@ -19,7 +19,8 @@ async function queuedFor(t: TestApp, address: string, after = 0): Promise<void> 
     await new Promise((resolve) => setTimeout(resolve, 20));
   }
 }
-const outboxCount = async (t: TestApp, address: string) => Number((await t.db('mail_outbox').where({ to_address: address }).count({ n: '*' }))[0].n);
+const outboxCount = async (t: TestApp, address: string) =>
+  Number((await t.db('mail_outbox').where({ to_address: address }).count({ n: '*' }))[0].n);
 
 describe('sign-in and sessions', () => {
   let t: TestApp;
@@ -49,7 +50,11 @@ describe('sign-in and sessions', () => {
     await c.prime();
     const res = await c.post('/api/auth/login', { email: farm.viewer.email, password: 'wrong-password' });
     expect(res.status).toBe(401);
-    expect(res.body.error).toEqual({ code: 'bad_credentials', message: expect.stringMatching(/do not match/), requestId: res.headers['x-request-id'] });
+    expect(res.body.error).toEqual({
+      code: 'bad_credentials',
+      message: expect.stringMatching(/do not match/),
+      requestId: res.headers['x-request-id'],
+    });
     expect((await c.get('/api/auth/me')).status).toBe(401);
   });
 
@@ -123,7 +128,9 @@ describe('sign-in and sessions', () => {
     const sessions = createSessionStore(t.config.databaseUrl, false);
     try {
       const restarted = createApp({ config: t.config, db: t.db, sessions, nudgeMail: () => undefined, log: () => undefined });
-      const res = await request(restarted).get('/api/auth/me').set('Cookie', `furlong.sid=${encodeURIComponent(sid!)}`);
+      const res = await request(restarted)
+        .get('/api/auth/me')
+        .set('Cookie', `furlong.sid=${encodeURIComponent(sid!)}`);
       expect(res.status).toBe(200);
       expect(res.body.user.email).toBe(farm.owner.email);
     } finally {
@@ -137,7 +144,10 @@ describe('sign-in and sessions', () => {
     const res = await c.agent.post('/api/auth/login').send({ email: farm.owner.email, password: farm.owner.password });
     expect(res.status).toBe(403);
     expect(res.body.error.code).toBe('csrf');
-    const forged = await c.agent.post('/api/auth/login').set('X-XSRF-TOKEN', 'abc.def').send({ email: farm.owner.email, password: farm.owner.password });
+    const forged = await c.agent
+      .post('/api/auth/login')
+      .set('X-XSRF-TOKEN', 'abc.def')
+      .send({ email: farm.owner.email, password: farm.owner.password });
     expect(forged.status).toBe(403);
   });
 
@@ -166,7 +176,10 @@ describe('sign-in and sessions', () => {
     const login = await c.signIn(farm.operator.email, farm.operator.password);
     expect(cookieValue(login.headers['set-cookie'], 'XSRF-TOKEN')).toBe(c.xsrf);
     expect(c.xsrf).not.toBe(anonymous);
-    const stale = await c.agent.post('/api/auth/logout').set('Cookie', `XSRF-TOKEN=${encodeURIComponent(anonymous)}`).set('X-XSRF-TOKEN', anonymous);
+    const stale = await c.agent
+      .post('/api/auth/logout')
+      .set('Cookie', `XSRF-TOKEN=${encodeURIComponent(anonymous)}`)
+      .set('X-XSRF-TOKEN', anonymous);
     expect(stale.status).toBe(403);
     const out = await c.post('/api/auth/logout');
     expect(out.status).toBe(204);
@@ -195,7 +208,8 @@ describe('sign-in and sessions', () => {
       const victim = await makeFarm(proxied.db, 'Lockout');
       const stranger = new Client(proxied.app);
       await stranger.prime();
-      const from = (c: Client, ip: string, password: string) => c.post('/api/auth/login', { email: victim.owner.email, password }).set('X-Forwarded-For', ip);
+      const from = (c: Client, ip: string, password: string) =>
+        c.post('/api/auth/login', { email: victim.owner.email, password }).set('X-Forwarded-For', ip);
       for (let i = 0; i < 5; i++) expect((await from(stranger, '203.0.113.7', `wrong-${i}`)).status).toBe(401);
       const limited = await from(stranger, '203.0.113.7', victim.owner.password);
       expect(limited.status).toBe(429);
@@ -308,7 +322,10 @@ describe('invitations and password resets by e-mail', () => {
     await t.flushMail();
     const mail = await t.mail.waitFor((m) => m.to.includes(late));
     const token = linkIn(mail.text, '/accept-invitation');
-    await t.db('auth_tokens').whereIn('user_id', t.db('users').select('id').where({ email: late })).update({ expires_at: new Date(Date.now() - 1000) });
+    await t
+      .db('auth_tokens')
+      .whereIn('user_id', t.db('users').select('id').where({ email: late }))
+      .update({ expires_at: new Date(Date.now() - 1000) });
     const guest = new Client(t.app);
     await guest.prime();
     const res = await guest.post('/api/auth/set-password', { token, password: 'a-fine-new-password' });
@@ -360,7 +377,10 @@ describe('invitations and password resets by e-mail', () => {
     await guest.post('/api/auth/forgot', { email: farm.owner.email });
     await queuedFor(t, farm.owner.email, queued);
     await t.flushMail();
-    const first = linkIn((await t.mail.waitFor((m) => m.to.includes(farm.owner.email) && m.subject.includes('password'))).text, '/set-password');
+    const first = linkIn(
+      (await t.mail.waitFor((m) => m.to.includes(farm.owner.email) && m.subject.includes('password'))).text,
+      '/set-password',
+    );
     const count = t.mail.to(farm.owner.email).length;
     await guest.post('/api/auth/forgot', { email: farm.owner.email });
     await queuedFor(t, farm.owner.email, queued + 1);
@@ -389,7 +409,12 @@ describe('a new password', () => {
     expect((await phone.get('/api/auth/me')).status).toBe(200);
     expect((await office.get('/api/auth/me')).status).toBe(200);
     const sessionsOf = async () =>
-      (await t.db('session').whereRaw(`(sess->'passport'->'user'->>'userId')::int = ?`, [farm.operator.id]).count<Array<{ count: number }>>('* as count'))[0].count;
+      (
+        await t
+          .db('session')
+          .whereRaw(`(sess->'passport'->'user'->>'userId')::int = ?`, [farm.operator.id])
+          .count<Array<{ count: number }>>('* as count')
+      )[0].count;
     expect(await sessionsOf()).toBeGreaterThanOrEqual(2);
 
     const guest = new Client(t.app);
@@ -398,7 +423,10 @@ describe('a new password', () => {
     await queuedFor(t, farm.operator.email);
     await t.flushMail();
     const mail = await t.mail.waitFor((m) => m.to.includes(farm.operator.email) && m.text.includes('/set-password'));
-    const set = await guest.post('/api/auth/set-password', { token: linkIn(mail.text, '/set-password'), password: 'operator-new-password' });
+    const set = await guest.post('/api/auth/set-password', {
+      token: linkIn(mail.text, '/set-password'),
+      password: 'operator-new-password',
+    });
     expect(set.status).toBe(200);
 
     // At once, though this server had just read those sessions (it keeps them a few seconds).

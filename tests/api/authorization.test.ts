@@ -43,8 +43,14 @@ describe('authorization matrix', () => {
       farm,
       t,
       spareMember: async () => {
-        const [u] = await t.db('users').insert({ email: `spare-${Date.now()}-${Math.random()}@furlong.test`, name: 'Spare' }).returning('id');
-        const [m] = await t.db('memberships').insert({ farm_id: farm.id, user_id: u.id, role: 'operator', status: 'invited' }).returning('id');
+        const [u] = await t
+          .db('users')
+          .insert({ email: `spare-${Date.now()}-${Math.random()}@furlong.test`, name: 'Spare' })
+          .returning('id');
+        const [m] = await t
+          .db('memberships')
+          .insert({ farm_id: farm.id, user_id: u.id, role: 'operator', status: 'invited' })
+          .returning('id');
         return m.id as number;
       },
       spareField: () => spareField({ t, farm }),
@@ -62,7 +68,8 @@ describe('authorization matrix', () => {
         }
         const path = c.path ? await c.path(ctx) : route.path;
         const res = await client[route.method](path, c.body);
-        if (res.status !== c.expect[who]) failures.push(`${key} as ${who}: got ${res.status}, expected ${c.expect[who]} ${JSON.stringify(res.body)}`);
+        if (res.status !== c.expect[who])
+          failures.push(`${key} as ${who}: got ${res.status}, expected ${c.expect[who]} ${JSON.stringify(res.body)}`);
         if (res.status >= 400) expect(res.body.error?.message).toEqual(expect.any(String));
       }
     }

@@ -22,9 +22,15 @@ describe('bad input gets the error shape and stores nothing', () => {
 
   it('when the body is malformed JSON, then 400 bad_json', async () => {
     const before = await memberCount();
-    const res = await owner.agent.post('/api/members/invite').set('X-XSRF-TOKEN', owner.xsrf).set('Content-Type', 'application/json').send('{"email": "a@b.c",');
+    const res = await owner.agent
+      .post('/api/members/invite')
+      .set('X-XSRF-TOKEN', owner.xsrf)
+      .set('Content-Type', 'application/json')
+      .send('{"email": "a@b.c",');
     expect(res.status).toBe(400);
-    expect(res.body).toEqual({ error: { code: 'bad_json', message: 'The request body is not valid JSON', requestId: res.headers['x-request-id'] } });
+    expect(res.body).toEqual({
+      error: { code: 'bad_json', message: 'The request body is not valid JSON', requestId: res.headers['x-request-id'] },
+    });
     expect(await memberCount()).toBe(before);
   });
 
@@ -62,7 +68,11 @@ describe('bad input gets the error shape and stores nothing', () => {
   it('when an API path does not exist, then a JSON 404', async () => {
     const res = await owner.get('/api/no-such-thing');
     expect(res.status).toBe(404);
-    expect(res.body.error).toEqual({ code: 'not_found', message: 'There is no API at GET /no-such-thing', requestId: res.headers['x-request-id'] });
+    expect(res.body.error).toEqual({
+      code: 'not_found',
+      message: 'There is no API at GET /no-such-thing',
+      requestId: res.headers['x-request-id'],
+    });
   });
 
   it('when the password is too short, then 400 says how long it must be', async () => {
@@ -73,7 +83,11 @@ describe('bad input gets the error shape and stores nothing', () => {
 
   describe('numbers too large to be an id, and text with a NUL character', () => {
     // These used to reach PostgreSQL, fail there and answer 500 with the SQL in the log.
-    const expect400 = (res: { status: number; body: { error: { code: string; message: string; fields?: Record<string, string> } } }, field: string, text: RegExp) => {
+    const expect400 = (
+      res: { status: number; body: { error: { code: string; message: string; fields?: Record<string, string> } } },
+      field: string,
+      text: RegExp,
+    ) => {
       expect(res.status).toBe(400);
       expect(res.body.error.code).toBe('invalid_input');
       expect(res.body.error.message).toMatch(text);
@@ -108,13 +122,25 @@ describe('bad input gets the error shape and stores nothing', () => {
 
     it('when a form field holds a NUL character, then 400 names the field and nothing is stored', async () => {
       const before = Number((await t.db('fields').where({ farm_id: farm.id }).count({ n: '*' }))[0].n);
-      expect400(await owner.post('/api/fields', { name: `North${NUL}quarter`, boundary: rect(-99.5, 47.2, 0.01, 0.01) }), 'name', /name must not contain a NUL character/);
+      expect400(
+        await owner.post('/api/fields', { name: `North${NUL}quarter`, boundary: rect(-99.5, 47.2, 0.01, 0.01) }),
+        'name',
+        /name must not contain a NUL character/,
+      );
       expect(Number((await t.db('fields').where({ farm_id: farm.id }).count({ n: '*' }))[0].n)).toBe(before);
       const members = await memberCount();
-      expect400(await owner.post('/api/members/invite', { email: 'nul@furlong.test', name: `Nul${NUL}`, role: 'viewer' }), 'name', /NUL character/);
+      expect400(
+        await owner.post('/api/members/invite', { email: 'nul@furlong.test', name: `Nul${NUL}`, role: 'viewer' }),
+        'name',
+        /NUL character/,
+      );
       expect(await memberCount()).toBe(members);
       // Deep inside a body, and in a key: still named, still 400.
-      expect400(await owner.post('/api/fields', { name: 'Deep', boundary: { ...rect(-99.5, 47.2, 0.01, 0.01), extra: [{ note: `x${NUL}` }] } }), 'boundary.extra.0.note', /NUL/);
+      expect400(
+        await owner.post('/api/fields', { name: 'Deep', boundary: { ...rect(-99.5, 47.2, 0.01, 0.01), extra: [{ note: `x${NUL}` }] } }),
+        'boundary.extra.0.note',
+        /NUL/,
+      );
     });
 
     it('when the address or the query holds a NUL character, then 400', async () => {
@@ -125,7 +151,10 @@ describe('bad input gets the error shape and stores nothing', () => {
 
     it('when the names chosen in an import (a multipart form field) hold a NUL character, then 400 and nothing is saved', async () => {
       const before = Number((await t.db('fields').where({ farm_id: farm.id }).count({ n: '*' }))[0].n);
-      const geojson = JSON.stringify({ type: 'FeatureCollection', features: [{ type: 'Feature', properties: { name: 'Home' }, geometry: rect(-99.4, 47.3, 0.01, 0.01) }] });
+      const geojson = JSON.stringify({
+        type: 'FeatureCollection',
+        features: [{ type: 'Feature', properties: { name: 'Home' }, geometry: rect(-99.4, 47.3, 0.01, 0.01) }],
+      });
       const res = await owner.agent
         .post('/api/fields/import')
         .set('X-XSRF-TOKEN', owner.xsrf)

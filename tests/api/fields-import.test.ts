@@ -17,7 +17,11 @@ const UTM14N_WKT =
   'PARAMETER["False_Northing",0.0],PARAMETER["Central_Meridian",-99.0],PARAMETER["Scale_Factor",0.9996],PARAMETER["Latitude_Of_Origin",0.0],UNIT["Meter",1.0]]';
 const UTM14N = '+proj=utm +zone=14 +datum=WGS84 +units=m +no_defs';
 
-const feature = (name: string, geometry: Polygon | MultiPolygon): Feature => ({ type: 'Feature', properties: { name, crop: 'durum' }, geometry });
+const feature = (name: string, geometry: Polygon | MultiPolygon): Feature => ({
+  type: 'Feature',
+  properties: { name, crop: 'durum' },
+  geometry,
+});
 
 /** Three invented fields: a plain one, one with a hole, one in two parts (one with a hole). */
 function threeFields(tag: string): FeatureCollection {
@@ -46,7 +50,9 @@ function mapCoords(g: Polygon | MultiPolygon, f: (p: Position) => Position): Pol
 async function shapefileZip(fc: FeatureCollection, prj?: string): Promise<Buffer> {
   const multi: FeatureCollection = {
     type: 'FeatureCollection',
-    features: fc.features.map((f) => (f.geometry.type === 'Polygon' ? { ...f, geometry: { type: 'MultiPolygon', coordinates: [f.geometry.coordinates] } } : f)),
+    features: fc.features.map((f) =>
+      f.geometry.type === 'Polygon' ? { ...f, geometry: { type: 'MultiPolygon', coordinates: [f.geometry.coordinates] } } : f,
+    ),
   };
   const out = await shpwrite.zip(multi, { outputType: 'nodebuffer', ...(prj ? { prj } : {}) } as never);
   return out as unknown as Buffer;
@@ -169,7 +175,12 @@ describe('importing boundary files', () => {
   });
 
   describe('bad files are refused with a clear message and save nothing', () => {
-    const refused = async (res: { status: number; body: { error: { message: string } } }, status: number, message: RegExp, before: number) => {
+    const refused = async (
+      res: { status: number; body: { error: { message: string } } },
+      status: number,
+      message: RegExp,
+      before: number,
+    ) => {
       expect(res.status).toBe(status);
       expect(res.body.error.message).toMatch(message);
       expect(await count()).toBe(before);
@@ -178,7 +189,15 @@ describe('importing boundary files', () => {
     it('when one of three fields crosses itself, then nothing is saved and the crossing is named', async () => {
       const before = await count();
       const fc = threeFields('Bad');
-      (fc.features[1].geometry as Polygon).coordinates = [[[-99.93, 47.61], [-99.92, 47.62], [-99.92, 47.61], [-99.93, 47.62], [-99.93, 47.61]]];
+      (fc.features[1].geometry as Polygon).coordinates = [
+        [
+          [-99.93, 47.61],
+          [-99.92, 47.62],
+          [-99.92, 47.61],
+          [-99.93, 47.62],
+          [-99.93, 47.61],
+        ],
+      ];
       const res = await upload('bad.geojson', JSON.stringify(fc));
       await refused(res, 422, /Nothing was saved.*"Bad Slough".*crosses itself near 47\.615\d*° N, 99\.925\d*° W/, before);
     });
@@ -209,16 +228,30 @@ describe('importing boundary files', () => {
       await refused(await upload('x.zip', buf), 422, /damaged/, await count());
     });
     it('when the KML is corrupt, then 422', async () => {
-      await refused(await upload('x.kml', '<?xml version="1.0"?><kml><Document><Placemark><name>A</name></Document>'), 422, /KML file is damaged/, await count());
+      await refused(
+        await upload('x.kml', '<?xml version="1.0"?><kml><Document><Placemark><name>A</name></Document>'),
+        422,
+        /KML file is damaged/,
+        await count(),
+      );
     });
     it('when the GeoJSON holds a point where a boundary is expected, then 422 names the feature', async () => {
-      const fc: FeatureCollection = { type: 'FeatureCollection', features: [{ type: 'Feature', properties: { name: 'Pump' }, geometry: { type: 'Point', coordinates: [-99.9, 47.6] } }] };
+      const fc: FeatureCollection = {
+        type: 'FeatureCollection',
+        features: [{ type: 'Feature', properties: { name: 'Pump' }, geometry: { type: 'Point', coordinates: [-99.9, 47.6] } }],
+      };
       await refused(await upload('p.geojson', JSON.stringify(fc)), 422, /feature 1 \("Pump"\) is a point/, await count());
     });
     it('when a field of the file is already on the farm, then 422 and nothing is saved', async () => {
-      await upload('first.geojson', JSON.stringify({ type: 'FeatureCollection', features: [feature('Twice Field', rect(-99.8, 47.7, 0.01, 0.01))] }));
+      await upload(
+        'first.geojson',
+        JSON.stringify({ type: 'FeatureCollection', features: [feature('Twice Field', rect(-99.8, 47.7, 0.01, 0.01))] }),
+      );
       const before = await count();
-      const fc = { type: 'FeatureCollection', features: [feature('Fresh Field', rect(-99.7, 47.7, 0.01, 0.01)), feature('Twice Field', rect(-99.6, 47.7, 0.01, 0.01))] };
+      const fc = {
+        type: 'FeatureCollection',
+        features: [feature('Fresh Field', rect(-99.7, 47.7, 0.01, 0.01)), feature('Twice Field', rect(-99.6, 47.7, 0.01, 0.01))],
+      };
       await refused(await upload('again.geojson', JSON.stringify(fc)), 422, /already exists on this farm/, before);
     });
     it('when the coordinates are latitude-first, then 422 says they look swapped', async () => {

@@ -29,7 +29,10 @@ describe('fields', () => {
     expect(res.body.boundary).toEqual(boundary);
     expect(res.body.hazards).toEqual({ type: 'FeatureCollection', features: [] });
     const list = await operator.get('/api/fields');
-    expect(list.body.find((f: { name: string }) => f.name === 'Home Quarter')).toMatchObject({ acres: Math.round(want * 100) / 100, hazardCount: 0 });
+    expect(list.body.find((f: { name: string }) => f.name === 'Home Quarter')).toMatchObject({
+      acres: Math.round(want * 100) / 100,
+      hazardCount: 0,
+    });
   });
 
   it('when a field has several parts, then their acres are added', async () => {
@@ -51,24 +54,83 @@ describe('fields', () => {
   const badBoundaries: Array<[string, unknown, RegExp]> = [
     [
       'a self-intersecting ring (a bow tie)',
-      { type: 'Polygon', coordinates: [[[-99.9, 47.6], [-99.89, 47.61], [-99.89, 47.6], [-99.9, 47.61], [-99.9, 47.6]]] },
+      {
+        type: 'Polygon',
+        coordinates: [
+          [
+            [-99.9, 47.6],
+            [-99.89, 47.61],
+            [-99.89, 47.6],
+            [-99.9, 47.61],
+            [-99.9, 47.6],
+          ],
+        ],
+      },
       /crosses itself near 47\.605\d*° N, 99\.895\d*° W/,
     ],
-    ['a ring of three positions', { type: 'Polygon', coordinates: [[[-99.9, 47.6], [-99.89, 47.6], [-99.9, 47.6]]] }, /has 3 positions; a closed ring needs at least 4/],
-    ['a ring that is not closed', { type: 'Polygon', coordinates: [[[-99.9, 47.6], [-99.89, 47.6], [-99.89, 47.61], [-99.9, 47.61]]] }, /not closed|does not end where it starts/i],
-    ['a longitude beyond 180', { type: 'Polygon', coordinates: [[[-199.9, 47.6], [-99.89, 47.6], [-99.89, 47.61], [-199.9, 47.6]]] }, /outside|range|180/i],
-    ['latitude and longitude swapped', { type: 'Polygon', coordinates: [rect(-99.9, 47.6, 0.01, 0.01).coordinates[0].map(([x, y]) => [y, x])] }, /swapped/i],
+    [
+      'a ring of three positions',
+      {
+        type: 'Polygon',
+        coordinates: [
+          [
+            [-99.9, 47.6],
+            [-99.89, 47.6],
+            [-99.9, 47.6],
+          ],
+        ],
+      },
+      /has 3 positions; a closed ring needs at least 4/,
+    ],
+    [
+      'a ring that is not closed',
+      {
+        type: 'Polygon',
+        coordinates: [
+          [
+            [-99.9, 47.6],
+            [-99.89, 47.6],
+            [-99.89, 47.61],
+            [-99.9, 47.61],
+          ],
+        ],
+      },
+      /not closed|does not end where it starts/i,
+    ],
+    [
+      'a longitude beyond 180',
+      {
+        type: 'Polygon',
+        coordinates: [
+          [
+            [-199.9, 47.6],
+            [-99.89, 47.6],
+            [-99.89, 47.61],
+            [-199.9, 47.6],
+          ],
+        ],
+      },
+      /outside|range|180/i,
+    ],
+    [
+      'latitude and longitude swapped',
+      { type: 'Polygon', coordinates: [rect(-99.9, 47.6, 0.01, 0.01).coordinates[0].map(([x, y]) => [y, x])] },
+      /swapped/i,
+    ],
     ['a point where a boundary is expected', { type: 'Point', coordinates: [-99.9, 47.6] }, /Point/],
   ];
 
-  it.each(badBoundaries)('when the boundary is %s, then 422 says what and where, and nothing is saved', async (_what, boundary, message) => {
-    const before = await fieldCount();
-    const res = await owner.post('/api/fields', { name: `Bad ${Math.random()}`, boundary });
-    expect(res.status).toBe(422);
-    expect(res.body.error.code).toBe('bad_boundary');
-    expect(res.body.error.message).toMatch(message);
-    expect(await fieldCount()).toBe(before);
-  });
+  it.each(badBoundaries)(
+    'when the boundary is %s, then 422 says what and where, and nothing is saved',
+    async (_what, boundary, message) => {
+      const before = await fieldCount();
+      const res = await owner.post('/api/fields', { name: `Bad ${Math.random()}`, boundary });
+      expect(res.status).toBe(422);
+      expect(res.body.error.code).toBe('bad_boundary');
+      expect(res.body.error.message).toMatch(message);
+      expect(await fieldCount()).toBe(before);
+    },
+  );
 
   it('when the owner edits the boundary, then the acres are measured again', async () => {
     const created = await owner.post('/api/fields', { name: 'Grows', boundary: rect(-99.7, 47.6, 0.01, 0.01) });
@@ -80,9 +142,24 @@ describe('fields', () => {
 
   it('when the owner marks hazards, then they come back as GeoJSON features with kind, clearance and note', async () => {
     const f = await owner.post('/api/fields', { name: 'Bin Site', boundary: rect(-99.6, 47.6, 0.01, 0.01) });
-    const bin = await owner.post(`/api/fields/${f.body.id}/hazards`, { kind: 'bin', geometry: { type: 'Point', coordinates: [-99.595, 47.605] }, clearanceM: 15, note: 'Three bins and an auger' });
+    const bin = await owner.post(`/api/fields/${f.body.id}/hazards`, {
+      kind: 'bin',
+      geometry: { type: 'Point', coordinates: [-99.595, 47.605] },
+      clearanceM: 15,
+      note: 'Three bins and an auger',
+    });
     expect(bin.status).toBe(201);
-    const line = await owner.post(`/api/fields/${f.body.id}/hazards`, { kind: 'power', geometry: { type: 'LineString', coordinates: [[-99.6, 47.602], [-99.59, 47.602]] }, clearanceM: 10 });
+    const line = await owner.post(`/api/fields/${f.body.id}/hazards`, {
+      kind: 'power',
+      geometry: {
+        type: 'LineString',
+        coordinates: [
+          [-99.6, 47.602],
+          [-99.59, 47.602],
+        ],
+      },
+      clearanceM: 10,
+    });
     expect(line.status).toBe(201);
     const field = await operator.get(`/api/fields/${f.body.id}`);
     expect(field.body.hazards.features).toHaveLength(2);
@@ -95,9 +172,17 @@ describe('fields', () => {
 
   it('when a hazard is malformed, then 422 and nothing is saved', async () => {
     const f = await owner.post('/api/fields', { name: 'Rocky', boundary: rect(-99.5, 47.6, 0.01, 0.01) });
-    const res = await owner.post(`/api/fields/${f.body.id}/hazards`, { kind: 'rock', geometry: { type: 'Point', coordinates: [-99.5, 147.6] }, clearanceM: 3 });
+    const res = await owner.post(`/api/fields/${f.body.id}/hazards`, {
+      kind: 'rock',
+      geometry: { type: 'Point', coordinates: [-99.5, 147.6] },
+      clearanceM: 3,
+    });
     expect(res.status).toBe(422);
-    const neg = await owner.post(`/api/fields/${f.body.id}/hazards`, { kind: 'rock', geometry: { type: 'Point', coordinates: [-99.5, 47.6] }, clearanceM: -3 });
+    const neg = await owner.post(`/api/fields/${f.body.id}/hazards`, {
+      kind: 'rock',
+      geometry: { type: 'Point', coordinates: [-99.5, 47.6] },
+      clearanceM: -3,
+    });
     expect(neg.status).toBe(400);
     expect(await t.db('hazards').where({ field_id: f.body.id }).count({ n: '*' })).toEqual([{ n: 0 }]);
   });
@@ -119,9 +204,15 @@ describe('fields', () => {
     expect(res.headers['content-type']).toMatch(/application\/geo\+json/);
     const fc = JSON.parse(res.text);
     expect(fc.type).toBe('FeatureCollection');
-    const names = fc.features.filter((f: { properties: { type: string } }) => f.properties.type === 'field').map((f: { properties: { name: string } }) => f.properties.name);
+    const names = fc.features
+      .filter((f: { properties: { type: string } }) => f.properties.type === 'field')
+      .map((f: { properties: { name: string } }) => f.properties.name);
     expect(names).toEqual(expect.arrayContaining(['Home Quarter', 'Bin Site']));
-    expect(fc.features.some((f: { properties: { type: string; kind: string } }) => f.properties.type === 'hazard' && f.properties.kind === 'bin')).toBe(true);
+    expect(
+      fc.features.some(
+        (f: { properties: { type: string; kind: string } }) => f.properties.type === 'hazard' && f.properties.kind === 'bin',
+      ),
+    ).toBe(true);
   });
 
   it('when the operator tries to change a field, then 403 and nothing changes', async () => {
@@ -153,8 +244,14 @@ describe('the last operation on each field', () => {
     await owner.signIn(farm.owner.email, farm.owner.password);
     const field = (await owner.post('/api/fields', { name: 'Worked Field', boundary: rect(-99.9, 47.6, 0.01, 0.01) })).body;
     const idle = (await owner.post('/api/fields', { name: 'Idle Field', boundary: rect(-99.8, 47.6, 0.01, 0.01) })).body;
-    const [machine] = await t.db('machines').insert({ farm_id: farm.id, name: 'Tractor', kind: 'tractor-4wd', power_hp: 400 }).returning('id');
-    const [implement] = await t.db('implements').insert({ farm_id: farm.id, name: 'Harrow', kind: 'harrow', width_m: 25.6, operations: ['harrowing'] }).returning('id');
+    const [machine] = await t
+      .db('machines')
+      .insert({ farm_id: farm.id, name: 'Tractor', kind: 'tractor-4wd', power_hp: 400 })
+      .returning('id');
+    const [implement] = await t
+      .db('implements')
+      .insert({ farm_id: farm.id, name: 'Harrow', kind: 'harrow', width_m: 25.6, operations: ['harrowing'] })
+      .returning('id');
     const job = (day: string, operation: string, state: string) => ({
       farm_id: farm.id,
       day,
@@ -168,7 +265,13 @@ describe('the last operation on each field', () => {
       acres_planned: 10,
       acres_done: state === 'finished' ? 10 : null,
     });
-    await t.db('assignments').insert([job('2026-04-20', 'harrowing', 'finished'), job('2026-05-02', 'seeding', 'finished'), job('2026-06-01', 'spraying', 'planned')]);
+    await t
+      .db('assignments')
+      .insert([
+        job('2026-04-20', 'harrowing', 'finished'),
+        job('2026-05-02', 'seeding', 'finished'),
+        job('2026-06-01', 'spraying', 'planned'),
+      ]);
     const list = (await owner.get('/api/fields')).body;
     expect(list.find((f: { id: number }) => f.id === field.id).lastOperation).toEqual({ operation: 'seeding', date: '2026-05-02' });
     expect(list.find((f: { id: number }) => f.id === idle.id).lastOperation).toBeNull();

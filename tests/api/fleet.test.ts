@@ -199,19 +199,17 @@ describe('fleet and crew', () => {
         acres: 1,
       })
       .returning('id');
-    await t
-      .db('assignments')
-      .insert({
-        farm_id: farm.id,
-        day: '2026-05-01',
-        field_id: f.id,
-        operation: 'harrowing',
-        operator_id: farm.operator.membershipId,
-        machine_id: m.body.id,
-        implement_id: i.body.id,
-        run_order: 1,
-        acres_planned: 1,
-      });
+    await t.db('assignments').insert({
+      farm_id: farm.id,
+      day: '2026-05-01',
+      field_id: f.id,
+      operation: 'harrowing',
+      operator_id: farm.operator.membershipId,
+      machine_id: m.body.id,
+      implement_id: i.body.id,
+      run_order: 1,
+      acres_planned: 1,
+    });
     const res = await owner.delete(`/api/fleet/machines/${m.body.id}`);
     expect(res.status).toBe(409);
     expect(res.body.error.message).toMatch(/Old MFWD has jobs/);

@@ -37,7 +37,9 @@ describe('GET /api/health', () => {
 
 describe('configuration', () => {
   it('when production starts without a session secret, then it refuses with a clear message', () => {
-    expect(() => loadConfig({ NODE_ENV: 'production', DATABASE_URL: 'postgres://a@127.0.0.1/b', SMTP_URL: 'smtp://127.0.0.1:25' })).toThrow(/SESSION_SECRET is required in production/);
+    expect(() => loadConfig({ NODE_ENV: 'production', DATABASE_URL: 'postgres://a@127.0.0.1/b', SMTP_URL: 'smtp://127.0.0.1:25' })).toThrow(
+      /SESSION_SECRET is required in production/,
+    );
   });
   it('when the session secret is short, then it refuses', () => {
     expect(() => loadConfig({ DATABASE_URL: 'postgres://a@127.0.0.1/b', SESSION_SECRET: 'short' })).toThrow(/at least 32 characters/);

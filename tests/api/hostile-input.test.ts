@@ -78,7 +78,11 @@ it('when members send the worst inputs inside and outside the budgets, then the 
   type Req = [what: string, c: HttpClient, method: string, url: string, body?: unknown];
   // Each person runs at most two heavy requests at a time (a third is told to wait): send in waves.
   const wave = async (reqs: Req[]) =>
-    answers.push(...(await Promise.all(reqs.map(([what, c, method, url, body]) => c.request(method, url, body).then((r) => ({ what, status: r.status, body: r.body }))))));
+    answers.push(
+      ...(await Promise.all(
+        reqs.map(([what, c, method, url, body]) => c.request(method, url, body).then((r) => ({ what, status: r.status, body: r.body }))),
+      )),
+    );
   const preview = (body: object) => ['POST', '/api/plans/preview', body] as const;
   const dryRun = (name: string, data: Buffer | string) => ['POST', '/api/fields/import?dryRun=true', upload(name, data)] as const;
 
@@ -98,7 +102,9 @@ it('when members send the worst inputs inside and outside the budgets, then the 
     // The largest comb boundary allowed, and one over the point budget.
     ['comb file at the point budget', owner, ...dryRun('comb.geojson', geojson(combBoundary(Math.floor((MAX_BOUNDARY_VERTICES - 4) / 4))))],
   ]);
-  await wave([['comb file over the point budget', owner, ...dryRun('comb2.geojson', geojson(combBoundary(MAX_BOUNDARY_VERTICES / 4 + 10)))]]);
+  await wave([
+    ['comb file over the point budget', owner, ...dryRun('comb2.geojson', geojson(combBoundary(MAX_BOUNDARY_VERTICES / 4 + 10)))],
+  ]);
 
   measuring = false;
   await measure;
@@ -127,7 +133,9 @@ it('when members send the worst inputs inside and outside the budgets, then the 
   expect(server.child.exitCode).toBeNull();
   expect((await bystander.request('GET', '/api/auth/me')).status).toBe(200);
   const p95 = percentile(latencies, 0.95);
-  console.log(`second member's reads during the hostile requests: ${latencies.length} reads, p95 ${p95.toFixed(0)} ms (ceiling ${P95_CEILING_MS} ms); server memory peak ${maxRss.toFixed(0)} MB (ceiling ${MEMORY_CEILING_MB} MB)`);
+  console.log(
+    `second member's reads during the hostile requests: ${latencies.length} reads, p95 ${p95.toFixed(0)} ms (ceiling ${P95_CEILING_MS} ms); server memory peak ${maxRss.toFixed(0)} MB (ceiling ${MEMORY_CEILING_MB} MB)`,
+  );
   expect(latencies.length).toBeGreaterThan(10);
   expect(p95).toBeLessThan(P95_CEILING_MS);
   expect(maxRss).toBeLessThan(MEMORY_CEILING_MB);

@@ -7,7 +7,12 @@ describe('migrations', () => {
     if (!url) throw new Error('MIGRATION_DATABASE_URL is not set: run with npm test');
     const db = createDb(url);
     const tables = async () =>
-      (await db('information_schema.tables').where({ table_schema: 'public' }).whereNotIn('table_name', ['knex_migrations', 'knex_migrations_lock']).pluck('table_name')).sort();
+      (
+        await db('information_schema.tables')
+          .where({ table_schema: 'public' })
+          .whereNotIn('table_name', ['knex_migrations', 'knex_migrations_lock'])
+          .pluck('table_name')
+      ).sort();
     try {
       await db.migrate.rollback(migrationConfig, true);
       expect(await tables()).toEqual([]);

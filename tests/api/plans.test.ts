@@ -19,7 +19,11 @@ describe('pass plans over the API', () => {
     operator = new Client(t.app);
     await operator.signIn(farm.operator.email, farm.operator.password);
     fieldId = (await owner.post('/api/fields', { name: 'Plan Quarter', boundary })).body.id;
-    await owner.post(`/api/fields/${fieldId}/hazards`, { kind: 'bin', geometry: { type: 'Point', coordinates: [-99.895, 47.6036] }, clearanceM: 20 });
+    await owner.post(`/api/fields/${fieldId}/hazards`, {
+      kind: 'bin',
+      geometry: { type: 'Point', coordinates: [-99.895, 47.6036] },
+      clearanceM: 20,
+    });
   });
   afterAll(() => t.close());
 
@@ -44,7 +48,12 @@ describe('pass plans over the API', () => {
   });
 
   it('when the owner saves a plan, then the operator reads it back and can export the passes as GeoJSON', async () => {
-    const put = await owner.put(`/api/plans/${fieldId}/harrowing`, { widthM: 25.6032, headingDeg: 90, headlandPasses: 1, implementKind: 'harrow' });
+    const put = await owner.put(`/api/plans/${fieldId}/harrowing`, {
+      widthM: 25.6032,
+      headingDeg: 90,
+      headlandPasses: 1,
+      implementKind: 'harrow',
+    });
     expect(put.status).toBe(200);
     expect(put.body).toMatchObject({ fieldId, operation: 'harrowing', headingDeg: 90, headlandPasses: 1, coverage: 'gaps-ok' });
     const got = await operator.get(`/api/plans/${fieldId}/harrowing`);

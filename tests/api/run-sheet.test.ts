@@ -88,31 +88,27 @@ describe('run sheet', () => {
     const d = '2026-08-01';
     const f1 = await field(160);
     const f2 = await field(80);
-    await t
-      .db('hazards')
-      .insert({
-        farm_id: farm.id,
-        field_id: f1,
-        kind: 'bin',
-        geometry: JSON.stringify({ type: 'Point', coordinates: [-99.89, 47.601] }),
-        clearance_m: 15,
-        note: 'Two bins',
-      });
-    await t
-      .db('pass_plans')
-      .insert({
-        farm_id: farm.id,
-        field_id: f1,
-        operation: 'harrowing',
-        width_m: 25.6,
-        headland_passes: 2,
-        heading_deg: null,
-        coverage: 'gaps-ok',
-        speed_mph: 7,
-        efficiency: 0.85,
-        turn_seconds: 20,
-        summary: JSON.stringify({ hours: 2.5, headingDeg: 91, passCount: 14 }),
-      });
+    await t.db('hazards').insert({
+      farm_id: farm.id,
+      field_id: f1,
+      kind: 'bin',
+      geometry: JSON.stringify({ type: 'Point', coordinates: [-99.89, 47.601] }),
+      clearance_m: 15,
+      note: 'Two bins',
+    });
+    await t.db('pass_plans').insert({
+      farm_id: farm.id,
+      field_id: f1,
+      operation: 'harrowing',
+      width_m: 25.6,
+      headland_passes: 2,
+      heading_deg: null,
+      coverage: 'gaps-ok',
+      speed_mph: 7,
+      efficiency: 0.85,
+      turn_seconds: 20,
+      summary: JSON.stringify({ hours: 2.5, headingDeg: 91, passCount: 14 }),
+    });
     const first = await add(d, { fieldId: f1, note: 'Fuel up first' });
     const second = await add(d, { fieldId: f2 });
     const mentored = await add(d, {

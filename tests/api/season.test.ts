@@ -47,23 +47,179 @@ const FIELDS: FieldFx[] = [
 
 const JOBS: JobFx[] = [
   // Two operators finish North Quarter's harrowing over two days.
-  { key: 'n-harrow-1', day: '2026-04-20', field: 'north', operation: 'harrowing', operator: 'operator', machine: 'tractor', implement: 'harrow', state: 'finished', acresPlanned: 160.25, acres: 100.25, hours: 3.5, meter: [1000, 1003.8] },
-  { key: 'n-harrow-2', day: '2026-04-21', field: 'north', operation: 'harrowing', operator: 'second', machine: 'tractor', implement: 'harrow', state: 'finished', acresPlanned: 60, acres: 60, hours: 2.25, meter: [1003.8, 1006.1] },
+  {
+    key: 'n-harrow-1',
+    day: '2026-04-20',
+    field: 'north',
+    operation: 'harrowing',
+    operator: 'operator',
+    machine: 'tractor',
+    implement: 'harrow',
+    state: 'finished',
+    acresPlanned: 160.25,
+    acres: 100.25,
+    hours: 3.5,
+    meter: [1000, 1003.8],
+  },
+  {
+    key: 'n-harrow-2',
+    day: '2026-04-21',
+    field: 'north',
+    operation: 'harrowing',
+    operator: 'second',
+    machine: 'tractor',
+    implement: 'harrow',
+    state: 'finished',
+    acresPlanned: 60,
+    acres: 60,
+    hours: 2.25,
+    meter: [1003.8, 1006.1],
+  },
   // A partial finish with no meter readings, then a called-off day on the same field.
-  { key: 's-harrow-1', day: '2026-04-21', field: 'slough', operation: 'harrowing', operator: 'operator', machine: 'tractor', implement: 'harrow', state: 'finished', acresPlanned: 80.5, acres: 40.5, hours: 1.5, meter: null },
-  { key: 's-harrow-off', day: '2026-04-22', field: 'slough', operation: 'harrowing', operator: 'operator', machine: 'tractor', implement: 'harrow', state: 'called-off', acresPlanned: 40, acres: null, hours: null, meter: null },
-  { key: 'h-harrow', day: '2026-04-28', field: 'home', operation: 'harrowing', operator: 'second', machine: 'tractor', implement: 'harrow', state: 'finished', acresPlanned: 320.75, acres: 320.75, hours: 7.75, meter: [1006.1, 1014.3] },
+  {
+    key: 's-harrow-1',
+    day: '2026-04-21',
+    field: 'slough',
+    operation: 'harrowing',
+    operator: 'operator',
+    machine: 'tractor',
+    implement: 'harrow',
+    state: 'finished',
+    acresPlanned: 80.5,
+    acres: 40.5,
+    hours: 1.5,
+    meter: null,
+  },
+  {
+    key: 's-harrow-off',
+    day: '2026-04-22',
+    field: 'slough',
+    operation: 'harrowing',
+    operator: 'operator',
+    machine: 'tractor',
+    implement: 'harrow',
+    state: 'called-off',
+    acresPlanned: 40,
+    acres: null,
+    hours: null,
+    meter: null,
+  },
+  {
+    key: 'h-harrow',
+    day: '2026-04-28',
+    field: 'home',
+    operation: 'harrowing',
+    operator: 'second',
+    machine: 'tractor',
+    implement: 'harrow',
+    state: 'finished',
+    acresPlanned: 320.75,
+    acres: 320.75,
+    hours: 7.75,
+    meter: [1006.1, 1014.3],
+  },
   // Work on a field with no crop planned counts as done, not as planned.
-  { key: 'hill-harrow', day: '2026-05-01', field: 'hill', operation: 'harrowing', operator: 'owner', machine: 'tractor', implement: 'harrow', state: 'finished', acresPlanned: 40, acres: 40, hours: 1, meter: [1014.3, 1015.4] },
+  {
+    key: 'hill-harrow',
+    day: '2026-05-01',
+    field: 'hill',
+    operation: 'harrowing',
+    operator: 'owner',
+    machine: 'tractor',
+    implement: 'harrow',
+    state: 'finished',
+    acresPlanned: 40,
+    acres: 40,
+    hours: 1,
+    meter: [1014.3, 1015.4],
+  },
   // The tractor again, for a second operation.
-  { key: 'n-seed', day: '2026-05-04', field: 'north', operation: 'seeding', operator: 'operator', machine: 'tractor', implement: 'drill', state: 'finished', acresPlanned: 160.25, acres: 160.25, hours: 6.75, meter: [1015.4, 1022.6] },
+  {
+    key: 'n-seed',
+    day: '2026-05-04',
+    field: 'north',
+    operation: 'seeding',
+    operator: 'operator',
+    machine: 'tractor',
+    implement: 'drill',
+    state: 'finished',
+    acresPlanned: 160.25,
+    acres: 160.25,
+    hours: 6.75,
+    meter: [1015.4, 1022.6],
+  },
   // Spraying twice: the acres add up, the coverage of the field does not.
-  { key: 's-spray-1', day: '2026-06-10', field: 'slough', operation: 'spraying', operator: 'second', machine: 'sprayer', implement: 'boom', state: 'finished', acresPlanned: 80.5, acres: 80.5, hours: 1.25, meter: [500, 501.4] },
-  { key: 's-spray-2', day: '2026-06-24', field: 'slough', operation: 'spraying', operator: 'second', machine: 'sprayer', implement: 'boom', state: 'finished', acresPlanned: 80.5, acres: 79.8, hours: 1.3, meter: [501.4, 502.9] },
+  {
+    key: 's-spray-1',
+    day: '2026-06-10',
+    field: 'slough',
+    operation: 'spraying',
+    operator: 'second',
+    machine: 'sprayer',
+    implement: 'boom',
+    state: 'finished',
+    acresPlanned: 80.5,
+    acres: 80.5,
+    hours: 1.25,
+    meter: [500, 501.4],
+  },
+  {
+    key: 's-spray-2',
+    day: '2026-06-24',
+    field: 'slough',
+    operation: 'spraying',
+    operator: 'second',
+    machine: 'sprayer',
+    implement: 'boom',
+    state: 'finished',
+    acresPlanned: 80.5,
+    acres: 79.8,
+    hours: 1.3,
+    meter: [501.4, 502.9],
+  },
   // Not counted: planned and underway jobs, and last season's work.
-  { key: 'n-spray-planned', day: '2026-06-25', field: 'north', operation: 'spraying', operator: 'operator', machine: 'sprayer', implement: 'boom', state: 'planned', acresPlanned: 160.25, acres: null, hours: null, meter: null },
-  { key: 'spare-underway', day: '2026-05-05', field: 'spare', operation: 'seeding', operator: 'operator', machine: 'tractor', implement: 'drill', state: 'underway', acresPlanned: 20.4, acres: null, hours: null, meter: [1022.6, 1023] },
-  { key: 'n-harrow-2025', day: '2025-12-31', field: 'north', operation: 'harrowing', operator: 'operator', machine: 'tractor', implement: 'harrow', state: 'finished', acresPlanned: 155, acres: 155, hours: 5, meter: [900, 905] },
+  {
+    key: 'n-spray-planned',
+    day: '2026-06-25',
+    field: 'north',
+    operation: 'spraying',
+    operator: 'operator',
+    machine: 'sprayer',
+    implement: 'boom',
+    state: 'planned',
+    acresPlanned: 160.25,
+    acres: null,
+    hours: null,
+    meter: null,
+  },
+  {
+    key: 'spare-underway',
+    day: '2026-05-05',
+    field: 'spare',
+    operation: 'seeding',
+    operator: 'operator',
+    machine: 'tractor',
+    implement: 'drill',
+    state: 'underway',
+    acresPlanned: 20.4,
+    acres: null,
+    hours: null,
+    meter: [1022.6, 1023],
+  },
+  {
+    key: 'n-harrow-2025',
+    day: '2025-12-31',
+    field: 'north',
+    operation: 'harrowing',
+    operator: 'operator',
+    machine: 'tractor',
+    implement: 'harrow',
+    state: 'finished',
+    acresPlanned: 155,
+    acres: 155,
+    hours: 5,
+    meter: [900, 905],
+  },
 ];
 
 /** The fleet's implements: an operation counts as planned when one of them does it (or work was logged). */
@@ -106,7 +262,9 @@ function expected(jobs: JobFx[], people: Record<JobFx['operator'], { id: number;
     const farmDoes = fleetDoes(op) || jobsOf.length > 0;
     const planned = FIELDS.filter((f) => farmDoes && appliesTo(f, op));
     const withPlan = planned.filter((f) => PLANS.some((p) => p.field === f.key && p.operation === op && p.hours !== null));
-    const plannedHours = withPlan.length ? sum(withPlan.map((f) => PLANS.find((p) => p.field === f.key && p.operation === op)!.hours!)) : null;
+    const plannedHours = withPlan.length
+      ? sum(withPlan.map((f) => PLANS.find((p) => p.field === f.key && p.operation === op)!.hours!))
+      : null;
     const acresPlanned = sum(planned.map((f) => f.acres));
     const covered = sum(planned.map((f) => Math.min(f.acres, sum(jobsOf.filter((j) => j.field === f.key).map((j) => j.acres!)))));
     const acres = sum(jobsOf.map((j) => j.acres!));
@@ -162,8 +320,15 @@ function expected(jobs: JobFx[], people: Record<JobFx['operator'], { id: number;
     .map((who) => {
       const js = done.filter((j) => j.operator === who);
       const ops: Record<string, { acres: number; hours: number }> = {};
-      for (const j of js) ops[j.operation] = { acres: (ops[j.operation]?.acres ?? 0) + j.acres!, hours: (ops[j.operation]?.hours ?? 0) + j.hours! };
-      return { membershipId: people[who].id, name: people[who].name, operations: ops, totalAcres: sum(js.map((j) => j.acres!)), totalHours: sum(js.map((j) => j.hours!)) };
+      for (const j of js)
+        ops[j.operation] = { acres: (ops[j.operation]?.acres ?? 0) + j.acres!, hours: (ops[j.operation]?.hours ?? 0) + j.hours! };
+      return {
+        membershipId: people[who].id,
+        name: people[who].name,
+        operations: ops,
+        totalAcres: sum(js.map((j) => j.acres!)),
+        totalHours: sum(js.map((j) => j.hours!)),
+      };
     });
 
   const byMachine = (['tractor', 'sprayer'] as const).map((m) => {
@@ -174,7 +339,14 @@ function expected(jobs: JobFx[], people: Record<JobFx['operator'], { id: number;
       const o = js.filter((j) => j.operation === op);
       return { operation: op, acres: sum(o.map((j) => j.acres!)), hours: sum(o.map((j) => j.hours!)), engineHours: sum(o.map(meterHours)) };
     });
-    return { key: m, engineHours, acres, hours: sum(js.map((j) => j.hours!)), acresPerEngineHour: engineHours > 0 ? acres / engineHours : null, operations: ops };
+    return {
+      key: m,
+      engineHours,
+      acres,
+      hours: sum(js.map((j) => j.hours!)),
+      acresPerEngineHour: engineHours > 0 ? acres / engineHours : null,
+      operations: ops,
+    };
   });
 
   const acres = sum(done.map((j) => j.acres!));
@@ -199,7 +371,8 @@ function near(actual: number | null | undefined, wanted: number | null, what: st
     expect({ what, actual }).toEqual({ what, actual: null });
     return;
   }
-  if (typeof actual !== 'number' || Math.abs(actual - wanted) > 0.005 + 1e-9) throw new Error(`${what}: got ${actual}, expected ${wanted.toFixed(4)}`);
+  if (typeof actual !== 'number' || Math.abs(actual - wanted) > 0.005 + 1e-9)
+    throw new Error(`${what}: got ${actual}, expected ${wanted.toFixed(4)}`);
 }
 
 function nearAll(actual: object, wanted: object, what: string): void {
@@ -242,11 +415,14 @@ function parseCsv(text: string): string[][] {
 
 /** The CSV as objects keyed by the header, after checking the BOM, the header and the file name. */
 async function csvOf(client: Client, table: string, header: string[], year = YEAR): Promise<Array<Record<string, string>>> {
-  const res = await client.get(`/api/season/${year}/export/${table}.csv`).buffer(true).parse((r, cb) => {
-    const chunks: Buffer[] = [];
-    r.on('data', (c: Buffer) => chunks.push(c));
-    r.on('end', () => cb(null, Buffer.concat(chunks)));
-  });
+  const res = await client
+    .get(`/api/season/${year}/export/${table}.csv`)
+    .buffer(true)
+    .parse((r, cb) => {
+      const chunks: Buffer[] = [];
+      r.on('data', (c: Buffer) => chunks.push(c));
+      r.on('end', () => cb(null, Buffer.concat(chunks)));
+    });
   expect(res.status).toBe(200);
   expect(res.headers['content-type']).toMatch(/^text\/csv; charset=utf-8/);
   expect(res.headers['content-disposition']).toBe(`attachment; filename="furlong-${year}-${table}.csv"`);
@@ -307,7 +483,9 @@ describe('season report', () => {
     t = await startTestApp();
     farm = await makeFarm(t.db, 'Season');
     const db = t.db;
-    const [u2] = await db('users').insert({ email: `second-${farm.id}@furlong.test`, name: `Second Operator ${farm.id}` }).returning(['id', 'name']);
+    const [u2] = await db('users')
+      .insert({ email: `second-${farm.id}@furlong.test`, name: `Second Operator ${farm.id}` })
+      .returning(['id', 'name']);
     const [m2] = await db('memberships').insert({ farm_id: farm.id, user_id: u2.id, role: 'operator', status: 'active' }).returning('id');
     people = {
       operator: { id: farm.operator.membershipId, name: farm.operator.name },
@@ -316,19 +494,33 @@ describe('season report', () => {
     };
     for (const [i, f] of FIELDS.entries()) {
       const [row] = await db('fields')
-        .insert({ farm_id: farm.id, name: f.name, boundary: JSON.stringify(rect(-99.9 + i * 0.01, 47.6, 0.005, 0.005)), area_m2: f.acres * 4046.8564224, acres: f.acres })
+        .insert({
+          farm_id: farm.id,
+          name: f.name,
+          boundary: JSON.stringify(rect(-99.9 + i * 0.01, 47.6, 0.005, 0.005)),
+          area_m2: f.acres * 4046.8564224,
+          acres: f.acres,
+        })
         .returning('id');
       f.id = row.id;
       if (f.crop) await db('crop_plans').insert({ farm_id: farm.id, field_id: row.id, season: YEAR, crop: f.crop });
     }
     await db('crop_plans').insert({ farm_id: farm.id, field_id: fieldOf('hill').id, season: YEAR - 1, crop: 'durum' });
-    const [tractor] = await db('machines').insert({ farm_id: farm.id, name: 'Big Tractor', kind: 'tractor-4wd', power_hp: 470, engine_hours: 1023 }).returning('id');
-    const [sprayer] = await db('machines').insert({ farm_id: farm.id, name: 'Sprayer, "SP"', kind: 'sprayer-sp', power_hp: 300, engine_hours: 503 }).returning('id');
+    const [tractor] = await db('machines')
+      .insert({ farm_id: farm.id, name: 'Big Tractor', kind: 'tractor-4wd', power_hp: 470, engine_hours: 1023 })
+      .returning('id');
+    const [sprayer] = await db('machines')
+      .insert({ farm_id: farm.id, name: 'Sprayer, "SP"', kind: 'sprayer-sp', power_hp: 300, engine_hours: 503 })
+      .returning('id');
     machineIds.tractor = tractor.id;
     machineIds.sprayer = sprayer.id;
     const implementIds: Record<string, number> = {};
     for (const i of IMPLEMENTS) {
-      implementIds[i.key] = (await db('implements').insert({ farm_id: farm.id, name: i.name, kind: i.kind, width_m: 20, operations: i.operations }).returning('id'))[0].id;
+      implementIds[i.key] = (
+        await db('implements')
+          .insert({ farm_id: farm.id, name: i.name, kind: i.kind, width_m: 20, operations: i.operations })
+          .returning('id')
+      )[0].id;
     }
     for (const [i, j] of JOBS.entries()) {
       const [row] = await db('assignments')
@@ -368,10 +560,29 @@ describe('season report', () => {
     }
     // Another farm's finished job on the same days must never show here.
     const other = await makeFarm(db, 'Season other');
-    const [of] = await db('fields').insert({ farm_id: other.id, name: 'Elsewhere', boundary: JSON.stringify(rect(-98, 47, 0.01, 0.01)), area_m2: 1e6, acres: 247.1 }).returning('id');
-    const [om] = await db('machines').insert({ farm_id: other.id, name: 'Other tractor', kind: 'tractor-mfwd', power_hp: 200 }).returning('id');
-    const [oi] = await db('implements').insert({ farm_id: other.id, name: 'Other harrow', kind: 'harrow', width_m: 15, operations: ['harrowing'] }).returning('id');
-    await db('assignments').insert({ farm_id: other.id, day: '2026-04-20', field_id: of.id, operation: 'harrowing', operator_id: other.operator.membershipId, machine_id: om.id, implement_id: oi.id, run_order: 1, state: 'finished', acres_planned: 247.1, acres_done: 247.1, hours_worked: 9 });
+    const [of] = await db('fields')
+      .insert({ farm_id: other.id, name: 'Elsewhere', boundary: JSON.stringify(rect(-98, 47, 0.01, 0.01)), area_m2: 1e6, acres: 247.1 })
+      .returning('id');
+    const [om] = await db('machines')
+      .insert({ farm_id: other.id, name: 'Other tractor', kind: 'tractor-mfwd', power_hp: 200 })
+      .returning('id');
+    const [oi] = await db('implements')
+      .insert({ farm_id: other.id, name: 'Other harrow', kind: 'harrow', width_m: 15, operations: ['harrowing'] })
+      .returning('id');
+    await db('assignments').insert({
+      farm_id: other.id,
+      day: '2026-04-20',
+      field_id: of.id,
+      operation: 'harrowing',
+      operator_id: other.operator.membershipId,
+      machine_id: om.id,
+      implement_id: oi.id,
+      run_order: 1,
+      state: 'finished',
+      acres_planned: 247.1,
+      acres_done: 247.1,
+      hours_worked: 9,
+    });
 
     owner = new Client(t.app);
     await owner.signIn(farm.owner.email, farm.owner.password);
@@ -392,7 +603,12 @@ describe('season report', () => {
     const want = expected(jobs, people);
     expect(s.year).toBe(YEAR);
     expect(s.operations.map((o) => o.operation)).toEqual([...OPERATIONS]);
-    for (const w of want.operations) nearAll(s.operations.find((o) => o.operation === w.operation)!, w, `operations.${w.operation}`);
+    for (const w of want.operations)
+      nearAll(
+        s.operations.find((o) => o.operation === w.operation)!,
+        w,
+        `operations.${w.operation}`,
+      );
 
     expect(s.weekly.map((w) => `${w.operation} ${w.week}`)).toEqual(want.weekly.map((w) => `${w.operation} ${w.week}`));
     s.weekly.forEach((w, i) => nearAll(w, want.weekly[i], `weekly.${w.operation}.${w.week}`));
@@ -417,7 +633,11 @@ describe('season report', () => {
 
     for (const w of want.byMachine) {
       const m = s.byMachine.find((x) => x.machineId === machineIds[w.key])!;
-      nearAll(m, { engineHours: w.engineHours, acres: w.acres, hours: w.hours, acresPerEngineHour: w.acresPerEngineHour }, `machine ${w.key}`);
+      nearAll(
+        m,
+        { engineHours: w.engineHours, acres: w.acres, hours: w.hours, acresPerEngineHour: w.acresPerEngineHour },
+        `machine ${w.key}`,
+      );
       expect(m.operations.map((o) => o.operation)).toEqual(w.operations.map((o) => o.operation));
       m.operations.forEach((o, i) => nearAll(o, w.operations[i], `machine ${w.key}.${o.operation}`));
     }
@@ -481,10 +701,20 @@ describe('season report', () => {
       expect(r.jobs_called_off).toBe(String(w.jobsCalledOff));
     }
 
-    const fields = await csvOf(viewer, 'fields', ['field', 'crop', 'field_acres', 'operation', 'acres_finished', 'hours_logged', 'date_finished']);
+    const fields = await csvOf(viewer, 'fields', [
+      'field',
+      'crop',
+      'field_acres',
+      'operation',
+      'acres_finished',
+      'hours_logged',
+      'date_finished',
+    ]);
     const fieldRows = want.byField.flatMap((f) => {
       const entries = Object.entries(f.operations);
-      return entries.length ? entries.map(([op, v]) => ({ ...f, op: LABEL[op as Operation], v })) : [{ ...f, op: '', v: { acres: 0, hours: 0, dateFinished: null } }];
+      return entries.length
+        ? entries.map(([op, v]) => ({ ...f, op: LABEL[op as Operation], v }))
+        : [{ ...f, op: '', v: { acres: 0, hours: 0, dateFinished: null } }];
     });
     expect(fields).toHaveLength(fieldRows.length);
     for (const w of fieldRows) {
@@ -499,7 +729,9 @@ describe('season report', () => {
     }
 
     const peopleCsv = await csvOf(viewer, 'people', ['person', 'operation', 'acres_finished', 'hours_logged', 'acres_per_hour']);
-    const personRows = want.byPerson.flatMap((p) => Object.entries(p.operations).map(([op, v]) => ({ name: p.name, op: LABEL[op as Operation], ...v })));
+    const personRows = want.byPerson.flatMap((p) =>
+      Object.entries(p.operations).map(([op, v]) => ({ name: p.name, op: LABEL[op as Operation], ...v })),
+    );
     expect(peopleCsv).toHaveLength(personRows.length);
     for (const w of personRows) {
       const r = peopleCsv.find((x) => x.person === w.name && x.operation === w.op)!;
@@ -509,7 +741,14 @@ describe('season report', () => {
     // The people sum back to the season total.
     near(sum(peopleCsv.map((r) => Number(r.acres_finished))), want.totals.acresFinished, 'people total');
 
-    const machines = await csvOf(viewer, 'machines', ['machine', 'operation', 'acres_finished', 'hours_logged', 'engine_hours', 'acres_per_engine_hour']);
+    const machines = await csvOf(viewer, 'machines', [
+      'machine',
+      'operation',
+      'acres_finished',
+      'hours_logged',
+      'engine_hours',
+      'acres_per_engine_hour',
+    ]);
     const names = { tractor: 'Big Tractor', sprayer: 'Sprayer, "SP"' };
     for (const m of want.byMachine) {
       for (const o of m.operations) {
@@ -558,7 +797,11 @@ describe('season report', () => {
     // North Quarter is no longer fully harrowed.
     expect(s.byField.find((f) => f.field === 'North Quarter')!.operations.harrowing!.dateFinished).toBeNull();
     const rows = await csvOf(viewer, 'operations', OPERATIONS_HEADER);
-    near(Number(rows.find((r) => r.operation === 'Harrowing')!.acres_finished), expected(edited, people).operations[0].acresFinished, 'CSV after edit');
+    near(
+      Number(rows.find((r) => r.operation === 'Harrowing')!.acres_finished),
+      expected(edited, people).operations[0].acresFinished,
+      'CSV after edit',
+    );
   });
 
   it('when the owner deletes a finished log, then its acres and hours leave the totals', async () => {
@@ -612,10 +855,20 @@ describe('season report', () => {
 
   it('when a season has no work and no crop plans, then everything is zero and nothing breaks', async () => {
     const s = await summary(viewer, 2031);
-    expect(s.operations.every((o) => o.acresFinished === 0 && o.acresPlanned === 0 && o.progress === 0 && o.acresPerHour === null)).toBe(true);
+    expect(s.operations.every((o) => o.acresFinished === 0 && o.acresPlanned === 0 && o.progress === 0 && o.acresPerHour === null)).toBe(
+      true,
+    );
     expect(s.weekly).toEqual([]);
     expect(s.byField).toEqual([]);
-    expect(s.totals).toEqual({ acresFinished: 0, hoursLogged: 0, engineHours: 0, acresPerHour: null, jobsFinished: 0, jobsCalledOff: 0, fieldsWorked: 0 });
+    expect(s.totals).toEqual({
+      acresFinished: 0,
+      hoursLogged: 0,
+      engineHours: 0,
+      acresPerHour: null,
+      jobsFinished: 0,
+      jobsCalledOff: 0,
+      fieldsWorked: 0,
+    });
     const csv = await csvOf(viewer, 'weekly', ['operation', 'week_starting', 'acres_finished', 'cumulative_acres'], 2031);
     expect(csv).toEqual([]);
   });

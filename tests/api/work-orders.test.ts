@@ -93,21 +93,19 @@ describe('work orders by e-mail', () => {
         note: 'Large rock, marked with a flag',
       },
     ]);
-    await t
-      .db('pass_plans')
-      .insert({
-        farm_id: farm.id,
-        field_id: north,
-        operation: 'harrowing',
-        width_m: 25.6,
-        headland_passes: 2,
-        heading_deg: 92,
-        coverage: 'gaps-ok',
-        speed_mph: 7,
-        efficiency: 0.85,
-        turn_seconds: 20,
-        summary: JSON.stringify({ hours: 4, headingDeg: 92, passCount: 31 }),
-      });
+    await t.db('pass_plans').insert({
+      farm_id: farm.id,
+      field_id: north,
+      operation: 'harrowing',
+      width_m: 25.6,
+      headland_passes: 2,
+      heading_deg: 92,
+      coverage: 'gaps-ok',
+      speed_mph: 7,
+      efficiency: 0.85,
+      turn_seconds: 20,
+      summary: JSON.stringify({ hours: 4, headingDeg: 92, passCount: 31 }),
+    });
     tractor = await insertMachine(t.db, farm.id, { name: '4WD No. 1' });
     tractor2 = await insertMachine(t.db, farm.id, { name: '4WD No. 2' });
     harrow = await insertImplement(t.db, farm.id, { name: '84 ft heavy harrow', width_m: 25.6032 });

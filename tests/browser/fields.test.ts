@@ -56,7 +56,12 @@ const toTop = (page: Page) => page.locator('mat-sidenav-content').evaluate((el) 
 /** PATCH from inside the page, with the page's own XSRF token, so only the role can refuse it. */
 async function patchFromPage(page: Page, id: number): Promise<{ status: number; code: string }> {
   return page.evaluate(async (fieldId) => {
-    const token = decodeURIComponent(document.cookie.split('; ').find((c) => c.startsWith('XSRF-TOKEN='))?.split('=')[1] ?? '');
+    const token = decodeURIComponent(
+      document.cookie
+        .split('; ')
+        .find((c) => c.startsWith('XSRF-TOKEN='))
+        ?.split('=')[1] ?? '',
+    );
     const res = await fetch(`/api/fields/${fieldId}`, {
       method: 'PATCH',
       headers: { 'Content-Type': 'application/json', 'X-XSRF-TOKEN': token },
@@ -94,7 +99,11 @@ describe('Fields in a real browser', () => {
     await page.waitForLoadState('networkidle');
     await zoomToFieldScale(page, map);
 
-    await page.getByRole('radio', { name: 'Draw a part' }).or(page.getByRole('button', { name: 'Draw a part' })).first().click();
+    await page
+      .getByRole('radio', { name: 'Draw a part' })
+      .or(page.getByRole('button', { name: 'Draw a part' }))
+      .first()
+      .click();
     await clickRing(page, map, [
       [-130, -100],
       [140, -110],
@@ -106,7 +115,11 @@ describe('Fields in a real browser', () => {
     expect(whole).toMatch(/^[\d,]+\.\d ac$/);
     await screenshot(page, 'fields-1-drawn-part');
 
-    await page.getByRole('radio', { name: 'Cut a hole' }).or(page.getByRole('button', { name: 'Cut a hole' })).first().click();
+    await page
+      .getByRole('radio', { name: 'Cut a hole' })
+      .or(page.getByRole('button', { name: 'Cut a hole' }))
+      .first()
+      .click();
     await clickRing(page, map, [
       [-40, -30],
       [40, -30],
@@ -179,7 +192,11 @@ describe('Fields in a real browser', () => {
     const after = await rig.t.db('hazards').where({ id: before.id }).first();
     expect(after.geometry.type).toBe('Point');
     expect(after.geometry.coordinates).not.toEqual(before.geometry.coordinates);
-    expect({ kind: after.kind, clearance: after.clearance_m, note: after.note }).toEqual({ kind: before.kind, clearance: before.clearance_m, note: before.note });
+    expect({ kind: after.kind, clearance: after.clearance_m, note: after.note }).toEqual({
+      kind: before.kind,
+      clearance: before.clearance_m,
+      note: before.note,
+    });
   });
 
   it('when the owner uploads a KML of three fields and unticks one, then the other two are saved and listed', async () => {
@@ -234,7 +251,17 @@ describe('Fields in a real browser', () => {
     await page.getByRole('table').getByRole('link', { name: drawnName }).click();
     await page.getByRole('heading', { level: 1, name: drawnName }).waitFor();
     await page.getByText('Clearance 150 ft').waitFor();
-    for (const name of ['Edit boundary', 'Point', 'Line', 'Area', 'Save crop', 'Save name and notes', 'Delete field', 'Edit Rock', 'Remove Rock'])
+    for (const name of [
+      'Edit boundary',
+      'Point',
+      'Line',
+      'Area',
+      'Save crop',
+      'Save name and notes',
+      'Delete field',
+      'Edit Rock',
+      'Remove Rock',
+    ])
       expect(await page.getByRole('button', { name, exact: true }).count()).toBe(0);
     expect(await page.locator('input, textarea, mat-select').count()).toBe(0);
     expect(await seriousViolations(page)).toEqual([]);

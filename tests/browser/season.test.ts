@@ -10,7 +10,12 @@ const oneDecimal = new Intl.NumberFormat('en-US', { minimumFractionDigits: 1, ma
 /** A change to a finished log sent from inside the page with its own XSRF token, so only the role can refuse it. */
 async function patchLogFromPage(page: Page, id: number): Promise<{ status: number; code: string }> {
   return page.evaluate(async (jobId) => {
-    const token = decodeURIComponent(document.cookie.split('; ').find((c) => c.startsWith('XSRF-TOKEN='))?.split('=')[1] ?? '');
+    const token = decodeURIComponent(
+      document.cookie
+        .split('; ')
+        .find((c) => c.startsWith('XSRF-TOKEN='))
+        ?.split('=')[1] ?? '',
+    );
     const res = await fetch(`/api/assignments/${jobId}/log`, {
       method: 'PATCH',
       headers: { 'Content-Type': 'application/json', 'X-XSRF-TOKEN': token },
@@ -111,7 +116,10 @@ describe('Season in a real browser', () => {
   });
 
   it('when the fields table is downloaded, then a CSV file with a BOM and a header with units arrives', async () => {
-    const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Download the fields table as CSV' }).click()]);
+    const [download] = await Promise.all([
+      page.waitForEvent('download'),
+      page.getByRole('link', { name: 'Download the fields table as CSV' }).click(),
+    ]);
     expect(download.suggestedFilename()).toBe(`furlong-${year}-fields.csv`);
     const csv = fs.readFileSync((await download.path())!);
     expect([...csv.subarray(0, 3)]).toEqual([0xef, 0xbb, 0xbf]);
@@ -126,9 +134,16 @@ describe('Season in a real browser', () => {
     await page.getByRole('option', { name: String(year - 1) }).click();
     await page.getByRole('heading', { name: `${year - 1} beside ${year}` }).waitFor();
     await page.locator('app-compare-chart canvas').waitFor();
-    expect(await page.getByRole('table', { name: `Seasons ${year - 1} and ${year} side by side` }).locator('tbody tr').count()).toBeGreaterThan(0);
+    expect(
+      await page
+        .getByRole('table', { name: `Seasons ${year - 1} and ${year} side by side` })
+        .locator('tbody tr')
+        .count(),
+    ).toBeGreaterThan(0);
     expect(page.url()).toContain(`compare=${year - 1}`);
-    await page.locator('section[aria-labelledby="compare-heading"]').screenshot({ path: path.join(artifacts, 'screenshots', 'season-3-compare.png') });
+    await page
+      .locator('section[aria-labelledby="compare-heading"]')
+      .screenshot({ path: path.join(artifacts, 'screenshots', 'season-3-compare.png') });
   });
 
   it('when axe checks the screen, then it finds nothing serious', async () => {
@@ -140,9 +155,16 @@ describe('Season in a real browser', () => {
     expect(await page.getByRole('navigation', { name: 'Main' }).isVisible()).toBe(false);
     expect(await page.getByRole('button', { name: 'Print' }).isVisible()).toBe(false);
     expect(await page.getByRole('link', { name: 'Download the fields table as CSV' }).isVisible()).toBe(false);
-    const colours = await page.locator('#fields-heading').evaluate((h) => [getComputedStyle(h).color, getComputedStyle(document.body).backgroundColor]);
+    const colours = await page
+      .locator('#fields-heading')
+      .evaluate((h) => [getComputedStyle(h).color, getComputedStyle(document.body).backgroundColor]);
     expect(colours).toEqual(['rgb(0, 0, 0)', 'rgb(255, 255, 255)']);
-    expect(await page.locator('.sheet + .sheet').first().evaluate((s) => getComputedStyle(s).breakBefore)).toBe('page');
+    expect(
+      await page
+        .locator('.sheet + .sheet')
+        .first()
+        .evaluate((s) => getComputedStyle(s).breakBefore),
+    ).toBe('page');
     // Letter paper is 8.5 in wide: 816 CSS px.
     await page.setViewportSize({ width: 816, height: 1056 });
     await screenshot(page, 'season-4-print');

@@ -13,7 +13,10 @@ export function rectRing(lon: number, lat: number, dLon: number, dLat: number): 
   ];
 }
 
-export const rect = (lon: number, lat: number, dLon: number, dLat: number): Polygon => ({ type: 'Polygon', coordinates: [rectRing(lon, lat, dLon, dLat)] });
+export const rect = (lon: number, lat: number, dLon: number, dLat: number): Polygon => ({
+  type: 'Polygon',
+  coordinates: [rectRing(lon, lat, dLon, dLat)],
+});
 
 /** A rectangle with a smaller rectangular hole (a slough) in its middle. */
 export function rectWithHole(lon: number, lat: number, dLon: number, dLat: number): Polygon {

@@ -17,7 +17,12 @@ async function readChecked(deps: AppDeps, file: { name: string; data: Buffer }, 
 }
 
 /** Reads a boundary file and checks every feature in it against the farm's fields. */
-export async function previewImport(deps: AppDeps, farmId: number, file: { name: string; data: Buffer }, nameAttribute?: string): Promise<ImportPreview> {
+export async function previewImport(
+  deps: AppDeps,
+  farmId: number,
+  file: { name: string; data: Buffer },
+  nameAttribute?: string,
+): Promise<ImportPreview> {
   const preview = await readChecked(deps, file, nameAttribute);
   for (const f of preview.features) {
     if (await fieldNameTaken(deps.db, farmId, f.name)) f.errors.push(nameTakenMessage(f.name));
@@ -50,7 +55,13 @@ export async function saveImport(
     if (await fieldNameTaken(deps.db, farmId, c.name)) problems.push(nameTakenMessage(c.name));
   }
   if (problems.length) {
-    throw new AppError(422, 'import_refused', `Nothing was saved. ${problems[0]}${problems.length > 1 ? ` (and ${problems.length - 1} more problem${problems.length > 2 ? 's' : ''})` : ''}`, undefined, { problems });
+    throw new AppError(
+      422,
+      'import_refused',
+      `Nothing was saved. ${problems[0]}${problems.length > 1 ? ` (and ${problems.length - 1} more problem${problems.length > 2 ? 's' : ''})` : ''}`,
+      undefined,
+      { problems },
+    );
   }
   const saved = await deps.db.transaction(async (tx) => {
     const rows: Array<{ id: number; name: string; acres: number }> = [];

@@ -25,7 +25,11 @@ function detectFormat(fileName: string, buf: Buffer): Format {
   const head = buf.subarray(0, 200).toString('utf8').trimStart();
   if (head.startsWith('{')) return 'geojson';
   if (head.startsWith('<')) return 'kml';
-  throw new AppError(415, 'unknown_format', `Furlong reads GeoJSON (.geojson), KML (.kml, .kmz) and zipped shapefiles (.zip); "${fileName}" is none of these`);
+  throw new AppError(
+    415,
+    'unknown_format',
+    `Furlong reads GeoJSON (.geojson), KML (.kml, .kmz) and zipped shapefiles (.zip); "${fileName}" is none of these`,
+  );
 }
 
 async function parse(format: Format, buf: Buffer): Promise<FeatureCollection> {
@@ -43,7 +47,8 @@ async function parse(format: Format, buf: Buffer): Promise<FeatureCollection> {
 
 function pickNameAttribute(attributes: string[], wanted?: string): string | null {
   if (wanted) {
-    if (!attributes.includes(wanted)) throw new AppError(400, 'invalid_input', `The file has no attribute "${wanted}"; it has: ${attributes.join(', ') || 'none'}`);
+    if (!attributes.includes(wanted))
+      throw new AppError(400, 'invalid_input', `The file has no attribute "${wanted}"; it has: ${attributes.join(', ') || 'none'}`);
     return wanted;
   }
   for (const key of NAME_KEYS) {
@@ -53,7 +58,13 @@ function pickNameAttribute(attributes: string[], wanted?: string): string | null
   return null;
 }
 
-const GEOMETRY_NAMES: Record<string, string> = { Point: 'a point', MultiPoint: 'points', LineString: 'a line', MultiLineString: 'lines', GeometryCollection: 'a mix of shapes' };
+const GEOMETRY_NAMES: Record<string, string> = {
+  Point: 'a point',
+  MultiPoint: 'points',
+  LineString: 'a line',
+  MultiLineString: 'lines',
+  GeometryCollection: 'a mix of shapes',
+};
 
 /**
  * Reads a boundary file (GeoJSON, KML, KMZ or zipped shapefile) and checks every shape in it as a
@@ -81,7 +92,8 @@ export async function readBoundaryFile(file: { name: string; data: Buffer }, nam
     let acres: number | null = null;
     const g = f.geometry;
     if (!g) errors.push(`${label} has no geometry`);
-    else if (g.type !== 'Polygon' && g.type !== 'MultiPolygon') errors.push(`${label} is ${GEOMETRY_NAMES[g.type] ?? g.type}, but a field boundary must be an area (polygon)`);
+    else if (g.type !== 'Polygon' && g.type !== 'MultiPolygon')
+      errors.push(`${label} is ${GEOMETRY_NAMES[g.type] ?? g.type}, but a field boundary must be an area (polygon)`);
     else {
       const problems = checkBoundary(g, label);
       if (problems.length) errors.push(problems[0].message);

@@ -11,7 +11,11 @@ export const foundation: Record<string, Case> = {
   'POST /api/auth/set-password': { body: { token: 'x'.repeat(43), password: 'long-enough-password' }, expect: all(404) },
   'GET /api/members': { expect: ownerOnly(200) },
   'POST /api/members/invite': { body: {}, expect: ownerOnly(400) },
-  'PATCH /api/members/:id': { path: async (c) => `/api/members/${await c.spareMember()}`, body: { role: 'viewer' }, expect: ownerOnly(200, 404) },
+  'PATCH /api/members/:id': {
+    path: async (c) => `/api/members/${await c.spareMember()}`,
+    body: { role: 'viewer' },
+    expect: ownerOnly(200, 404),
+  },
   'DELETE /api/members/:id': { path: async (c) => `/api/members/${await c.spareMember()}`, expect: ownerOnly(204, 404) },
   'GET /api/farm': { expect: members(200) },
   'PATCH /api/farm': { body: { dayHoursLimit: 12 }, expect: ownerOnly(200) },

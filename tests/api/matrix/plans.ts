@@ -29,6 +29,13 @@ export const plans: Record<string, Case> = {
     path: async (c) => `/api/plans/${await plannedField(c)}/harrowing/passes.geojson`,
     expect: members(200, 404),
   },
-  'PUT /api/plans/:fieldId/:operation': { path: async (c) => `/api/plans/${await c.spareField()}/harrowing`, body: planSettings, expect: ownerOnly(200, 404) },
-  'DELETE /api/plans/:fieldId/:operation': { path: async (c) => `/api/plans/${await plannedField(c)}/harrowing`, expect: ownerOnly(204, 404) },
+  'PUT /api/plans/:fieldId/:operation': {
+    path: async (c) => `/api/plans/${await c.spareField()}/harrowing`,
+    body: planSettings,
+    expect: ownerOnly(200, 404),
+  },
+  'DELETE /api/plans/:fieldId/:operation': {
+    path: async (c) => `/api/plans/${await plannedField(c)}/harrowing`,
+    expect: ownerOnly(204, 404),
+  },
 };

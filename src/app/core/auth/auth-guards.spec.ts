@@ -32,7 +32,8 @@ describe('route guards', () => {
   function signIn(role: Role): void {
     TestBed.inject(AuthStore).signedInAs({
       user: { id: 1, email: 'a@example.test', name: 'A' },
-      farm: { id: 1, name: 'F', units: 'us', timeZone: 'America/Chicago' }, membershipId: 1,
+      farm: { id: 1, name: 'F', units: 'us', timeZone: 'America/Chicago' },
+      membershipId: 1,
       role,
     });
   }

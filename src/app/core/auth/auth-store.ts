@@ -56,7 +56,8 @@ export class AuthStore {
   /** After the owner saves the farm's settings: the header, units and calendar follow at once. */
   farmChanged(farm: { id: number; name: string; units: Me['farm']['units']; timeZone: string }): void {
     const me = this.current();
-    if (me && me.farm.id === farm.id) this.current.set({ ...me, farm: { id: farm.id, name: farm.name, units: farm.units, timeZone: farm.timeZone } });
+    if (me && me.farm.id === farm.id)
+      this.current.set({ ...me, farm: { id: farm.id, name: farm.name, units: farm.units, timeZone: farm.timeZone } });
   }
 
   clear(): void {

@@ -4,7 +4,17 @@ const labels = (items: NavItem[]) => items.map((item) => item.label);
 
 describe('navItemsFor', () => {
   it('when the owner signs in, then every screen shows', () => {
-    expect(labels(navItemsFor('owner'))).toEqual(['Home', 'Work board', 'Run sheet', 'Fields', 'Pass plan', 'Fleet', 'Crew', 'Season', 'Members']);
+    expect(labels(navItemsFor('owner'))).toEqual([
+      'Home',
+      'Work board',
+      'Run sheet',
+      'Fields',
+      'Pass plan',
+      'Fleet',
+      'Crew',
+      'Season',
+      'Members',
+    ]);
   });
 
   it('when an operator signs in, then their run sheet and the read-only screens show, not the board or the season', () => {

@@ -21,7 +21,10 @@ describe('drawn boundaries', () => {
 
   it('when two parts are drawn (one already cut into a feature), then they make one MultiPolygon', () => {
     const cut = { type: 'Feature' as const, properties: {}, geometry: { type: 'Polygon' as const, coordinates: [outer, hole] } };
-    expect(combineParts([cut, { type: 'Polygon', coordinates: [east] }])).toEqual({ type: 'MultiPolygon', coordinates: [[outer, hole], [east]] });
+    expect(combineParts([cut, { type: 'Polygon', coordinates: [east] }])).toEqual({
+      type: 'MultiPolygon',
+      coordinates: [[outer, hole], [east]],
+    });
   });
 
   it('when nothing (or only lines) is drawn, then there is no boundary', () => {

@@ -51,7 +51,11 @@ export class FieldsApi {
     return this.http.delete<void>(`${FIELDS_URL}/${fieldId}/hazards/${hazardId}`);
   }
 
-  setCrop(fieldId: number, season: number, body: { crop: string; varietyNote?: string | null }): Observable<CropPlan & { fieldId: number }> {
+  setCrop(
+    fieldId: number,
+    season: number,
+    body: { crop: string; varietyNote?: string | null },
+  ): Observable<CropPlan & { fieldId: number }> {
     return this.http.put<CropPlan & { fieldId: number }>(`${FIELDS_URL}/${fieldId}/crops/${season}`, body);
   }
 
@@ -93,4 +97,3 @@ function formOf(file: File): FormData {
   form.append('file', file, file.name);
   return form;
 }
-

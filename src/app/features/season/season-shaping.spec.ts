@@ -1,6 +1,18 @@
 import { OPERATIONS, type Operation } from '@shared/operations';
 import type { OperationSeason, SeasonSummary } from '@shared/schemas/season';
-import { activeOperations, compareTable, fieldsTable, formatCell, machinesTable, operationsTable, peopleTable, totalsOf, weekCharts, weekLabel, type Column } from './season-shaping';
+import {
+  activeOperations,
+  compareTable,
+  fieldsTable,
+  formatCell,
+  machinesTable,
+  operationsTable,
+  peopleTable,
+  totalsOf,
+  weekCharts,
+  weekLabel,
+  type Column,
+} from './season-shaping';
 
 /** Hectares per acre: 4,046.8564224 m² (international foot, exact) ÷ 10,000 m². */
 const HA_PER_ACRE = 0.40468564224;
@@ -37,24 +49,94 @@ function summary(year: number, ops: Partial<Record<Operation, Partial<OperationS
       { operation: 'harrowing', week: `${year}-05-11`, acresFinished: 0, cumulativeAcres: 200 },
     ],
     byField: [
-      { fieldId: 1, field: 'North', crop: 'durum', acres: 160.5, operations: { seeding: { acres: 160.5, hours: 6, dateFinished: `${year}-05-12` }, harrowing: { acres: 120, hours: 3, dateFinished: null } }, totalAcres: 280.5, totalHours: 9 },
-      { fieldId: 2, field: 'South', crop: null, acres: 80, operations: { harrowing: { acres: 80, hours: 2, dateFinished: `${year}-04-28` } }, totalAcres: 80, totalHours: 2 },
+      {
+        fieldId: 1,
+        field: 'North',
+        crop: 'durum',
+        acres: 160.5,
+        operations: {
+          seeding: { acres: 160.5, hours: 6, dateFinished: `${year}-05-12` },
+          harrowing: { acres: 120, hours: 3, dateFinished: null },
+        },
+        totalAcres: 280.5,
+        totalHours: 9,
+      },
+      {
+        fieldId: 2,
+        field: 'South',
+        crop: null,
+        acres: 80,
+        operations: { harrowing: { acres: 80, hours: 2, dateFinished: `${year}-04-28` } },
+        totalAcres: 80,
+        totalHours: 2,
+      },
       { fieldId: 3, field: 'West', crop: 'canola', acres: 40, operations: {}, totalAcres: 0, totalHours: 0 },
     ],
     byPerson: [
-      { membershipId: 7, name: 'Ada', operations: { seeding: { acres: 160.5, hours: 6 } }, totalAcres: 160.5, totalHours: 6, acresPerHour: 26.75 },
-      { membershipId: 8, name: 'Tomas', operations: { harrowing: { acres: 200, hours: 5 } }, totalAcres: 200, totalHours: 5, acresPerHour: 40 },
+      {
+        membershipId: 7,
+        name: 'Ada',
+        operations: { seeding: { acres: 160.5, hours: 6 } },
+        totalAcres: 160.5,
+        totalHours: 6,
+        acresPerHour: 26.75,
+      },
+      {
+        membershipId: 8,
+        name: 'Tomas',
+        operations: { harrowing: { acres: 200, hours: 5 } },
+        totalAcres: 200,
+        totalHours: 5,
+        acresPerHour: 40,
+      },
     ],
     byMachine: [
-      { machineId: 1, machine: 'Big tractor', engineHours: 12.5, acres: 360.5, hours: 11, acresPerEngineHour: 28.84, operations: [{ operation: 'harrowing', acres: 200, hours: 5, engineHours: 5.5 }, { operation: 'seeding', acres: 160.5, hours: 6, engineHours: 7 }] },
+      {
+        machineId: 1,
+        machine: 'Big tractor',
+        engineHours: 12.5,
+        acres: 360.5,
+        hours: 11,
+        acresPerEngineHour: 28.84,
+        operations: [
+          { operation: 'harrowing', acres: 200, hours: 5, engineHours: 5.5 },
+          { operation: 'seeding', acres: 160.5, hours: 6, engineHours: 7 },
+        ],
+      },
     ],
-    totals: { acresFinished: 360.5, hoursLogged: 11, engineHours: 12.5, acresPerHour: 32.77, jobsFinished: 4, jobsCalledOff: 1, fieldsWorked: 2 },
+    totals: {
+      acresFinished: 360.5,
+      hoursLogged: 11,
+      engineHours: 12.5,
+      acresPerHour: 32.77,
+      jobsFinished: 4,
+      jobsCalledOff: 1,
+      fieldsWorked: 2,
+    },
   };
 }
 
 const S = summary(2026, {
-  harrowing: { acresPlanned: 280.5, acresCovered: 200, acresFinished: 200, hoursLogged: 5, acresPerHour: 40, progress: 200 / 280.5, plannedHours: 4, acresWithPlan: 160.5, plannedAcresPerHour: 160.5 / 4 },
-  seeding: { acresPlanned: 200.5, acresCovered: 160.5, acresFinished: 160.5, hoursLogged: 6, acresPerHour: 26.75, progress: 160.5 / 200.5, jobsCalledOff: 1 },
+  harrowing: {
+    acresPlanned: 280.5,
+    acresCovered: 200,
+    acresFinished: 200,
+    hoursLogged: 5,
+    acresPerHour: 40,
+    progress: 200 / 280.5,
+    plannedHours: 4,
+    acresWithPlan: 160.5,
+    plannedAcresPerHour: 160.5 / 4,
+  },
+  seeding: {
+    acresPlanned: 200.5,
+    acresCovered: 160.5,
+    acresFinished: 160.5,
+    hoursLogged: 6,
+    acresPerHour: 26.75,
+    progress: 160.5 / 200.5,
+    jobsCalledOff: 1,
+  },
   spraying: { acresPlanned: 200.5 },
 });
 
@@ -120,15 +202,24 @@ describe('season shaping', () => {
 
   it('when people and machines are listed, then their totals match the season totals', () => {
     const p = peopleTable(S, 'us');
-    expect(p.totals['area']).toBeCloseTo(S.byPerson.reduce((s, x) => s + x.totalAcres, 0), 9);
-    expect(p.totals['rate']).toBeCloseTo(S.byPerson.reduce((s, x) => s + x.totalAcres, 0) / S.byPerson.reduce((s, x) => s + x.totalHours, 0), 9);
+    expect(p.totals['area']).toBeCloseTo(
+      S.byPerson.reduce((s, x) => s + x.totalAcres, 0),
+      9,
+    );
+    expect(p.totals['rate']).toBeCloseTo(
+      S.byPerson.reduce((s, x) => s + x.totalAcres, 0) / S.byPerson.reduce((s, x) => s + x.totalHours, 0),
+      9,
+    );
     const m = machinesTable(S, 'us');
     expect(m.rows[0]['operations']).toBe('Harrowing, Seeding');
     expect(m.totals['rate']).toBeCloseTo(360.5 / 12.5, 9);
   });
 
   it('when two seasons are compared, then each operation shows both years and the change', () => {
-    const before = summary(2025, { harrowing: { acresPlanned: 100, acresFinished: 90, hoursLogged: 3, acresPerHour: 30, progress: 0.9 }, baling: { acresFinished: 12, hoursLogged: 1 } });
+    const before = summary(2025, {
+      harrowing: { acresPlanned: 100, acresFinished: 90, hoursLogged: 3, acresPerHour: 30, progress: 0.9 },
+      baling: { acresFinished: 12, hoursLogged: 1 },
+    });
     const t = compareTable(before, S, 'us');
     expect(t.rows.map((r) => r['operation'])).toEqual(['Harrowing', 'Seeding', 'Spraying', 'Baling']);
     const h = t.rows[0];

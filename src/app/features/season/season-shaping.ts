@@ -162,7 +162,12 @@ export function peopleTable(s: SeasonSummary, system: UnitSystem): Table {
     { key: 'rate', label: `${u}/h`, kind: 'rate', total: { ratio: ['area', 'hours'] } },
   ];
   const rows = s.byPerson.map((p) => {
-    const row: Row = { name: p.name, area: areaIn(p.totalAcres, system), hours: p.totalHours, rate: p.acresPerHour === null ? null : areaIn(p.acresPerHour, system) };
+    const row: Row = {
+      name: p.name,
+      area: areaIn(p.totalAcres, system),
+      hours: p.totalHours,
+      rate: p.acresPerHour === null ? null : areaIn(p.acresPerHour, system),
+    };
     for (const op of ops) row[op] = p.operations[op] ? areaIn(p.operations[op].acres, system) : null;
     return row;
   });

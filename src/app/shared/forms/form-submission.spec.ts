@@ -33,17 +33,26 @@ describe('FormSubmission', () => {
   it('when the server refuses, then field messages go on the controls and the rest above the form', () => {
     const f = form();
     const s = new FormSubmission(f);
-    s.send(throwError(() => new ApiError(400, 'invalid', 'Check the marked fields', { name: 'That name is taken' })), jest.fn());
+    s.send(
+      throwError(() => new ApiError(400, 'invalid', 'Check the marked fields', { name: 'That name is taken' })),
+      jest.fn(),
+    );
     expect(s.busy()).toBe(false);
     expect(f.controls.name.getError('server')).toBe('That name is taken');
     expect(s.error()).toBeNull();
-    s.send(throwError(() => new ApiError(409, 'conflict', 'Someone changed this first')), jest.fn());
+    s.send(
+      throwError(() => new ApiError(409, 'conflict', 'Someone changed this first')),
+      jest.fn(),
+    );
     expect(s.error()).toBe('Someone changed this first');
   });
 
   it('when a form has its own way to word failures, then that message shows', () => {
     const s = new FormSubmission(form(), () => 'Start was not sent: no connection');
-    s.send(throwError(() => new Error('offline')), jest.fn());
+    s.send(
+      throwError(() => new Error('offline')),
+      jest.fn(),
+    );
     expect(s.error()).toBe('Start was not sent: no connection');
   });
 });

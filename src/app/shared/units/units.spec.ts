@@ -9,7 +9,8 @@ import { formatArea, formatLength, lengthToMetres, metresToLength } from './unit
 
 const me = (units: 'us' | 'metric'): Me => ({
   user: { id: 1, email: 'ingrid@example.test', name: 'Ingrid Sorensen' },
-  farm: { id: 1, name: 'Tamarack Ridge Farm', units, timeZone: 'America/Chicago' }, membershipId: 1,
+  farm: { id: 1, name: 'Tamarack Ridge Farm', units, timeZone: 'America/Chicago' },
+  membershipId: 1,
   role: 'owner',
 });
 

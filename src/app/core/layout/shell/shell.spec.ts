@@ -15,7 +15,8 @@ class Blank {}
 function me(role: Role): Me {
   return {
     user: { id: 1, email: 'someone@example.test', name: 'Ingrid Sorensen' },
-    farm: { id: 1, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' }, membershipId: 1,
+    farm: { id: 1, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' },
+    membershipId: 1,
     role,
   };
 }

@@ -20,7 +20,8 @@ const INVITE: TokenInfo = {
 };
 const ME: Me = {
   user: { id: 6, email: 'ada@example.test', name: 'Ada L.' },
-  farm: { id: 1, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' }, membershipId: 1,
+  farm: { id: 1, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' },
+  membershipId: 1,
   role: 'operator',
 };
 

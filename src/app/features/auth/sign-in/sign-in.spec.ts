@@ -13,7 +13,8 @@ class Blank {}
 
 const ME: Me = {
   user: { id: 2, email: 'tomas@example.test', name: 'Tomas Reyes' },
-  farm: { id: 1, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' }, membershipId: 1,
+  farm: { id: 1, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' },
+  membershipId: 1,
   role: 'operator',
 };
 

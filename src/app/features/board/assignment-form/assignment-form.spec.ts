@@ -39,7 +39,8 @@ describe('AssignmentForm', () => {
     });
     TestBed.inject(AuthStore).signedInAs({
       user: { id: 1, email: 'i@example.test', name: 'Ingrid' },
-      farm: { id: 1, name: 'F', units, timeZone: 'America/Chicago' }, membershipId: 1,
+      farm: { id: 1, name: 'F', units, timeZone: 'America/Chicago' },
+      membershipId: 1,
       role: 'owner',
     });
     http = TestBed.inject(HttpTestingController);

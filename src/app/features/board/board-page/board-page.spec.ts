@@ -12,7 +12,8 @@ import { BoardPage } from './board-page';
 
 const OWNER: Me = {
   user: { id: 1, email: 'ingrid@example.test', name: 'Ingrid Sorensen' },
-  farm: { id: 1, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' }, membershipId: 1,
+  farm: { id: 1, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' },
+  membershipId: 1,
   role: 'owner',
 };
 const DAY = '2031-05-15';

@@ -11,7 +11,8 @@ import { CrewPage } from './crew-page';
 
 const OWNER: Me = {
   user: { id: 1, email: 'ingrid@example.test', name: 'Ingrid Sorensen' },
-  farm: { id: 1, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' }, membershipId: 1,
+  farm: { id: 1, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' },
+  membershipId: 1,
   role: 'owner',
 };
 

@@ -63,7 +63,12 @@ export class BoundaryEditor {
     });
     map.on('pm:remove', () => this.emit());
     map.on('pm:drawend pm:globalcutmodetoggled pm:globaleditmodetoggled pm:globalremovalmodetoggled', () => {
-      if (!map.pm.globalDrawModeEnabled() && !map.pm.globalEditModeEnabled() && !map.pm.globalCutModeEnabled() && !map.pm.globalRemovalModeEnabled())
+      if (
+        !map.pm.globalDrawModeEnabled() &&
+        !map.pm.globalEditModeEnabled() &&
+        !map.pm.globalCutModeEnabled() &&
+        !map.pm.globalRemovalModeEnabled()
+      )
         this.tool.set('none');
     });
     this.emit();

@@ -11,7 +11,12 @@ import { FieldMapStub } from '../../../shared/map/field-map/field-map-stub';
 import type { FieldDetail } from '@shared/schemas/fields';
 import { FieldPage } from './field-page';
 
-const me = (role: Me['role']): Me => ({ user: { id: 1, email: 'a@example.test', name: 'A' }, farm: { id: 1, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' }, membershipId: 1, role });
+const me = (role: Me['role']): Me => ({
+  user: { id: 1, email: 'a@example.test', name: 'A' },
+  farm: { id: 1, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' },
+  membershipId: 1,
+  role,
+});
 const YEAR = new Date().getFullYear();
 
 const FIELD: FieldDetail = {
@@ -21,13 +26,29 @@ const FIELD: FieldDetail = {
   hectares: 126.42,
   areaM2: 1264200,
   notes: 'Gate on the east side.',
-  boundary: { type: 'Polygon', coordinates: [[[-99.9, 47.6], [-99.89, 47.6], [-99.89, 47.61], [-99.9, 47.6]]] },
+  boundary: {
+    type: 'Polygon',
+    coordinates: [
+      [
+        [-99.9, 47.6],
+        [-99.89, 47.6],
+        [-99.89, 47.61],
+        [-99.9, 47.6],
+      ],
+    ],
+  },
   hazards: {
     type: 'FeatureCollection',
     features: [
       {
         type: 'Feature',
-        geometry: { type: 'LineString', coordinates: [[-99.9, 47.605], [-99.89, 47.605]] },
+        geometry: {
+          type: 'LineString',
+          coordinates: [
+            [-99.9, 47.605],
+            [-99.89, 47.605],
+          ],
+        },
         properties: { id: 31, fieldId: 7, kind: 'power', clearanceM: 30.48, note: 'Sags in summer', status: 'confirmed' },
       },
     ],
@@ -65,7 +86,8 @@ describe('FieldPage', () => {
 
   afterEach(() => httpTesting.verify());
 
-  const buttons = () => [...page.querySelectorAll('button')].map((b) => b.textContent?.replace(/\s+/g, ' ').trim() ?? b.getAttribute('aria-label'));
+  const buttons = () =>
+    [...page.querySelectorAll('button')].map((b) => b.textContent?.replace(/\s+/g, ' ').trim() ?? b.getAttribute('aria-label'));
 
   it('when a viewer opens a field, then it reads everything with no edit controls at all', async () => {
     await open('viewer');
@@ -82,8 +104,17 @@ describe('FieldPage', () => {
 
   it('when the owner opens a field, then the edit controls are there', async () => {
     await open('owner');
-    const labels = [...page.querySelectorAll('button')].map((b) => (b.getAttribute('aria-label') ?? b.textContent ?? '').replace(/\s+/g, ' ').trim());
-    for (const expected of ['editEdit boundary', 'Save crop', 'Save name and notes', 'deleteDelete field', 'Edit Power pole or line', 'Remove Power pole or line'])
+    const labels = [...page.querySelectorAll('button')].map((b) =>
+      (b.getAttribute('aria-label') ?? b.textContent ?? '').replace(/\s+/g, ' ').trim(),
+    );
+    for (const expected of [
+      'editEdit boundary',
+      'Save crop',
+      'Save name and notes',
+      'deleteDelete field',
+      'Edit Power pole or line',
+      'Remove Power pole or line',
+    ])
       expect(labels).toContain(expected);
   });
 
@@ -97,7 +128,13 @@ describe('FieldPage', () => {
     expect(req.request.method).toBe('PATCH');
     expect(req.request.body).toEqual({ name: 'Home Section', notes: 'Gate on the east side.' });
     req.flush(
-      { error: { code: 'name_taken', message: 'There is already a field called "Home Section" on this farm; choose another name', fields: { name: 'Name already used' } } },
+      {
+        error: {
+          code: 'name_taken',
+          message: 'There is already a field called "Home Section" on this farm; choose another name',
+          fields: { name: 'Name already used' },
+        },
+      },
       { status: 409, statusText: 'Conflict' },
     );
     await fixture.whenStable();

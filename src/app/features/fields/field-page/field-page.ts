@@ -227,14 +227,18 @@ export class FieldPage {
 
   protected confirmHazard(hazard: HazardFeature): void {
     const f = this.detail();
-    if (f) this.write(this.api.updateHazard(f.id, hazard.properties.id, { status: 'confirmed' }), this.hazardError, () => this.tell('Hazard confirmed.'));
+    if (f)
+      this.write(this.api.updateHazard(f.id, hazard.properties.id, { status: 'confirmed' }), this.hazardError, () =>
+        this.tell('Hazard confirmed.'),
+      );
   }
 
   protected removeHazard(hazard: HazardFeature): void {
     const f = this.detail();
     if (!f) return;
-    this.ask({ title: 'Remove this hazard?', message: 'It will no longer show on maps, pass plans or run sheets.', confirm: 'Remove' }, () =>
-      this.api.removeHazard(f.id, hazard.properties.id),
+    this.ask(
+      { title: 'Remove this hazard?', message: 'It will no longer show on maps, pass plans or run sheets.', confirm: 'Remove' },
+      () => this.api.removeHazard(f.id, hazard.properties.id),
     ).subscribe({
       next: () => {
         this.field.reload();

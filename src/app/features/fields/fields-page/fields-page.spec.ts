@@ -14,14 +14,34 @@ import { FieldsPage } from './fields-page';
 
 const me = (role: Me['role'], units: 'us' | 'metric' = 'us'): Me => ({
   user: { id: 1, email: 'ingrid@example.test', name: 'Ingrid Sorensen' },
-  farm: { id: 1, name: 'Tamarack Ridge Farm', units, timeZone: 'America/Chicago' }, membershipId: 1,
+  farm: { id: 1, name: 'Tamarack Ridge Farm', units, timeZone: 'America/Chicago' },
+  membershipId: 1,
   role,
 });
 
-const square = { type: 'Polygon' as const, coordinates: [[[-99.9, 47.6], [-99.89, 47.6], [-99.89, 47.61], [-99.9, 47.6]]] };
+const square = {
+  type: 'Polygon' as const,
+  coordinates: [
+    [
+      [-99.9, 47.6],
+      [-99.89, 47.6],
+      [-99.89, 47.61],
+      [-99.9, 47.6],
+    ],
+  ],
+};
 const FIELDS: FieldSummary[] = [
   { id: 3, name: 'Slough Quarter', acres: 151.26, hectares: 61.21, crop: 'canola', hazardCount: 2, lastOperation: null, boundary: square },
-  { id: 1, name: 'Home Section', acres: 638.9, hectares: 258.55, crop: null, hazardCount: 0, lastOperation: { operation: 'seeding', date: '2026-05-02' }, boundary: square },
+  {
+    id: 1,
+    name: 'Home Section',
+    acres: 638.9,
+    hectares: 258.55,
+    crop: null,
+    hazardCount: 0,
+    lastOperation: { operation: 'seeding', date: '2026-05-02' },
+    boundary: square,
+  },
   { id: 2, name: 'Draw Half', acres: 312.4, hectares: 126.42, crop: 'durum', hazardCount: 1, lastOperation: null, boundary: square },
 ];
 const YEAR = new Date().getFullYear();
@@ -55,7 +75,9 @@ describe('FieldsPage', () => {
   afterEach(() => httpTesting.verify());
 
   const rows = () =>
-    [...page.querySelectorAll('tr.mat-mdc-row:not(.empty)')].map((tr) => [...tr.querySelectorAll('td')].map((td) => td.textContent?.trim() ?? ''));
+    [...page.querySelectorAll('tr.mat-mdc-row:not(.empty)')].map((tr) =>
+      [...tr.querySelectorAll('td')].map((td) => td.textContent?.trim() ?? ''),
+    );
   const buttonTexts = () => [...page.querySelectorAll('a, button')].map((b) => b.textContent?.replace(/\s+/g, ' ').trim() ?? '');
 
   it('when the fields load, then each shows with acres, crop, hazards and last operation, sorted by name', async () => {
@@ -90,7 +112,8 @@ describe('FieldsPage', () => {
     await open('operator');
     const texts = buttonTexts();
     expect(texts.some((t) => t.includes('Download GeoJSON'))).toBe(true);
-    for (const owner of ['New field', 'Upload boundaries', "Copy last season's crops", 'Metric']) expect(texts.some((t) => t.includes(owner))).toBe(false);
+    for (const owner of ['New field', 'Upload boundaries', "Copy last season's crops", 'Metric'])
+      expect(texts.some((t) => t.includes(owner))).toBe(false);
   });
 
   it('when a row or an outline is clicked, then the field opens', async () => {

@@ -113,7 +113,9 @@ export class FieldsPage {
     this.api.copyCrops(to - 1, to).subscribe({
       next: ({ copied }) => {
         this.copying.set(false);
-        this.tell(copied === 0 ? `No crops to copy from ${to - 1}.` : `Copied ${copied} crop ${copied === 1 ? 'plan' : 'plans'} from ${to - 1}.`);
+        this.tell(
+          copied === 0 ? `No crops to copy from ${to - 1}.` : `Copied ${copied} crop ${copied === 1 ? 'plan' : 'plans'} from ${to - 1}.`,
+        );
         this.fields.reload();
       },
       error: (err: unknown) => {
@@ -126,7 +128,8 @@ export class FieldsPage {
   protected setUnits(units: UnitSystem): void {
     if (units === this.units.system()) return;
     this.api.setUnits(units).subscribe({
-      next: () => void this.auth.load().then(() => this.tell(units === 'metric' ? 'Showing hectares and metres.' : 'Showing acres and feet.')),
+      next: () =>
+        void this.auth.load().then(() => this.tell(units === 'metric' ? 'Showing hectares and metres.' : 'Showing acres and feet.')),
       error: (err: unknown) => this.tell(messageOf(err)),
     });
   }

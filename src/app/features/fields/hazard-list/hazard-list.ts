@@ -6,7 +6,14 @@ import { HazardSymbol } from '../../../shared/map/hazard-symbol/hazard-symbol';
 import type { HazardFeature } from '../../../shared/map/map-types';
 import { LengthPipe } from '../../../shared/units/length-pipe';
 
-const SHAPES: Record<string, string> = { Point: 'point', MultiPoint: 'points', LineString: 'line', MultiLineString: 'lines', Polygon: 'area', MultiPolygon: 'areas' };
+const SHAPES: Record<string, string> = {
+  Point: 'point',
+  MultiPoint: 'points',
+  LineString: 'line',
+  MultiLineString: 'lines',
+  Polygon: 'area',
+  MultiPolygon: 'areas',
+};
 
 /** A field's hazards with their clearances; the owner's edit, remove and confirm buttons. */
 @Component({

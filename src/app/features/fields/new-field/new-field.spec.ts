@@ -13,7 +13,12 @@ import { BoundaryEditor } from '../boundary-editor/boundary-editor';
 import { BoundaryEditorStub } from '../boundary-editor/boundary-editor-stub';
 import { NewField } from './new-field';
 
-const OWNER: Me = { user: { id: 1, email: 'i@example.test', name: 'Ingrid Sorensen' }, farm: { id: 1, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' }, membershipId: 1, role: 'owner' };
+const OWNER: Me = {
+  user: { id: 1, email: 'i@example.test', name: 'Ingrid Sorensen' },
+  farm: { id: 1, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' },
+  membershipId: 1,
+  role: 'owner',
+};
 const YEAR = new Date().getFullYear();
 
 // An irregular quarter near 47.6° N with a slough cut out of it.

@@ -40,7 +40,12 @@ export class NewField {
   /** The other fields of the farm, drawn dashed so the new one can be placed beside them. */
   private readonly existing = httpResource<FieldSummary[]>(() => fieldsUrl(this.auth.currentSeason()), { defaultValue: [] });
   protected readonly context = computed<MapField[]>(() =>
-    (this.existing.hasValue() ? this.existing.value() : []).map((f) => ({ id: f.id, name: f.name, boundary: f.boundary as MapField['boundary'], muted: true })),
+    (this.existing.hasValue() ? this.existing.value() : []).map((f) => ({
+      id: f.id,
+      name: f.name,
+      boundary: f.boundary as MapField['boundary'],
+      muted: true,
+    })),
   );
 
   protected readonly boundary = signal<Boundary | null>(null);

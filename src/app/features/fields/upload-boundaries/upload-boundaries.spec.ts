@@ -11,15 +11,37 @@ import { FieldMap } from '../../../shared/map/field-map/field-map';
 import { FieldMapStub } from '../../../shared/map/field-map/field-map-stub';
 import { UploadBoundaries } from './upload-boundaries';
 
-const OWNER: Me = { user: { id: 1, email: 'i@example.test', name: 'Ingrid' }, farm: { id: 1, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' }, membershipId: 1, role: 'owner' };
-const square = { type: 'Polygon', coordinates: [[[-99.9, 47.6], [-99.89, 47.6], [-99.89, 47.61], [-99.9, 47.6]]] };
+const OWNER: Me = {
+  user: { id: 1, email: 'i@example.test', name: 'Ingrid' },
+  farm: { id: 1, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' },
+  membershipId: 1,
+  role: 'owner',
+};
+const square = {
+  type: 'Polygon',
+  coordinates: [
+    [
+      [-99.9, 47.6],
+      [-99.89, 47.6],
+      [-99.89, 47.61],
+      [-99.9, 47.6],
+    ],
+  ],
+};
 const PREVIEW: ImportPreview = {
   format: 'kml',
   attributes: ['name', 'legal'],
   nameAttribute: 'name',
   features: [
     { index: 0, name: 'North forty', acres: 40.1, geometry: square, properties: {}, errors: [] },
-    { index: 1, name: 'Bowtie', acres: null, geometry: square, properties: {}, errors: ['Ring 1 crosses itself near 47.60500° N, 99.89500° W'] },
+    {
+      index: 1,
+      name: 'Bowtie',
+      acres: null,
+      geometry: square,
+      properties: {},
+      errors: ['Ring 1 crosses itself near 47.60500° N, 99.89500° W'],
+    },
     { index: 2, name: 'Home half', acres: 320.2, geometry: square, properties: {}, errors: [] },
   ],
 };
@@ -83,7 +105,8 @@ describe('UploadBoundaries', () => {
       {
         error: {
           code: 'import_refused',
-          message: 'Nothing was saved. A field called "North forty" already exists on this farm; rename it or untick it (and 1 more problem)',
+          message:
+            'Nothing was saved. A field called "North forty" already exists on this farm; rename it or untick it (and 1 more problem)',
           problems: ['A field called "North forty" already exists on this farm; rename it or untick it', 'Something else'],
         },
       },

@@ -75,7 +75,12 @@ export class UploadBoundaries {
   protected readonly mapFields = computed<MapField[]>(() =>
     this.rows()
       .filter((r) => r.tickable && isPolygonal(r.geometry))
-      .map((r) => ({ id: r.index, name: r.name || `Feature ${r.index + 1}`, boundary: r.geometry as MapField['boundary'], muted: !r.ticked })),
+      .map((r) => ({
+        id: r.index,
+        name: r.name || `Feature ${r.index + 1}`,
+        boundary: r.geometry as MapField['boundary'],
+        muted: !r.ticked,
+      })),
   );
 
   protected choose(input: HTMLInputElement): void {
@@ -84,7 +89,9 @@ export class UploadBoundaries {
     this.error.set(null);
     this.serverProblems.set([]);
     if (file.size > MAX_UPLOAD_BYTES) {
-      this.error.set(`${file.name} is ${(file.size / 1048576).toFixed(1)} MB; files up to ${MAX_UPLOAD_BYTES / 1048576} MB can be uploaded.`);
+      this.error.set(
+        `${file.name} is ${(file.size / 1048576).toFixed(1)} MB; files up to ${MAX_UPLOAD_BYTES / 1048576} MB can be uploaded.`,
+      );
       return;
     }
     this.file.set(file);
@@ -118,7 +125,9 @@ export class UploadBoundaries {
     this.serverProblems.set([]);
     this.send('save', this.api.saveImport(file, this.preview()?.nameAttribute ?? null, this.chosen()), (result) => {
       const names = result.saved.map((s) => s.name).join(', ');
-      this.snackBar.open(`Saved ${result.saved.length} ${result.saved.length === 1 ? 'field' : 'fields'}: ${names}.`, 'Close', { duration: 8000 });
+      this.snackBar.open(`Saved ${result.saved.length} ${result.saved.length === 1 ? 'field' : 'fields'}: ${names}.`, 'Close', {
+        duration: 8000,
+      });
       void this.router.navigateByUrl('/fields');
     });
   }

@@ -11,7 +11,8 @@ import { FleetPage } from './fleet-page';
 
 const me = (role: Role): Me => ({
   user: { id: 1, email: 'someone@example.test', name: 'Someone' },
-  farm: { id: 1, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' }, membershipId: 1,
+  farm: { id: 1, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' },
+  membershipId: 1,
   role,
 });
 

@@ -12,7 +12,8 @@ import { ImplementForm, type ImplementFormData } from './implement-form';
 
 const me = (units: UnitSystem): Me => ({
   user: { id: 1, email: 'ingrid@example.test', name: 'Ingrid Sorensen' },
-  farm: { id: 1, name: 'Tamarack Ridge Farm', units, timeZone: 'America/Chicago' }, membershipId: 1,
+  farm: { id: 1, name: 'Tamarack Ridge Farm', units, timeZone: 'America/Chicago' },
+  membershipId: 1,
   role: 'owner',
 });
 

@@ -11,7 +11,8 @@ import { clockIn, timeZoneChoices } from './time-zones';
 
 const OWNER: Me = {
   user: { id: 1, email: 'ingrid@example.test', name: 'Ingrid Sorensen' },
-  farm: { id: 1, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' }, membershipId: 1,
+  farm: { id: 1, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' },
+  membershipId: 1,
   role: 'owner',
 };
 const SETTINGS: FarmSettings = { id: 1, name: 'Tamarack Ridge Farm', units: 'us', dayHoursLimit: 12, timeZone: 'America/Chicago' };

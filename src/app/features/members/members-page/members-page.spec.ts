@@ -10,7 +10,8 @@ import { MembersPage } from './members-page';
 
 const OWNER: Me = {
   user: { id: 1, email: 'ingrid@example.test', name: 'Ingrid Sorensen' },
-  farm: { id: 1, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' }, membershipId: 1,
+  farm: { id: 1, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' },
+  membershipId: 1,
   role: 'owner',
 };
 
@@ -50,7 +51,9 @@ describe('MembersPage', () => {
     page = fixture.nativeElement as HTMLElement;
     fixture.detectChanges();
     // The farm's settings load beside the list (their own spec tests them).
-    httpTesting.expectOne('/api/farm').flush({ id: 1, name: 'Tamarack Ridge Farm', units: 'us', dayHoursLimit: 12, timeZone: 'America/Chicago' });
+    httpTesting
+      .expectOne('/api/farm')
+      .flush({ id: 1, name: 'Tamarack Ridge Farm', units: 'us', dayHoursLimit: 12, timeZone: 'America/Chicago' });
   });
 
   afterEach(() => {

@@ -15,7 +15,8 @@ import { PassPlanPage } from './pass-plan-page';
 
 const me = (role: Me['role']): Me => ({
   user: { id: role === 'owner' ? 1 : 2, email: `${role}@example.test`, name: role === 'owner' ? 'Ingrid Sorensen' : 'Tomas Reyes' },
-  farm: { id: 1, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' }, membershipId: 1,
+  farm: { id: 1, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' },
+  membershipId: 1,
   role,
 });
 

@@ -31,7 +31,8 @@ describe('FinishDialog', () => {
     });
     TestBed.inject(AuthStore).signedInAs({
       user: { id: 2, email: 't@example.test', name: 'Tomas' },
-      farm: { id: 1, name: 'F', units, timeZone: 'America/Chicago' }, membershipId: 1,
+      farm: { id: 1, name: 'F', units, timeZone: 'America/Chicago' },
+      membershipId: 1,
       role: 'operator',
     });
     http = TestBed.inject(HttpTestingController);

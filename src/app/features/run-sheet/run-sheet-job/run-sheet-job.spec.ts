@@ -39,7 +39,8 @@ describe('RunSheetJob', () => {
     TestBed.overrideComponent(RunSheetJob, { remove: { imports: [FieldMap] }, add: { imports: [FieldMapStub] } });
     TestBed.inject(AuthStore).signedInAs({
       user: { id: 2, email: 't@example.test', name: 'Tomas Reyes' },
-      farm: { id: 1, name: 'F', units: 'us', timeZone: 'America/Chicago' }, membershipId: 1,
+      farm: { id: 1, name: 'F', units: 'us', timeZone: 'America/Chicago' },
+      membershipId: 1,
       role: 'operator',
     });
     http = TestBed.inject(HttpTestingController);

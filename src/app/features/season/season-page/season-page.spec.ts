@@ -21,11 +21,19 @@ globalThis.ResizeObserver ??= class {
 
 const me = (units: 'us' | 'metric'): Me => ({
   user: { id: 5, email: 'walt@example.test', name: 'Walt Sorensen' },
-  farm: { id: 1, name: 'Tamarack Ridge Farm', units, timeZone: 'America/Chicago' }, membershipId: 1,
+  farm: { id: 1, name: 'Tamarack Ridge Farm', units, timeZone: 'America/Chicago' },
+  membershipId: 1,
   role: 'viewer',
 });
 
-const INDEX: SeasonIndex = { current: 2026, latestWorked: 2026, seasons: [{ year: 2026, acresFinished: 300, jobs: 3 }, { year: 2025, acresFinished: 120, jobs: 1 }] };
+const INDEX: SeasonIndex = {
+  current: 2026,
+  latestWorked: 2026,
+  seasons: [
+    { year: 2026, acresFinished: 300, jobs: 3 },
+    { year: 2025, acresFinished: 120, jobs: 1 },
+  ],
+};
 
 function season(year: number, harrowAcres: number, harrowHours: number): SeasonSummary {
   return {
@@ -49,10 +57,37 @@ function season(year: number, harrowAcres: number, harrowHours: number): SeasonS
       { operation: 'harrowing', week: `${year}-04-20`, acresFinished: harrowAcres / 2, cumulativeAcres: harrowAcres / 2 },
       { operation: 'harrowing', week: `${year}-04-27`, acresFinished: harrowAcres / 2, cumulativeAcres: harrowAcres },
     ],
-    byField: [{ fieldId: 1, field: 'North Quarter', crop: 'durum', acres: 400, operations: { harrowing: { acres: harrowAcres, hours: harrowHours, dateFinished: null } }, totalAcres: harrowAcres, totalHours: harrowHours }],
-    byPerson: [{ membershipId: 2, name: 'Tomas Reyes', operations: { harrowing: { acres: harrowAcres, hours: harrowHours } }, totalAcres: harrowAcres, totalHours: harrowHours, acresPerHour: harrowAcres / harrowHours }],
+    byField: [
+      {
+        fieldId: 1,
+        field: 'North Quarter',
+        crop: 'durum',
+        acres: 400,
+        operations: { harrowing: { acres: harrowAcres, hours: harrowHours, dateFinished: null } },
+        totalAcres: harrowAcres,
+        totalHours: harrowHours,
+      },
+    ],
+    byPerson: [
+      {
+        membershipId: 2,
+        name: 'Tomas Reyes',
+        operations: { harrowing: { acres: harrowAcres, hours: harrowHours } },
+        totalAcres: harrowAcres,
+        totalHours: harrowHours,
+        acresPerHour: harrowAcres / harrowHours,
+      },
+    ],
     byMachine: [],
-    totals: { acresFinished: harrowAcres, hoursLogged: harrowHours, engineHours: 0, acresPerHour: harrowAcres / harrowHours, jobsFinished: 2, jobsCalledOff: 0, fieldsWorked: 1 },
+    totals: {
+      acresFinished: harrowAcres,
+      hoursLogged: harrowHours,
+      engineHours: 0,
+      acresPerHour: harrowAcres / harrowHours,
+      jobsFinished: 2,
+      jobsCalledOff: 0,
+      fieldsWorked: 1,
+    },
   };
 }
 
@@ -95,7 +130,9 @@ describe('SeasonPage', () => {
     await fixture.whenStable();
     expect(page.querySelector('h1')?.textContent).toContain('2026');
     expect(page.querySelectorAll('app-week-chart canvas')).toHaveLength(1);
-    expect(page.querySelector('mat-progress-bar[mode="determinate"]')?.getAttribute('aria-valuenow')).toBe(String(Math.round((300 / 400) * 100)));
+    expect(page.querySelector('mat-progress-bar[mode="determinate"]')?.getAttribute('aria-valuenow')).toBe(
+      String(Math.round((300 / 400) * 100)),
+    );
     expect(text()).toContain('75 % of 400.0 ac planned covered');
     const links = [...page.querySelectorAll<HTMLAnchorElement>('a[download]')].map((a) => a.getAttribute('href'));
     expect(links).toEqual(['weekly', 'operations', 'fields', 'people', 'machines'].map((t) => `/api/season/2026/export/${t}.csv`));
@@ -121,13 +158,20 @@ describe('SeasonPage', () => {
     expect(compare?.querySelector('canvas')).not.toBeNull();
     const headers = [...page.querySelectorAll('[aria-label="Seasons 2025 and 2026 side by side"] th')].map((th) => th.textContent?.trim());
     expect(headers.slice(0, 4)).toEqual(['Operation', '2025 (ac)', '2026 (ac)', 'Change (ac)']);
-    const firstRow = [...page.querySelectorAll('[aria-label="Seasons 2025 and 2026 side by side"] tr.mat-mdc-row td')].map((td) => td.textContent?.trim());
+    const firstRow = [...page.querySelectorAll('[aria-label="Seasons 2025 and 2026 side by side"] tr.mat-mdc-row td')].map((td) =>
+      td.textContent?.trim(),
+    );
     expect(firstRow.slice(0, 4)).toEqual(['Harrowing', '120.0', '300.0', (300 - 120).toFixed(1)]);
   });
 
   it('when the server refuses, then its message shows', async () => {
     await open('us', { year: '2026' });
-    http.expectOne('/api/season/2026/summary').flush({ error: { code: 'forbidden', message: 'Your role on this farm does not allow that' } }, { status: 403, statusText: 'Forbidden' });
+    http
+      .expectOne('/api/season/2026/summary')
+      .flush(
+        { error: { code: 'forbidden', message: 'Your role on this farm does not allow that' } },
+        { status: 403, statusText: 'Forbidden' },
+      );
     await fixture.whenStable();
     expect(page.querySelector('[role="alert"]')?.textContent).toContain('Your role on this farm does not allow that');
   });

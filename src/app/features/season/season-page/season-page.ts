@@ -37,7 +37,17 @@ import { WeekChart } from '../week-chart/week-chart';
 @Component({
   selector: 'app-season-page',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [CompareChart, MatButtonModule, MatFormFieldModule, MatIconModule, MatProgressBarModule, MatSelectModule, PrintStyles, SeasonTable, WeekChart],
+  imports: [
+    CompareChart,
+    MatButtonModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatProgressBarModule,
+    MatSelectModule,
+    PrintStyles,
+    SeasonTable,
+    WeekChart,
+  ],
   templateUrl: './season-page.html',
   styleUrl: './season-page.scss',
 })
@@ -63,8 +73,12 @@ export class SeasonPage {
     return [...years].sort((a, b) => b - a);
   });
 
-  protected readonly summary = httpResource(() => (this.season() === null ? undefined : summaryUrl(this.season()!)), { parse: seasonSummary.parse });
-  protected readonly other = httpResource(() => (this.compareYear() === null ? undefined : summaryUrl(this.compareYear()!)), { parse: seasonSummary.parse });
+  protected readonly summary = httpResource(() => (this.season() === null ? undefined : summaryUrl(this.season()!)), {
+    parse: seasonSummary.parse,
+  });
+  protected readonly other = httpResource(() => (this.compareYear() === null ? undefined : summaryUrl(this.compareYear()!)), {
+    parse: seasonSummary.parse,
+  });
   protected readonly data = computed(() => (this.summary.hasValue() ? this.summary.value() : null));
   protected readonly loadError = computed(() => {
     const e = this.index.error() ?? this.summary.error() ?? this.other.error();
@@ -121,7 +135,10 @@ export class SeasonPage {
   }
 
   protected pick(year: number): void {
-    void this.router.navigate([], { queryParams: { year, compare: this.compareYear() === year ? null : this.compareYear() }, replaceUrl: true });
+    void this.router.navigate([], {
+      queryParams: { year, compare: this.compareYear() === year ? null : this.compareYear() },
+      replaceUrl: true,
+    });
   }
 
   protected pickCompare(year: number | null): void {

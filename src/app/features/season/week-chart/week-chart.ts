@@ -33,7 +33,17 @@ export class WeekChart {
       labels: c.weeks.map(weekLabel),
       datasets: [
         { type: 'bar', label: `That week (${u})`, data: c.weekly, backgroundColor: CHART.wheat, yAxisID: 'y', order: 2 },
-        { type: 'line', label: `Season to date (${u})`, data: c.cumulative, borderColor: CHART.slate, backgroundColor: CHART.slate, yAxisID: 'y1', pointRadius: 2, tension: 0.2, order: 1 },
+        {
+          type: 'line',
+          label: `Season to date (${u})`,
+          data: c.cumulative,
+          borderColor: CHART.slate,
+          backgroundColor: CHART.slate,
+          yAxisID: 'y1',
+          pointRadius: 2,
+          tension: 0.2,
+          order: 1,
+        },
       ],
     } as unknown as ChartConfiguration<'bar'>['data'];
   });
@@ -46,8 +56,19 @@ export class WeekChart {
     plugins: { legend: { position: 'bottom', labels: { boxWidth: 12, color: CHART.ink } } },
     scales: {
       x: { ticks: { color: CHART.ink, maxRotation: 0, autoSkipPadding: 8 }, grid: { display: false } },
-      y: { beginAtZero: true, ticks: { color: CHART.ink }, grid: { color: CHART.grid }, title: { display: true, text: `per week (${this.unit()})`, color: CHART.ink } },
-      y1: { beginAtZero: true, position: 'right', ticks: { color: CHART.ink }, grid: { drawOnChartArea: false }, title: { display: true, text: `to date (${this.unit()})`, color: CHART.ink } },
+      y: {
+        beginAtZero: true,
+        ticks: { color: CHART.ink },
+        grid: { color: CHART.grid },
+        title: { display: true, text: `per week (${this.unit()})`, color: CHART.ink },
+      },
+      y1: {
+        beginAtZero: true,
+        position: 'right',
+        ticks: { color: CHART.ink },
+        grid: { drawOnChartArea: false },
+        title: { display: true, text: `to date (${this.unit()})`, color: CHART.ink },
+      },
     },
   }));
 }

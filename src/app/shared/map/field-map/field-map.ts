@@ -152,7 +152,9 @@ export class FieldMap {
     const { mapTileUrl, mapTileAttribution } = await this.config.tiles();
     if (!mapTileUrl || this.destroyed) return;
     L.control.attribution({ prefix: false }).addTo(map);
-    L.tileLayer(mapTileUrl, { attribution: mapTileAttribution ?? '', maxZoom: 20, pmIgnore: true }).addTo(map).bringToBack();
+    L.tileLayer(mapTileUrl, { attribution: mapTileAttribution ?? '', maxZoom: 20, pmIgnore: true })
+      .addTo(map)
+      .bringToBack();
   }
 
   private drawFields(fields: readonly MapField[], selectedId: number | null, selectable: boolean): void {
@@ -304,7 +306,10 @@ export function textLabel(text: string): HTMLElement {
   return span;
 }
 
-type Part = { type: 'Point'; coordinates: Position } | { type: 'LineString'; coordinates: Position[] } | { type: 'Polygon'; coordinates: Position[][] };
+type Part =
+  | { type: 'Point'; coordinates: Position }
+  | { type: 'LineString'; coordinates: Position[] }
+  | { type: 'Polygon'; coordinates: Position[][] };
 
 function partsOf(g: Geometry): Part[] {
   switch (g.type) {
