@@ -84,6 +84,7 @@ function jest(name, config, extra = []) {
 try {
   if (cluster) run('node', ['--import', 'tsx', 'scripts/prepare-db.ts'], { env });
   if (want('lint')) check('lint', 'node', ['node_modules/eslint/bin/eslint.js', '.', '--max-warnings=0']);
+  if (want('lint')) check('formatting (prettier --check)', 'node', ['node_modules/prettier/bin/prettier.cjs', '--check', '.']);
   if (want('typecheck')) {
     check('type-check server and shared', 'node', ['node_modules/typescript/bin/tsc', '-p', 'tsconfig.server.json', '--noEmit']);
     check('type-check app', 'node', ['node_modules/typescript/bin/tsc', '-p', 'tsconfig.app.json', '--noEmit']);
