@@ -2,8 +2,7 @@
 // of another farm} → the expected status. A route without an entry here fails the test.
 import type { RouteEntry } from '../../server/http/routes';
 import { makeFarm, type TestFarm } from '../support/farm-factory';
-import { spareField } from './matrix/fields';
-import type { Ctx } from './matrix/types';
+import { matrixContext } from './matrix/context';
 import { Client, startTestApp, type TestApp } from '../support/test-app';
 
 import { MATRIX, type Who } from './matrix';
@@ -39,22 +38,7 @@ describe('authorization matrix', () => {
   });
 
   it('when each principal calls each route, then the server answers the expected status', async () => {
-    const ctx: Ctx = {
-      farm,
-      t,
-      spareMember: async () => {
-        const [u] = await t
-          .db('users')
-          .insert({ email: `spare-${Date.now()}-${Math.random()}@furlong.test`, name: 'Spare' })
-          .returning('id');
-        const [m] = await t
-          .db('memberships')
-          .insert({ farm_id: farm.id, user_id: u.id, role: 'operator', status: 'invited' })
-          .returning('id');
-        return m.id as number;
-      },
-      spareField: () => spareField({ t, farm }),
-    };
+    const ctx = matrixContext(t, farm);
     const failures: string[] = [];
     for (const route of routes) {
       const key = keyOf(route);

@@ -9,8 +9,7 @@ import { buildOpenApiDocument, openApiPath, pathNames, type OpenApiDocument } fr
 import { makeFarm, type TestFarm } from '../support/farm-factory';
 import { Client, startTestApp, type TestApp } from '../support/test-app';
 import { MATRIX } from './matrix';
-import { spareField } from './matrix/fields';
-import type { Ctx } from './matrix/types';
+import { matrixContext } from './matrix/context';
 
 const SLOTS: Slot[] = ['params', 'query', 'body'];
 type Recorded = Map<string, Map<Slot, Set<z.ZodType>>>;
@@ -94,22 +93,7 @@ describe('OpenAPI document', () => {
     });
     const owner = new Client(t.app);
     await owner.signIn(farm.owner.email, farm.owner.password);
-    const ctx: Ctx = {
-      farm,
-      t,
-      spareMember: async () => {
-        const [u] = await t
-          .db('users')
-          .insert({ email: `spare-${Date.now()}-${Math.random()}@furlong.test`, name: 'Spare' })
-          .returning('id');
-        const [m] = await t
-          .db('memberships')
-          .insert({ farm_id: farm.id, user_id: u.id, role: 'operator', status: 'invited' })
-          .returning('id');
-        return m.id as number;
-      },
-      spareField: () => spareField({ t, farm }),
-    };
+    const ctx = matrixContext(t, farm);
     const statuses: string[] = [];
     try {
       for (const route of routes) {
