@@ -1,3 +1,5 @@
+import { LRUCache } from 'lru-cache';
+import type { Request } from 'express';
 import { planListQuery, planParams, planPreviewBody, planSettings } from '../../shared/schemas/plans';
 import type { AppDeps } from '../app-deps';
 import { heavyWork } from '../http/heavy';
@@ -12,6 +14,23 @@ export function planRoutes(r: Routes, deps: AppDeps): void {
   const reads = heavyWork(240);
   const saves = heavyWork(120);
 
+  // A saved plan is recomputed from the field, its hazards and the settings; all are farm tables,
+  // so the farm's revision (read with the principal) names one result. Kept as promises, so the
+  // run sheet's several requests for the same plan share one computation.
+  const saved = new LRUCache<string, ReturnType<typeof plans.getPlan>>({ max: 50 });
+  const savedPlan = (req: Request) => {
+    const p = params(req, planParams);
+    const me = principal(req);
+    const key = `${me.farmId}:${me.farmRevision}:${p.fieldId}:${p.operation}`;
+    let plan = saved.get(key);
+    if (!plan) {
+      plan = plans.getPlan(deps, me.farmId, p.fieldId, p.operation);
+      saved.set(key, plan);
+      plan.catch(() => saved.delete(key));
+    }
+    return plan;
+  };
+
   r.post('/preview', 'member', ...previews, async (req, res) => {
     res.json(await plans.preview(deps, principal(req).farmId, body(req, planPreviewBody)));
   });
@@ -22,13 +41,11 @@ export function planRoutes(r: Routes, deps: AppDeps): void {
   });
 
   r.get('/:fieldId/:operation', 'member', ...reads, async (req, res) => {
-    const p = params(req, planParams);
-    res.json(await plans.getPlan(deps, principal(req).farmId, p.fieldId, p.operation));
+    res.json(await savedPlan(req));
   });
 
   r.get('/:fieldId/:operation/passes.geojson', 'member', ...reads, async (req, res) => {
-    const p = params(req, planParams);
-    const plan = await plans.getPlan(deps, principal(req).farmId, p.fieldId, p.operation);
+    const plan = await savedPlan(req);
     const name = `${plan.fieldName}-${plan.operation}-passes.geojson`.replace(/[^A-Za-z0-9._-]+/g, '-');
     res
       .set('Content-Disposition', `attachment; filename="${name}"`)

@@ -70,6 +70,18 @@ describe('pass plans over the API', () => {
     expect(Math.max(...passNumbers)).toBe(put.body.summary.passCount);
   });
 
+  it('when a hazard is added after a saved plan was read, then the next read plans around it', async () => {
+    const put = await owner.put(`/api/plans/${fieldId}/swathing`, { widthM: 18.288, headingDeg: 0, headlandPasses: 1 });
+    expect(put.status).toBe(200);
+    const before = await operator.get(`/api/plans/${fieldId}/swathing`);
+    const again = await operator.get(`/api/plans/${fieldId}/swathing`);
+    expect(again.body.result.workRegionAcres).toBe(before.body.result.workRegionAcres);
+    const slough = rect(-99.896, 47.602, 0.001, 0.001);
+    expect((await owner.post(`/api/fields/${fieldId}/hazards`, { kind: 'waterway', geometry: slough, clearanceM: 5 })).status).toBe(201);
+    const after = await operator.get(`/api/plans/${fieldId}/swathing`);
+    expect(after.body.result.workRegionAcres).toBeLessThan(before.body.result.workRegionAcres - 1);
+  });
+
   it('when the operator tries to save a plan, then 403 and nothing is stored', async () => {
     const res = await operator.put(`/api/plans/${fieldId}/seeding`, { widthM: 18 });
     expect(res.status).toBe(403);
