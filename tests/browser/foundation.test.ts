@@ -61,6 +61,26 @@ describe('the app shell in a real browser', () => {
     }
   });
 
+  it('when the farm database is not answering as a signed-in owner opens a page, then the app says so and keeps them signed in, and Try again opens the page', async () => {
+    const page = await rig.newPage();
+    await signIn(page, demo('owner'));
+    // The server's answer during an outage (shown by the fault suite against a stopped PostgreSQL).
+    const outage = {
+      error: { code: 'db_unavailable', message: "The farm's database is not answering; your work is not lost. Try again in a minute." },
+    };
+    await page.route('**/api/auth/me', (r) => r.fulfill({ status: 503, contentType: 'application/json', body: JSON.stringify(outage) }));
+    await page.goto('/fleet');
+    await page.getByRole('alert').getByText('You are still signed in').waitFor();
+    expect(page.url()).not.toContain('sign-in');
+    expect(await page.getByRole('alert').innerText()).toContain("The farm's database is not answering");
+    expect(await seriousViolations(page)).toEqual([]);
+    await screenshot(page, 'foundation-database-not-answering');
+    await page.unroute('**/api/auth/me');
+    await page.getByRole('button', { name: 'Try again' }).click();
+    await page.getByRole('heading', { name: 'Fleet' }).waitFor();
+    expect(new URL(page.url()).pathname).toBe('/fleet');
+  });
+
   it('when the owner opens Members and switches to the dark theme, then the table shows the crew and the choice is remembered', async () => {
     const page = await rig.newPage();
     await signIn(page, demo('owner'));

@@ -43,6 +43,14 @@ describe('route guards', () => {
     expect(router.url).toBe('/sign-in?next=%2Fmembers%3Ftab%3D2');
   });
 
+  it('when the server could not say who this is (an outage), then nobody is sent to sign-in', async () => {
+    TestBed.inject(AuthStore).unavailable.set("The farm's database is not answering");
+    const ok = await router.navigateByUrl('/members');
+    expect(ok).toBe(false);
+    expect(router.url).not.toContain('sign-in');
+    expect(TestBed.inject(AuthStore).retryUrl).toBe('/members');
+  });
+
   it('when an operator opens an owner-only screen, then they land on their home', async () => {
     signIn('operator');
     await router.navigateByUrl('/members');

@@ -4,10 +4,18 @@ import type { Role } from '@shared/schemas/auth';
 import { AuthStore } from './auth-store';
 import { ROLE_HOME } from './role-home';
 
-/** Lets signed-in people through; others go to sign-in and come back to where they were going. */
+/**
+ * Lets signed-in people through; others go to sign-in and come back to where they were going.
+ * When the server could not say who this is (an outage), nobody is sent to sign-in: the app shows
+ * the outage and a way to try again.
+ */
 export const signedIn: CanActivateFn = (_route, state) => {
   const auth = inject(AuthStore);
   if (auth.signedIn()) return true;
+  if (auth.unavailable()) {
+    auth.retryUrl = state.url;
+    return false;
+  }
   return inject(Router).createUrlTree(['/sign-in'], {
     queryParams: state.url === '/' ? {} : { next: state.url },
   });

@@ -1,5 +1,5 @@
 import { provideHttpClient } from '@angular/common/http';
-import { provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import { AuthStore } from './auth-store';
 
@@ -21,5 +21,35 @@ describe('AuthStore', () => {
     expect(store.currentSeason(at)).toBe(2027);
     store.farmChanged({ id: 1, name: 'F', units: 'us', timeZone: 'America/Chicago' });
     expect(store.currentSeason(at)).toBe(2026);
+  });
+});
+
+describe('AuthStore start-up', () => {
+  beforeEach(() => TestBed.configureTestingModule({ providers: [provideHttpClient(), provideHttpClientTesting()] }));
+
+  it('when the server answers 503 to "who am I", then nobody is signed in but the outage is kept, not taken for a sign-out', async () => {
+    const store = TestBed.inject(AuthStore);
+    const http = TestBed.inject(HttpTestingController);
+    const loading = store.load();
+    http
+      .expectOne('/api/auth/me')
+      .flush(
+        { error: { code: 'db_unavailable', message: "The farm's database is not answering" } },
+        { status: 503, statusText: 'Service Unavailable' },
+      );
+    expect(await loading).toBeNull();
+    expect(store.signedIn()).toBe(false);
+    expect(store.unavailable()).toEqual(expect.any(String));
+  });
+
+  it('when the server answers 401, then it is an ordinary "signed out" with no outage', async () => {
+    const store = TestBed.inject(AuthStore);
+    const http = TestBed.inject(HttpTestingController);
+    const loading = store.load();
+    http
+      .expectOne('/api/auth/me')
+      .flush({ error: { code: 'signed_out', message: 'Sign in' } }, { status: 401, statusText: 'Unauthorized' });
+    expect(await loading).toBeNull();
+    expect(store.unavailable()).toBeNull();
   });
 });

@@ -14,6 +14,14 @@ export class AuthStore {
   private readonly current = signal<Me | null>(null);
 
   readonly me = this.current.asReadonly();
+  /**
+   * Why the server could not say who this browser belongs to (the farm's database not answering,
+   * no connection). Not the same as signed out: the person keeps their session and is not sent to
+   * sign-in; the app offers to try again instead.
+   */
+  readonly unavailable = signal<string | null>(null);
+  /** The page that was asked for when the server could not answer, to open on "Try again". */
+  retryUrl: string | null = null;
   readonly signedIn = computed(() => this.current() !== null);
   readonly role = computed<Role | null>(() => this.current()?.role ?? null);
   readonly isOwner = computed(() => this.role() === 'owner');
@@ -26,11 +34,19 @@ export class AuthStore {
     return zone ? yearIn(zone, now) : now.getFullYear();
   }
 
-  /** Asks the server once at start-up who this browser belongs to; a 401 just means "nobody". */
+  /**
+   * Asks the server once at start-up who this browser belongs to; a 401 just means "nobody", any
+   * other failure means the server could not tell (see `unavailable`).
+   */
   load(): Promise<Me | null> {
     return firstValueFrom(
       this.http.get<Me>('/api/auth/me').pipe(
-        catchError(() => of(null)),
+        tap(() => this.unavailable.set(null)),
+        catchError((err: unknown) => {
+          const e = err as { status?: number; message?: string };
+          this.unavailable.set(e?.status === 401 ? null : (e?.message ?? "Cannot reach Furlong's server; your work is not lost."));
+          return of(null);
+        }),
         tap((me) => this.current.set(me)),
       ),
     );
