@@ -10,6 +10,8 @@ import type { AppDeps } from '../app-deps';
 import { AppError, notFound } from '../http/errors';
 import { getField, hazardsOfField } from '../fields/fields.repository';
 import { hazardFeature } from '../fields/fields.service';
+import { getImplement } from '../fleet/implements.repository';
+import * as repo from './plans.repository';
 
 type Settings = z.infer<typeof planSettings>;
 
@@ -65,24 +67,7 @@ export async function preview(
   });
 }
 
-interface DbPlanRow {
-  id: number;
-  field_id: number;
-  field_name: string;
-  operation: Operation;
-  implement_id: number | null;
-  width_m: number;
-  headland_passes: number;
-  heading_deg: number | null;
-  coverage: 'gaps-ok' | 'full';
-  speed_mph: number;
-  efficiency: number;
-  turn_seconds: number;
-  summary: PlanSummary;
-  updated_at: Date;
-}
-
-const toSaved = (r: DbPlanRow): SavedPlan => ({
+const toSaved = (r: repo.DbPlanRow): SavedPlan => ({
   id: r.id,
   fieldId: r.field_id,
   fieldName: r.field_name,
@@ -99,13 +84,8 @@ const toSaved = (r: DbPlanRow): SavedPlan => ({
   updatedAt: r.updated_at.toISOString(),
 });
 
-const plans = (deps: AppDeps, farmId: number) =>
-  deps.db('pass_plans as p').join('fields as f', 'f.id', 'p.field_id').where('p.farm_id', farmId).select('p.*', 'f.name as field_name');
-
 export async function listPlans(deps: AppDeps, farmId: number, fieldId?: number): Promise<SavedPlan[]> {
-  const q = plans(deps, farmId).orderBy(['f.name', 'p.operation']);
-  if (fieldId) q.where('p.field_id', fieldId);
-  return ((await q) as DbPlanRow[]).map(toSaved);
+  return (await repo.listPlanRows(deps.db, farmId, fieldId)).map(toSaved);
 }
 
 export async function getPlan(
@@ -114,7 +94,7 @@ export async function getPlan(
   fieldId: number,
   operation: Operation,
 ): Promise<SavedPlan & { result: PlanResult }> {
-  const row = (await plans(deps, farmId).where({ 'p.field_id': fieldId, 'p.operation': operation }).first()) as DbPlanRow | undefined;
+  const row = await repo.findPlanRow(deps.db, farmId, fieldId, operation);
   if (!row) throw notFound(`A saved ${OPERATION_INFO[operation].label.toLowerCase()} plan for that field`);
   const saved = toSaved(row);
   const { field, hazards } = await fieldInput(deps, farmId, fieldId);
@@ -144,10 +124,10 @@ export async function savePlan(
   const { field, hazards } = await fieldInput(deps, farmId, fieldId);
   const result = await computePlan(deps, { ...inputOf(s, operation), boundary: field.boundary, hazards, fieldName: field.name });
   if (s.implementId) {
-    const ok = await deps.db('implements').where({ id: s.implementId, farm_id: farmId }).first('id');
-    if (!ok) throw new AppError(422, 'bad_implement', 'That implement is not in this farm’s fleet');
+    if (!(await getImplement(deps.db, farmId, s.implementId)))
+      throw new AppError(422, 'bad_implement', 'That implement is not in this farm’s fleet');
   }
-  const row = {
+  await repo.upsertPlan(deps.db, {
     farm_id: farmId,
     field_id: fieldId,
     operation,
@@ -161,14 +141,12 @@ export async function savePlan(
     turn_seconds: result.turnSeconds,
     summary: JSON.stringify(summaryOf(result)),
     updated_by: userId,
-    updated_at: deps.db.fn.now(),
-  };
-  await deps.db('pass_plans').insert(row).onConflict(['field_id', 'operation']).merge();
+  });
   return getPlan(deps, farmId, fieldId, operation);
 }
 
 export async function deletePlan(deps: AppDeps, farmId: number, fieldId: number, operation: Operation): Promise<void> {
-  const n = await deps.db('pass_plans').where({ farm_id: farmId, field_id: fieldId, operation }).delete();
+  const n = await repo.deletePlanRow(deps.db, farmId, fieldId, operation);
   if (!n) throw notFound('That pass plan');
 }
 

@@ -1,0 +1,64 @@
+// Saved pass plans: one row per field and operation, with the figures of its last computation.
+import type { Operation } from '../../shared/operations';
+import type { PlanSummary } from '../../shared/schemas/plans';
+import type { Tx } from '../db/knex';
+
+export interface DbPlanRow {
+  id: number;
+  field_id: number;
+  field_name: string;
+  operation: Operation;
+  implement_id: number | null;
+  width_m: number;
+  headland_passes: number;
+  heading_deg: number | null;
+  coverage: 'gaps-ok' | 'full';
+  speed_mph: number;
+  efficiency: number;
+  turn_seconds: number;
+  summary: PlanSummary;
+  updated_at: Date;
+}
+
+/** What a save writes; `updated_at` is set here. */
+export interface PlanWrite {
+  farm_id: number;
+  field_id: number;
+  operation: Operation;
+  implement_id: number | null;
+  width_m: number;
+  headland_passes: number;
+  heading_deg: number | null;
+  coverage: 'gaps-ok' | 'full';
+  speed_mph: number;
+  efficiency: number;
+  turn_seconds: number;
+  /** The summary as JSON text. */
+  summary: string;
+  updated_by: number;
+}
+
+const plans = (db: Tx, farmId: number) =>
+  db('pass_plans as p').join('fields as f', 'f.id', 'p.field_id').where('p.farm_id', farmId).select('p.*', 'f.name as field_name');
+
+export async function listPlanRows(db: Tx, farmId: number, fieldId?: number): Promise<DbPlanRow[]> {
+  const q = plans(db, farmId).orderBy(['f.name', 'p.operation']);
+  if (fieldId) q.where('p.field_id', fieldId);
+  return (await q) as DbPlanRow[];
+}
+
+export async function findPlanRow(db: Tx, farmId: number, fieldId: number, operation: Operation): Promise<DbPlanRow | undefined> {
+  return (await plans(db, farmId).where({ 'p.field_id': fieldId, 'p.operation': operation }).first()) as DbPlanRow | undefined;
+}
+
+export async function upsertPlan(db: Tx, row: PlanWrite): Promise<void> {
+  await db('pass_plans')
+    .insert({ ...row, updated_at: db.fn.now() })
+    .onConflict(['field_id', 'operation'])
+    .merge();
+}
+
+/** How many rows were deleted (0 or 1). */
+export function deletePlanRow(db: Tx, farmId: number, fieldId: number, operation: Operation): Promise<number> {
+  return db('pass_plans').where({ farm_id: farmId, field_id: fieldId, operation }).delete();
+}
