@@ -72,8 +72,8 @@ export async function tokenInfo(deps: AppDeps, raw: string): Promise<TokenInfo> 
   const token = await users.findToken(deps.db, hashToken(raw));
   checkUsable(token);
   const user = await users.findUserById(deps.db, token.user_id);
-  const farm = token.farm_id ? await deps.db('farms').where({ id: token.farm_id }).first('name') : null;
-  return { kind: token.kind, email: user!.email, name: user!.name, farmName: farm?.name ?? null };
+  const farmName = token.farm_id ? await users.farmName(deps.db, token.farm_id) : null;
+  return { kind: token.kind, email: user!.email, name: user!.name, farmName };
 }
 
 /** Uses an invitation or reset link: sets the password, activates an invitation, signs in. */
@@ -86,12 +86,9 @@ export async function setPasswordWithToken(deps: AppDeps, raw: string, password:
     await users.setPasswordHash(tx, token.user_id, hash, token.kind === 'invite' ? name : undefined);
     let membershipId: number | undefined;
     if (token.kind === 'invite' && token.farm_id) {
-      const m = await tx('memberships')
-        .where({ user_id: token.user_id, farm_id: token.farm_id })
-        .whereIn('status', ['invited', 'active'])
-        .first('id');
+      const m = await users.findOpenMembership(tx, token.user_id, token.farm_id);
       if (!m) throw new AppError(410, 'token_used', 'This invitation was withdrawn by the farm owner');
-      await tx('memberships').where({ id: m.id }).update({ status: 'active', joined_at: tx.fn.now() });
+      await users.activateMembership(tx, m.id);
       membershipId = m.id;
     } else {
       membershipId = (await users.firstActiveMembership(tx, token.user_id))?.id;

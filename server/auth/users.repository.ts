@@ -1,5 +1,5 @@
 import type { Tx } from '../db/knex';
-import type { DbAuthTokenRow, DbMembershipRow, DbUserRow } from '../db/rows';
+import type { DbAuthTokenRow, DbFarmRow, DbMembershipRow, DbUserRow } from '../db/rows';
 import type { SessionPrincipal } from '../http/session-user';
 
 export const findUserByEmail = (db: Tx, email: string) => db<DbUserRow>('users').where({ email: email.toLowerCase() }).first();
@@ -50,6 +50,21 @@ export async function loadPrincipal(
 ): Promise<SessionPrincipal | undefined> {
   const { rows } = await db.raw<{ rows: SessionPrincipal[] }>(PRINCIPAL_SQL, [membershipId, userId, signedInAt]);
   return rows[0];
+}
+
+/** The invitation (or membership) a link's person holds on its farm, unless the owner withdrew it. */
+export const findOpenMembership = (db: Tx, userId: number, farmId: number): Promise<Pick<DbMembershipRow, 'id'> | undefined> =>
+  db<DbMembershipRow>('memberships').where({ user_id: userId, farm_id: farmId }).whereIn('status', ['invited', 'active']).first('id');
+
+/** An accepted invitation: the membership becomes active from now. */
+export async function activateMembership(db: Tx, id: number): Promise<void> {
+  await db('memberships').where({ id }).update({ status: 'active', joined_at: db.fn.now() });
+}
+
+/** A farm's name, for an invitation link's page. */
+export async function farmName(db: Tx, farmId: number): Promise<string | null> {
+  const farm = await db<DbFarmRow>('farms').where({ id: farmId }).first('name');
+  return farm?.name ?? null;
 }
 
 /** The membership a user signs in to: their oldest active one. */

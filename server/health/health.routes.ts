@@ -1,10 +1,11 @@
 import type { AppDeps } from '../app-deps';
 import type { Routes } from '../http/routes';
+import { pingDatabase } from './health.repository';
 
 export function healthRoutes(r: Routes, deps: AppDeps): void {
   r.get('/health', 'public', async (_req, res) => {
     try {
-      await deps.db.raw('select 1').timeout(2000);
+      await pingDatabase(deps.db, 2000);
       res.json({ status: 'ok', db: 'ok' });
     } catch {
       res.status(503).json({ status: 'degraded', db: 'down' });
