@@ -73,6 +73,20 @@ export const haToM2 = (ha: number): number => ha * HA_M2;
 export const acresToHa = (acres: number): number => (acres * ACRE_M2) / HA_M2;
 
 /**
+ * Hectares to acres.
+ *
+ * Exact definitions: 1 ha = 10,000 m² (a square hectometre; SI Brochure, 9th ed., Table 8) and
+ * 1 acre = 43,560 ft² = 4,046.856 422 4 m² with the international foot of 0.3048 m (NIST Handbook 44,
+ * Appendix C; NIST SP 811, Appendix B), so 1 ha = 10,000 / 4,046.856 422 4 acres ≈ 2.471 053 8 acres.
+ *
+ * @param ha area in hectares
+ * @returns area in acres
+ * @example haToAcres(0.40468564224) // 1
+ * @example haToAcres(64.75) // ≈ 160.0 (a quarter section, 160 acres, is 64.75 ha)
+ */
+export const haToAcres = (ha: number): number => (ha * HA_M2) / ACRE_M2;
+
+/**
  * Miles per hour to metres per second.
  * @param mph speed in statute miles per hour
  * @returns speed in metres per second

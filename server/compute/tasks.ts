@@ -1,14 +1,10 @@
 // The heavy computations, as run inside a compute worker thread (see pool.ts). Each answers an
 // envelope instead of throwing, so an AppError's status, code and fields cross the thread intact.
 import type { MessagePort } from 'node:worker_threads';
-import type { MultiPolygon, Polygon } from 'geojson';
-import { checkBoundary } from '../../shared/geo/boundary-check';
-import { geodesicAreaM2 } from '../../shared/geo/geodesic-area';
+import { checkAndMeasureBoundary, type BoundaryMeasurement } from '../../shared/geo/boundary-check';
 import { planPasses } from '../../shared/plan/plan-passes';
 import type { PlanInput, PlanResult } from '../../shared/plan/types';
-import type { ImportPreview } from '../../shared/schemas/fields';
-import { m2ToAcres } from '../../shared/units';
-import { readBoundaryFile as readFile } from '../fields/import/read-file';
+import { readBoundaryFile as readFile, type ReadFile } from '../fields/import/read-file';
 import { AppError } from '../http/errors';
 
 export interface TaskFailure {
@@ -21,11 +17,7 @@ export interface TaskFailure {
 export type Envelope<T> = { ok: true; value: T } | { ok: false; error: TaskFailure };
 
 /** A checked and measured boundary; `problems` is empty when it can be used. */
-export interface MeasuredBoundary {
-  problems: ReturnType<typeof checkBoundary>;
-  areaM2: number;
-  acres: number;
-}
+export type MeasuredBoundary = BoundaryMeasurement;
 
 /** Every task input carries a port on which the worker says when the task starts (see pool.ts). */
 export interface Started {
@@ -59,22 +51,11 @@ export function plan(input: PlanInput & Started): Promise<Envelope<PlanResult>> 
 
 /** A field boundary's problems, and its area on the WGS84 ellipsoid when it has none. */
 export function measureBoundary(input: { geometry: unknown; label?: string } & Started): Promise<Envelope<MeasuredBoundary>> {
-  return wrap(
-    input,
-    () => {
-      const problems = checkBoundary(input.geometry, input.label);
-      const areaM2 = problems.length ? 0 : geodesicAreaM2(input.geometry as Polygon | MultiPolygon);
-      return { problems, areaM2, acres: m2ToAcres(areaM2) };
-    },
-    422,
-    'bad_boundary',
-  );
+  return wrap(input, () => checkAndMeasureBoundary(input.geometry, input.label), 422, 'bad_boundary');
 }
 
 /** A boundary file read into candidate fields (bytes arrive as a Uint8Array view). */
-export function readBoundaryFile(
-  input: { name: string; data: Uint8Array; nameAttribute?: string } & Started,
-): Promise<Envelope<ImportPreview>> {
+export function readBoundaryFile(input: { name: string; data: Uint8Array; nameAttribute?: string } & Started): Promise<Envelope<ReadFile>> {
   const data = Buffer.from(input.data.buffer, input.data.byteOffset, input.data.byteLength);
   return wrap(input, () => readFile({ name: input.name, data }, input.nameAttribute), 422, 'bad_file');
 }

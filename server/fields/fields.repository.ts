@@ -130,6 +130,17 @@ export async function updateHazard(
 
 export const deleteHazard = (db: Tx, id: number) => db('hazards').where({ id }).delete();
 
+/** Every season's crop of one field, newest season first. */
+export const cropsOfField = (
+  db: Tx,
+  farmId: number,
+  fieldId: number,
+): Promise<Array<{ season: number; crop: string; varietyNote: string | null }>> =>
+  db('crop_plans')
+    .where({ farm_id: farmId, field_id: fieldId })
+    .orderBy('season', 'desc')
+    .select('season', 'crop', 'variety_note as varietyNote');
+
 export const cropPlans = (db: Tx, farmId: number, season: number) =>
   db<DbCropPlanRow>('crop_plans').where({ farm_id: farmId, season }).orderBy('field_id');
 

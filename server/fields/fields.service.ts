@@ -46,11 +46,7 @@ export async function getField(deps: AppDeps, farmId: number, id: number, season
   const f = await repo.getField(deps.db, farmId, id);
   if (!f) throw notFound('That field');
   const hazards = await repo.hazardsOfField(deps.db, farmId, id);
-  const crops = await deps
-    .db('crop_plans')
-    .where({ field_id: id })
-    .orderBy('season', 'desc')
-    .select('season', 'crop', 'variety_note as varietyNote');
+  const crops = await repo.cropsOfField(deps.db, farmId, id);
   return {
     id: f.id,
     name: f.name,

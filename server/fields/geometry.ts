@@ -14,9 +14,12 @@ export interface MeasuredBoundary {
  * tens of thousands of points); a bad one is a 422 naming the problem.
  */
 export async function measureBoundary(compute: ComputePool, geometry: unknown, label?: string): Promise<MeasuredBoundary> {
-  const { problems, areaM2, acres } = await compute.run('measureBoundary', { geometry, label });
-  if (problems.length) throw new AppError(422, 'bad_boundary', problems[0].message, { boundary: problems[0].message }, { problems });
-  return { boundary: geometry as Polygon | MultiPolygon, areaM2, acres };
+  const m = await compute.run('measureBoundary', { geometry, label });
+  if (m.areaM2 === null) {
+    const { problems } = m;
+    throw new AppError(422, 'bad_boundary', problems[0].message, { boundary: problems[0].message }, { problems });
+  }
+  return { boundary: geometry as Polygon | MultiPolygon, areaM2: m.areaM2, acres: m.acres };
 }
 
 const HAZARD_TYPES = new Set(['Point', 'LineString', 'Polygon', 'MultiPoint', 'MultiLineString', 'MultiPolygon']);

@@ -1,3 +1,4 @@
+import { roundTo } from '../../shared/round';
 import type { DbMachineRow } from './fleet.rows';
 
 /** Warn this many hours before a service falls due (common practice, no published source). */
@@ -18,7 +19,7 @@ export interface ServiceDue {
 export function serviceDue(m: Pick<DbMachineRow, 'engine_hours' | 'service_interval_hours' | 'hours_at_last_service'>): ServiceDue {
   if (m.service_interval_hours == null) return { dueInHours: null, warning: null };
   const last = m.hours_at_last_service ?? 0;
-  const dueIn = Math.round((last + m.service_interval_hours - m.engine_hours) * 10) / 10;
+  const dueIn = roundTo(last + m.service_interval_hours - m.engine_hours, 1);
   if (dueIn < 0) return { dueInHours: dueIn, warning: `Service overdue by ${-dueIn} h` };
   if (dueIn === 0) return { dueInHours: 0, warning: 'Service due now' };
   if (dueIn <= SERVICE_SOON_HOURS) return { dueInHours: dueIn, warning: `Service due in ${dueIn} h` };

@@ -5,7 +5,8 @@ import IsValidOp from 'jsts/org/locationtech/jts/operation/valid/IsValidOp.js';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { MAX_BOUNDARY_RINGS, MAX_BOUNDARY_VERTICES } from '../limits';
-import { assertBoundary, checkBoundary } from './boundary-check';
+import { assertBoundary, checkAndMeasureBoundary, checkBoundary } from './boundary-check';
+import { fieldAcres, geodesicAreaM2 } from './geodesic-area';
 
 // Rules checked: RFC 7946 §3.1.6 (a linear ring is closed, has ≥ 4 positions; positions are
 // [longitude, latitude], §3.1.1) and the OGC Simple Features polygon rules (rings do not cross
@@ -237,5 +238,44 @@ describe('checkBoundary', () => {
       // One ring fewer is within the budget, and these small triangles are a valid boundary.
       expect(checkBoundary(multi(...Array.from({ length: MAX_BOUNDARY_RINGS }, (_, k) => [tiny(k)])))).toEqual([]);
     });
+  });
+});
+
+describe('checkAndMeasureBoundary', () => {
+  it('when the boundary is the diamond of GeographicLib test Planimeter0, then it has no problem and its published area', () => {
+    // Source: GeographicLib test suite (test_geodesic.py) "Planimeter0": (0,-1), (-1,0), (0,1), (1,0)
+    // → area 24,619,419,146 m² (±1); acres by 1 acre = 4,046.856 422 4 m² (NIST Handbook 44, Appendix C).
+    const m = checkAndMeasureBoundary(
+      poly([
+        [-1, 0],
+        [0, -1],
+        [1, 0],
+        [0, 1],
+        [-1, 0],
+      ]),
+    );
+    expect(m.problems).toEqual([]);
+    expect(Math.abs(m.areaM2! - 24_619_419_146)).toBeLessThanOrEqual(1);
+    expect(Math.abs(m.acres! - 24_619_419_146 / 4046.8564224)).toBeLessThanOrEqual(1 / 4046.8564224);
+  });
+
+  it('when a square has a hole, then the area is the one the check measured: the same as measuring it alone', () => {
+    const hole = [
+      [-99.915, 47.603],
+      [-99.905, 47.603],
+      [-99.905, 47.607],
+      [-99.915, 47.607],
+      [-99.915, 47.603],
+    ];
+    const g = poly(square, hole);
+    const m = checkAndMeasureBoundary(g, 'Slough quarter');
+    expect(m.problems).toEqual([]);
+    expect(m.areaM2).toBe(geodesicAreaM2(g));
+    expect(m.acres).toBe(fieldAcres(g));
+  });
+
+  it('when the boundary has a problem, then it is not measured', () => {
+    const m = checkAndMeasureBoundary({ type: 'Point', coordinates: [-99.9, 47.6] }, 'North Quarter');
+    expect(m).toMatchObject({ areaM2: null, acres: null, problems: [{ code: 'not-polygon' }] });
   });
 });

@@ -1,26 +1,11 @@
 import type { MultiPolygon, Polygon, Position } from 'geojson';
-import { geodesicAreaM2 } from './geodesic-area';
+import { fieldAreaOfRings, ringAreasM2, type FieldArea } from './geodesic-area';
 import { formatLatLon } from './format-position';
 import { MAX_BOUNDARY_RINGS, MAX_BOUNDARY_VERTICES } from '../limits';
 import { firstCrossing, type RingEdge } from './ring-crossings';
+import { BOUNDARY_PROBLEM_CODES, type BoundaryProblemCode } from './boundary-problem-codes';
 
-/** What can be wrong with a field boundary. */
-export type BoundaryProblemCode =
-  | 'not-polygon'
-  | 'bad-coordinates'
-  | 'not-finite'
-  | 'out-of-range'
-  | 'swapped'
-  | 'too-many-positions'
-  | 'too-many-rings'
-  | 'too-few-positions'
-  | 'not-closed'
-  | 'zero-area'
-  | 'self-intersection'
-  | 'rings-cross'
-  | 'rings-touch'
-  | 'hole-outside'
-  | 'parts-overlap';
+export { BOUNDARY_PROBLEM_CODES, type BoundaryProblemCode };
 
 /** One problem with a boundary. Numbers are 1-based, as in the message. */
 export interface BoundaryProblem {
@@ -184,6 +169,10 @@ function edgesOf(ring: Position[], part: number, r: number): RingEdge[] {
   });
 }
 
+/** A boundary checked and, when it has no problem, measured (both at once, each ring measured once). */
+export type BoundaryMeasurement =
+  { problems: []; areaM2: number; acres: number } | { problems: BoundaryProblem[]; areaM2: null; acres: null };
+
 /**
  * Everything wrong with a field boundary, in plain words for the farmer who drew or uploaded it.
  * Checks the GeoJSON type, closed rings of ≥ 4 positions, finite lon/lat in range (and spots
@@ -198,6 +187,28 @@ function edgesOf(ring: Position[], part: number, r: number): RingEdge[] {
  * // [{ code: 'not-polygon', message: "The boundary of field 'North Quarter' is a Point, …" }]
  */
 export function checkBoundary(geometry: unknown, label?: string): BoundaryProblem[] {
+  return inspect(geometry, label, {});
+}
+
+/**
+ * Checks a field boundary (as `checkBoundary`) and measures it on the WGS84 ellipsoid from the
+ * ring areas the check already computed: the one check and measurement every boundary gets, in
+ * the browser while it is drawn and on the server when it is saved or imported.
+ *
+ * @param geometry anything claimed to be a GeoJSON Polygon or MultiPolygon in lon/lat degrees
+ * @param label the field's name, used in messages
+ * @returns the problems, and the area in m² and acres when there are none (null otherwise)
+ * @example checkAndMeasureBoundary(section, 'Home quarter') // { problems: [], areaM2: ≈ 2_589_988, acres: ≈ 640 }
+ */
+export function checkAndMeasureBoundary(geometry: unknown, label?: string): BoundaryMeasurement {
+  const measured: { area?: FieldArea } = {};
+  const problems = inspect(geometry, label, measured);
+  if (problems.length || !measured.area) return { problems, areaM2: null, acres: null };
+  return { problems: [], areaM2: measured.area.areaM2, acres: measured.area.acres };
+}
+
+/** The checks; `measured.area` is set once every ring has been measured (the last checks need it). */
+function inspect(geometry: unknown, label: string | undefined, measured: { area?: FieldArea }): BoundaryProblem[] {
   const subject = label ? `field '${label}'` : 'the boundary';
   const g = geometry as { type?: unknown; coordinates?: unknown } | null;
   if (!g || typeof g !== 'object' || typeof g.type !== 'string')
@@ -249,10 +260,10 @@ export function checkBoundary(geometry: unknown, label?: string): BoundaryProble
       : `${ringName(a.part, a.ring)} of ${subject} crosses ${ringName(b.part, b.ring, false)} near ${near} (at vertex ${a.index + 1} and vertex ${b.index + 1})`;
     return [{ code: same ? 'self-intersection' : 'rings-cross', message, part: a.part + 1, ring: a.ring + 1, vertex: a.index + 1, point }];
   }
-  polys.forEach((rings, p) =>
-    rings.forEach((ring, r) => {
-      if (geodesicAreaM2({ type: 'Polygon', coordinates: [ring] }) < MIN_RING_AREA_M2)
-        problems.push(zeroArea(`${ringName(p, r)} of ${subject}`, { part: p + 1, ring: r + 1 }));
+  const ringAreas = ringAreasM2(g as Polygon | MultiPolygon);
+  ringAreas.forEach((rings, p) =>
+    rings.forEach((areaM2, r) => {
+      if (areaM2 < MIN_RING_AREA_M2) problems.push(zeroArea(`${ringName(p, r)} of ${subject}`, { part: p + 1, ring: r + 1 }));
     }),
   );
   if (problems.length) return problems;
@@ -280,7 +291,8 @@ export function checkBoundary(geometry: unknown, label?: string): BoundaryProble
         problems.push({ code: 'parts-overlap', message: `Part ${p + 1} of ${subject} lies inside part ${q + 1}`, part: p + 1, ring: 1 });
     }),
   );
-  if (!problems.length && geodesicAreaM2(g as never) < MIN_RING_AREA_M2)
+  measured.area = fieldAreaOfRings(ringAreas);
+  if (!problems.length && measured.area.areaM2 < MIN_RING_AREA_M2)
     problems.push({ code: 'zero-area', message: `The boundary of ${subject} encloses no area once its holes are taken out` });
   return problems;
 }

@@ -23,6 +23,32 @@ function polygonsOf(geometry: Polygon | MultiPolygon): Position[][][] {
 }
 
 /**
+ * Area of every ring of a Polygon or MultiPolygon on the WGS84 ellipsoid, in square metres, part
+ * by part (outer ring first, then its holes), each as an unsigned area. The boundary check reads
+ * these to find rings that enclose nothing, then `areaOfRingsM2` adds them up: each ring is
+ * measured once.
+ *
+ * @param geometry GeoJSON geometry in lon/lat degrees (RFC 7946)
+ * @returns per part, per ring, square metres (≥ 0)
+ */
+export function ringAreasM2(geometry: Polygon | MultiPolygon): number[][] {
+  return polygonsOf(geometry).map((rings) => rings.map((ring) => ringAreaPerimeter(ring).areaM2));
+}
+
+/**
+ * Area enclosed by rings already measured with `ringAreasM2`: each part's outer ring minus its
+ * holes, parts added, never below zero.
+ *
+ * @param ringAreas per part, per ring, square metres
+ * @returns area in square metres (≥ 0)
+ */
+export function areaOfRingsM2(ringAreas: readonly (readonly number[])[]): number {
+  let total = 0;
+  for (const rings of ringAreas) rings.forEach((a, i) => (total += i === 0 ? a : -a));
+  return Math.max(0, total);
+}
+
+/**
  * Area of a Polygon or MultiPolygon on the WGS84 ellipsoid, in square metres: each part's outer
  * ring minus its holes, parts added. Edges are geodesics; ring orientation does not matter.
  * Uses GeographicLib's PolygonArea (C. F. F. Karney, "Algorithms for geodesics", J. Geodesy 87, 2013).
@@ -34,14 +60,7 @@ function polygonsOf(geometry: Polygon | MultiPolygon): Position[][][] {
  * // ≈ 24_619_419_146 (GeographicLib test Planimeter0)
  */
 export function geodesicAreaM2(geometry: Polygon | MultiPolygon): number {
-  let total = 0;
-  for (const rings of polygonsOf(geometry)) {
-    rings.forEach((ring, i) => {
-      const a = ringAreaPerimeter(ring).areaM2;
-      total += i === 0 ? a : -a;
-    });
-  }
-  return Math.max(0, total);
+  return areaOfRingsM2(ringAreasM2(geometry));
 }
 
 /**
@@ -58,6 +77,35 @@ export function geodesicPerimeterM(geometry: Polygon | MultiPolygon): number {
   return total;
 }
 
+/** A field's area on the WGS84 ellipsoid, holes subtracted, in both units Furlong stores. */
+export interface FieldArea {
+  areaM2: number;
+  /** 1 acre = 4,046.856 422 4 m² (shared/units). */
+  acres: number;
+}
+
+/**
+ * A field's area from its rings' areas (`ringAreasM2`): the one place a boundary's acres come
+ * from, so a boundary already measured by its check is not measured again.
+ *
+ * @param ringAreas per part, per ring, square metres
+ * @example fieldAreaOfRings([[2_589_988.110336]]) // { areaM2: 2589988.110336, acres: 640 }
+ */
+export function fieldAreaOfRings(ringAreas: readonly (readonly number[])[]): FieldArea {
+  const areaM2 = areaOfRingsM2(ringAreas);
+  return { areaM2, acres: m2ToAcres(areaM2) };
+}
+
+/**
+ * A field's area on the WGS84 ellipsoid (holes subtracted), in m² and acres.
+ *
+ * @param geometry GeoJSON Polygon or MultiPolygon in lon/lat degrees
+ * @example fieldArea(section) // { areaM2: ≈ 2_589_988, acres: ≈ 640 } for a surveyed section
+ */
+export function fieldArea(geometry: Polygon | MultiPolygon): FieldArea {
+  return fieldAreaOfRings(ringAreasM2(geometry));
+}
+
 /**
  * Field area in acres on the WGS84 ellipsoid (holes subtracted).
  *
@@ -66,5 +114,5 @@ export function geodesicPerimeterM(geometry: Polygon | MultiPolygon): number {
  * @example fieldAcres(section) // ≈ 640 for a surveyed section
  */
 export function fieldAcres(geometry: Polygon | MultiPolygon): number {
-  return m2ToAcres(geodesicAreaM2(geometry));
+  return fieldArea(geometry).acres;
 }

@@ -1,3 +1,4 @@
+import { roundTo } from '../round';
 import { mToFt } from '../units';
 
 /**
@@ -8,7 +9,7 @@ import { mToFt } from '../units';
  */
 export function feet(m: number): string {
   const ft = mToFt(m);
-  const rounded = Math.abs(ft) < 10 ? Math.round(ft * 10) / 10 : Math.round(ft);
+  const rounded = roundTo(ft, Math.abs(ft) < 10 ? 1 : 0);
   return `${rounded} ft`;
 }
 

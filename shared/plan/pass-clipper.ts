@@ -1,4 +1,5 @@
 import { MAX_SEGMENTS } from '../limits';
+import { roundTo } from '../round';
 import type { PlanarRegion } from './planar-region';
 
 /** Segments shorter than this (m) are touches at a vertex, not passes. */
@@ -230,7 +231,7 @@ export function createPassClipper(region: PlanarRegion, widthM: number, maxSegme
     const starts = cross(us, extraU.length === 0);
     if (!starts)
       throw new Error(
-        `At heading ${Math.round(h * 10) / 10}° the passes would break into more than ${maxSegments.toLocaleString('en-US')} segments, more than Furlong plans for one field; choose another heading or a wider working width`,
+        `At heading ${roundTo(h, 1)}° the passes would break into more than ${maxSegments.toLocaleString('en-US')} segments, more than Furlong plans for one field; choose another heading or a wider working width`,
       );
     const segT: number[] = [];
     const segLine: number[] = [];

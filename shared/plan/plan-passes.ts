@@ -1,7 +1,8 @@
 import type { Feature, LineString, MultiPolygon, Polygon } from 'geojson';
-import { geodesicAreaM2 } from '../geo/geodesic-area';
+import { fieldArea } from '../geo/geodesic-area';
 import { projectionForField } from '../geo/local-projection';
 import { MAX_PASSES } from '../limits';
+import { roundTo } from '../round';
 import { HOUR_S, m2ToAcres, mphToKmh, mphToMps, mToFt } from '../units';
 import { bestHeading, turnsOf } from './auto-heading';
 import { effectiveCapacityAcPerH, effectiveCapacityHaPerH } from './field-capacity';
@@ -59,7 +60,8 @@ export function planPasses(input: PlanInput): PlanResult {
       `At a working width of ${feet(w)} (${w} m), ${field} could need up to ${mostPasses.toLocaleString('en-US')} passes; Furlong plans at most ${MAX_PASSES.toLocaleString('en-US')} passes per field (enough for a two-mile field at a 10 ft implement). Check the working width.`,
     );
 
-  const fieldM2 = geodesicAreaM2(p.boundary);
+  // The field's area on the ellipsoid, from the one place a boundary's acres come from.
+  const { areaM2: fieldM2, acres: fieldAcresValue } = fieldArea(p.boundary);
   const scale = fieldM2 / fieldJ.getArea();
   const headlandM = p.headlandPasses * w;
   const interiorJ = headlandM > 0 ? offset(fieldJ, -headlandM) : fieldJ;
@@ -87,7 +89,7 @@ export function planPasses(input: PlanInput): PlanResult {
   }
   if (clipped.passCount === 0)
     throw new Error(
-      `No pass fits in ${field} at heading ${round(heading, 1)}°: what is left to work is narrower than half the working width (${feet(w / 2)})`,
+      `No pass fits in ${field} at heading ${roundTo(heading, 1)}°: what is left to work is narrower than half the working width (${feet(w / 2)})`,
     );
   const cover = swathCoverage(region, clipped, w);
 
@@ -98,14 +100,13 @@ export function planPasses(input: PlanInput): PlanResult {
   const turns = turnsOf(clipped);
   const hours = (clipped.passLengthM + headlandLengthM) / speedMps / HOUR_S + (turns * p.turnSeconds) / HOUR_S;
   const capacityAcresPerHour = effectiveCapacityAcPerH(mToFt(w), p.speedMph, p.efficiency);
-  const fieldAcresValue = m2ToAcres(fieldM2);
 
   const unworkedAcres = m2ToAcres(cover.unworkedM2 * scale);
   const overlapAcres = m2ToAcres(cover.overlapM2 * scale);
   if (p.coverage === 'gaps-ok' && unworkedAcres >= WARN_ACRES)
-    warnings.push(`${round(unworkedAcres, 2)} acres of ${field} stay unworked at even spacing; choose full coverage to add a last pass`);
+    warnings.push(`${roundTo(unworkedAcres, 2)} acres of ${field} stay unworked at even spacing; choose full coverage to add a last pass`);
   if (p.coverage === 'full' && unworkedAcres >= WARN_ACRES)
-    warnings.push(`${round(unworkedAcres, 2)} acres of ${field} stay unworked where holes or hazard clearances break up the passes`);
+    warnings.push(`${roundTo(unworkedAcres, 2)} acres of ${field} stay unworked where holes or hazard clearances break up the passes`);
 
   const toLonLat = <G extends Polygon | MultiPolygon>(g: G | null): G | null => (g ? proj.inverseGeometry(g) : null);
   const features = <G extends Polygon | MultiPolygon>(gs: (G | null)[]): Feature<G>[] =>
@@ -159,9 +160,4 @@ export function planPasses(input: PlanInput): PlanResult {
     overlap: { type: 'FeatureCollection', features: features(bandPolygons(workJ, c, cover.overlapBands).map(writePolygonal)) },
     warnings,
   };
-
-  function round(v: number, digits: number): number {
-    const f = 10 ** digits;
-    return Math.round(v * f) / f;
-  }
 }

@@ -1,5 +1,7 @@
 import type { FeatureCollection, Geometry, MultiPolygon, Polygon } from 'geojson';
 import { z } from 'zod';
+import { FIELD_NAME_MAX, FIELD_NAME_PROBLEM_CODES, type FieldNameProblemCode } from '../field-names';
+import { BOUNDARY_PROBLEM_CODES } from '../geo/boundary-problem-codes';
 import { dbId, idParam, textWithoutNul } from './common';
 
 export const HAZARD_KINDS = ['bin', 'rock', 'power', 'draw', 'waterway', 'fence', 'neighbour', 'other'] as const;
@@ -33,7 +35,10 @@ export const CROPS = [
 ] as const;
 
 // Without NUL here too: an import's list of names comes as a multipart form field, not through server/http/validate.
-const fieldName = textWithoutNul('A field name').trim().min(1, 'Give the field a name').max(120, 'Use at most 120 characters');
+const fieldName = textWithoutNul('A field name')
+  .trim()
+  .min(1, 'Give the field a name')
+  .max(FIELD_NAME_MAX, `Use at most ${FIELD_NAME_MAX} characters`);
 
 /** A geometry object; its coordinates are checked in detail by shared/geo/boundary-check. */
 export const geometry = z.object({ type: z.string(), coordinates: z.unknown() }).passthrough();
@@ -94,12 +99,36 @@ export interface FieldSummary {
   boundary: { type: 'Polygon' | 'MultiPolygon'; coordinates: unknown };
 }
 
+/**
+ * What can be wrong with a feature of an imported file, or with the choice of features to save:
+ * the boundary's problems (shared/geo/boundary-check; a feature that is no area is `not-polygon`),
+ * its name's (shared/field-names), and `no-such-feature` for a chosen index the file lacks.
+ * Screens and API clients decide by these codes; the message is for people.
+ */
+export const IMPORT_PROBLEM_CODES = [...BOUNDARY_PROBLEM_CODES, ...FIELD_NAME_PROBLEM_CODES, 'no-such-feature'] as const;
+export const importProblemCode = z.enum(IMPORT_PROBLEM_CODES);
+export type ImportProblemCode = z.infer<typeof importProblemCode>;
+
+/** One problem of an import: its code, the sentence shown, and the feature (0-based) it is about. */
+export const importProblem = z.object({ code: importProblemCode, message: z.string(), index: z.number().int().min(0).optional() });
+export type ImportProblem = z.infer<typeof importProblem>;
+
+/** The `problems` a 422 `import_refused` carries beside its message. */
+export const importProblems = z.array(importProblem);
+
+const NAME_CODES: ReadonlySet<string> = new Set(FIELD_NAME_PROBLEM_CODES);
+/** True for a problem of the name alone: saving the feature under another name clears it. */
+export const isNameProblem = (code: ImportProblemCode): code is FieldNameProblemCode => NAME_CODES.has(code);
+
 export interface ImportedFeature {
   index: number;
   name: string;
   acres: number | null;
   geometry: unknown;
   properties: Record<string, unknown>;
+  /** What is wrong with the feature, each with its code; empty when it can be saved as it is. */
+  problems: ImportProblem[];
+  /** The problems' messages, in the same order (kept for readers of the older answer). */
   errors: string[];
 }
 

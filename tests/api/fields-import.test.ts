@@ -100,6 +100,7 @@ describe('importing boundary files', () => {
     expect(res.body.nameAttribute).toBe('name');
     expect(res.body.attributes).toEqual(['name', 'crop']);
     expect(res.body.features.every((f: { errors: string[] }) => f.errors.length === 0)).toBe(true);
+    expect(res.body.features.every((f: { problems: unknown[] }) => f.problems.length === 0)).toBe(true);
     expectSameFields(res.body.features, fc);
     expect(await count()).toBe(before);
   });
@@ -172,6 +173,19 @@ describe('importing boundary files', () => {
     const res = await upload('attr.geojson', JSON.stringify(fc), '?dryRun=true&nameAttribute=crop');
     expect(res.body.features.map((f: { name: string }) => f.name)).toEqual(['durum', 'durum', 'durum']);
     expect(res.body.features[1].errors.join()).toMatch(/used twice in this file/);
+    expect(res.body.features[1].problems).toEqual([{ code: 'name-repeated', message: res.body.features[1].errors[0], index: 1 }]);
+    expect(res.body.features[0].problems).toEqual([]);
+  });
+
+  it('when a feature whose name is already on the farm is saved under another name, then it is saved', async () => {
+    const taken = { type: 'FeatureCollection', features: [feature('Kept Name', rect(-99.5, 47.7, 0.01, 0.01))] };
+    expect((await upload('first.geojson', JSON.stringify(taken))).status).toBe(201);
+    const before = await count();
+    const again = { type: 'FeatureCollection', features: [feature('Kept Name', rect(-99.4, 47.7, 0.01, 0.01))] };
+    const res = await upload('again.geojson', JSON.stringify(again), '', [{ index: 0, name: 'Kept Name East' }]);
+    expect(res.status).toBe(201);
+    expect(res.body.saved.map((s: { name: string }) => s.name)).toEqual(['Kept Name East']);
+    expect(await count()).toBe(before + 1);
   });
 
   describe('bad files are refused with a clear message and save nothing', () => {
@@ -185,6 +199,9 @@ describe('importing boundary files', () => {
       expect(res.body.error.message).toMatch(message);
       expect(await count()).toBe(before);
     };
+    /** The codes of an `import_refused` answer's problems, each with the message it stands beside. */
+    const codes = (res: { body: { error: { problems?: Array<{ code: string; message: string }> } } }) =>
+      (res.body.error.problems ?? []).map((p) => p.code);
 
     it('when one of three fields crosses itself, then nothing is saved and the crossing is named', async () => {
       const before = await count();
@@ -200,6 +217,8 @@ describe('importing boundary files', () => {
       ];
       const res = await upload('bad.geojson', JSON.stringify(fc));
       await refused(res, 422, /Nothing was saved.*"Bad Slough".*crosses itself near 47\.615\d*° N, 99\.925\d*° W/, before);
+      expect(codes(res)).toEqual(['self-intersection']);
+      expect(res.body.error.problems[0]).toMatchObject({ index: 1, message: expect.stringMatching(/crosses itself/) });
     });
     it('when the file is empty, then 400', async () => refused(await upload('empty.geojson', ''), 400, /is empty/, await count()));
     it('when the file is over 10 MB, then 413', async () => {
@@ -240,7 +259,9 @@ describe('importing boundary files', () => {
         type: 'FeatureCollection',
         features: [{ type: 'Feature', properties: { name: 'Pump' }, geometry: { type: 'Point', coordinates: [-99.9, 47.6] } }],
       };
-      await refused(await upload('p.geojson', JSON.stringify(fc)), 422, /feature 1 \("Pump"\) is a point/, await count());
+      const res = await upload('p.geojson', JSON.stringify(fc));
+      await refused(res, 422, /feature 1 \("Pump"\) is a point/, await count());
+      expect(codes(res)).toEqual(['not-polygon']);
     });
     it('when a field of the file is already on the farm, then 422 and nothing is saved', async () => {
       await upload(
@@ -252,12 +273,22 @@ describe('importing boundary files', () => {
         type: 'FeatureCollection',
         features: [feature('Fresh Field', rect(-99.7, 47.7, 0.01, 0.01)), feature('Twice Field', rect(-99.6, 47.7, 0.01, 0.01))],
       };
-      await refused(await upload('again.geojson', JSON.stringify(fc)), 422, /already exists on this farm/, before);
+      const res = await upload('again.geojson', JSON.stringify(fc));
+      await refused(res, 422, /already exists on this farm/, before);
+      expect(codes(res)).toEqual(['name-taken']);
+      const preview = await upload('again.geojson', JSON.stringify(fc), '?dryRun=true');
+      expect(preview.body.features.map((f: { problems: Array<{ code: string }> }) => f.problems.map((p) => p.code))).toEqual([
+        [],
+        ['name-taken'],
+      ]);
+      expect(preview.body.features[1].errors).toEqual(['A field called "Twice Field" already exists on this farm; rename it or untick it']);
     });
     it('when the coordinates are latitude-first, then 422 says they look swapped', async () => {
       const g = rect(-99.9, 47.6, 0.01, 0.01);
       g.coordinates = [g.coordinates[0].map(([x, y]) => [y, x])];
-      await refused(await upload('swap.geojson', JSON.stringify(feature('Swapped', g))), 422, /swapped/, await count());
+      const res = await upload('swap.geojson', JSON.stringify(feature('Swapped', g)));
+      await refused(res, 422, /swapped/, await count());
+      expect(codes(res)).toEqual(['swapped']);
     });
     it('when the file is neither GeoJSON, KML nor a zip, then 415', async () => {
       await refused(await upload('notes.txt', 'just some notes'), 415, /reads GeoJSON/, await count());

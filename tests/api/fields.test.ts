@@ -1,3 +1,4 @@
+import type { BoundaryProblemCode } from '../../shared/geo/boundary-check';
 import { makeFarm, type TestFarm } from '../support/farm-factory';
 import { ACRE, rect, rectWithHole, referenceAreaM2, twoParts } from '../support/geo-fixtures';
 import { Client, startTestApp, type TestApp } from '../support/test-app';
@@ -51,7 +52,7 @@ describe('fields', () => {
     expect(await fieldCount()).toBe(before);
   });
 
-  const badBoundaries: Array<[string, unknown, RegExp]> = [
+  const badBoundaries: Array<[string, unknown, RegExp, BoundaryProblemCode]> = [
     [
       'a self-intersecting ring (a bow tie)',
       {
@@ -67,6 +68,7 @@ describe('fields', () => {
         ],
       },
       /crosses itself near 47\.605\d*° N, 99\.895\d*° W/,
+      'self-intersection',
     ],
     [
       'a ring of three positions',
@@ -81,6 +83,7 @@ describe('fields', () => {
         ],
       },
       /has 3 positions; a closed ring needs at least 4/,
+      'too-few-positions',
     ],
     [
       'a ring that is not closed',
@@ -96,6 +99,7 @@ describe('fields', () => {
         ],
       },
       /not closed|does not end where it starts/i,
+      'not-closed',
     ],
     [
       'a longitude beyond 180',
@@ -111,23 +115,27 @@ describe('fields', () => {
         ],
       },
       /outside|range|180/i,
+      'out-of-range',
     ],
     [
       'latitude and longitude swapped',
       { type: 'Polygon', coordinates: [rect(-99.9, 47.6, 0.01, 0.01).coordinates[0].map(([x, y]) => [y, x])] },
       /swapped/i,
+      'swapped',
     ],
-    ['a point where a boundary is expected', { type: 'Point', coordinates: [-99.9, 47.6] }, /Point/],
+    ['a point where a boundary is expected', { type: 'Point', coordinates: [-99.9, 47.6] }, /Point/, 'not-polygon'],
   ];
 
   it.each(badBoundaries)(
     'when the boundary is %s, then 422 says what and where, and nothing is saved',
-    async (_what, boundary, message) => {
+    async (_what, boundary, message, code) => {
       const before = await fieldCount();
       const res = await owner.post('/api/fields', { name: `Bad ${Math.random()}`, boundary });
       expect(res.status).toBe(422);
       expect(res.body.error.code).toBe('bad_boundary');
       expect(res.body.error.message).toMatch(message);
+      // The problem's stable code (shared/geo/boundary-problem-codes), for clients that decide by it.
+      expect(res.body.error.problems[0].code).toBe(code);
       expect(await fieldCount()).toBe(before);
     },
   );

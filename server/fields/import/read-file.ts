@@ -1,10 +1,9 @@
 // Reading one boundary file into candidate fields: format, shapes, names, checks and acres.
 // Pure (no database), so it runs in a compute worker; the farm's own checks follow in the service.
 import type { FeatureCollection } from 'geojson';
-import type { ImportPreview, ImportedFeature } from '../../../shared/schemas/fields';
-import { checkBoundary } from '../../../shared/geo/boundary-check';
-import { geodesicAreaM2 } from '../../../shared/geo/geodesic-area';
-import { m2ToAcres } from '../../../shared/units';
+import { FIELD_NAME_MAX, fieldNameProblems } from '../../../shared/field-names';
+import { checkAndMeasureBoundary } from '../../../shared/geo/boundary-check';
+import type { ImportPreview, ImportProblem, ImportedFeature } from '../../../shared/schemas/fields';
 import { AppError } from '../../http/errors';
 import { featuresOf } from './normalise';
 import { parseGeoJson } from './parse-geojson';
@@ -66,6 +65,16 @@ const GEOMETRY_NAMES: Record<string, string> = {
   GeometryCollection: 'a mix of shapes',
 };
 
+/** A feature of a file, read, checked and measured once: `areaM2` rides along to the save. */
+export interface ReadFeature extends ImportedFeature {
+  /** Square metres on the WGS84 ellipsoid; null when the boundary has a problem. */
+  areaM2: number | null;
+}
+
+export interface ReadFile extends ImportPreview {
+  features: ReadFeature[];
+}
+
 /**
  * Reads a boundary file (GeoJSON, KML, KMZ or zipped shapefile) and checks every shape in it as a
  * field boundary. Problems with the farm (a name already used) are for the caller to add.
@@ -73,36 +82,55 @@ const GEOMETRY_NAMES: Record<string, string> = {
  * @param file the uploaded file's name and bytes
  * @param nameAttribute the attribute that holds field names (default: the first of NAME_KEYS found)
  */
-export async function readBoundaryFile(file: { name: string; data: Buffer }, nameAttribute?: string): Promise<ImportPreview> {
+export async function readBoundaryFile(file: { name: string; data: Buffer }, nameAttribute?: string): Promise<ReadFile> {
   if (file.data.length === 0) throw new AppError(400, 'empty_file', `The file "${file.name}" is empty`);
   const format = detectFormat(file.name, file.data);
   const features = featuresOf(await parse(format, file.data));
   if (features.length === 0) throw new AppError(422, 'no_features', `No shapes were found in "${file.name}"`);
   const attributes = [...new Set(features.flatMap((f) => Object.keys(f.properties ?? {})))];
   const nameAttr = pickNameAttribute(attributes, nameAttribute);
-  const seen = new Set<string>();
-  const out: ImportedFeature[] = [];
-  for (const [index, f] of features.entries()) {
+  const names = features.map((f, index) => {
     const raw: unknown = nameAttr ? f.properties?.[nameAttr] : undefined;
     // A NUL character cannot be stored in a name (PostgreSQL text): it is dropped.
     const text = raw === undefined || raw === null ? '' : String(raw).replaceAll('\u0000', '').trim();
-    const name = (text === '' ? `Field ${index + 1}` : text).slice(0, 120);
+    return { index, name: (text === '' ? `Field ${index + 1}` : text).slice(0, FIELD_NAME_MAX) };
+  });
+  // Names are never blank or too long here (see above): only a repeat can be wrong.
+  const repeated = new Set(
+    fieldNameProblems(names)
+      .filter((p) => p.code === 'name-repeated')
+      .map((p) => p.index),
+  );
+  const out: ReadFeature[] = features.map((f, index) => {
+    const { name } = names[index];
     const label = `feature ${index + 1} ("${name}")`;
-    const errors: string[] = [];
-    let acres: number | null = null;
+    const problems: ImportProblem[] = [];
+    let area: { areaM2: number | null; acres: number | null } = { areaM2: null, acres: null };
     const g = f.geometry;
-    if (!g) errors.push(`${label} has no geometry`);
+    if (!g) problems.push({ code: 'not-polygon', message: `${label} has no geometry`, index });
     else if (g.type !== 'Polygon' && g.type !== 'MultiPolygon')
-      errors.push(`${label} is ${GEOMETRY_NAMES[g.type] ?? g.type}, but a field boundary must be an area (polygon)`);
+      problems.push({
+        code: 'not-polygon',
+        message: `${label} is ${GEOMETRY_NAMES[g.type] ?? g.type}, but a field boundary must be an area (polygon)`,
+        index,
+      });
     else {
-      const problems = checkBoundary(g, label);
-      if (problems.length) errors.push(problems[0].message);
-      else acres = m2ToAcres(geodesicAreaM2(g));
+      const m = checkAndMeasureBoundary(g, label);
+      if (m.problems.length) problems.push({ code: m.problems[0].code, message: m.problems[0].message, index });
+      else area = m;
     }
-    const key = name.toLowerCase();
-    if (seen.has(key)) errors.push(`${label}: the name "${name}" is used twice in this file`);
-    seen.add(key);
-    out.push({ index, name, acres, geometry: g, properties: f.properties ?? {}, errors });
-  }
+    if (repeated.has(index))
+      problems.push({ code: 'name-repeated', message: `${label}: the name "${name}" is used twice in this file`, index });
+    return {
+      index,
+      name,
+      acres: area.acres,
+      areaM2: area.areaM2,
+      geometry: g,
+      properties: f.properties ?? {},
+      problems,
+      errors: problems.map((p) => p.message),
+    };
+  });
   return { format, attributes, nameAttribute: nameAttr, features: out };
 }

@@ -47,5 +47,6 @@ describe('drawn boundaries', () => {
     const m = measureBoundary({ type: 'Polygon', coordinates: [bowtie] }, 'Home quarter');
     expect(m.acres).toBeNull();
     expect(m.problems[0]).toMatch(/field 'Home quarter' crosses itself/);
+    expect(m.codes).toEqual(['self-intersection']);
   });
 });

@@ -1,5 +1,4 @@
-import { fieldAcres } from '@shared/geo/geodesic-area';
-import { checkBoundary } from '@shared/geo/boundary-check';
+import { checkAndMeasureBoundary, type BoundaryProblemCode } from '@shared/geo/boundary-check';
 import type { Feature, FeatureCollection, Geometry, Position } from 'geojson';
 import type { Boundary } from './fields-api';
 
@@ -7,7 +6,10 @@ import type { Boundary } from './fields-api';
 export interface BoundaryMeasure {
   /** Acres on the WGS84 ellipsoid, holes subtracted and parts added; null while there is a problem. */
   acres: number | null;
+  /** What is wrong, in plain words, in the order found. */
   problems: string[];
+  /** The same problems' codes, for anything that decides by them. */
+  codes: BoundaryProblemCode[];
 }
 
 /**
@@ -30,7 +32,7 @@ export function combineParts(shapes: readonly (Geometry | Feature | FeatureColle
 
 /** Acres and problems of a drawn boundary, by the same shared code the server measures with. */
 export function measureBoundary(boundary: Boundary | null, name?: string): BoundaryMeasure {
-  if (!boundary) return { acres: null, problems: [] };
-  const problems = checkBoundary(boundary, name?.trim() || undefined).map((p) => p.message);
-  return { acres: problems.length ? null : fieldAcres(boundary), problems };
+  if (!boundary) return { acres: null, problems: [], codes: [] };
+  const m = checkAndMeasureBoundary(boundary, name?.trim() || undefined);
+  return { acres: m.acres, problems: m.problems.map((p) => p.message), codes: m.problems.map((p) => p.code) };
 }

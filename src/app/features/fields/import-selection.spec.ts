@@ -6,9 +6,17 @@ const preview = (names: string[], nameAttribute = 'name'): ImportPreview => ({
   attributes: ['name', 'legal'],
   nameAttribute,
   features: [
-    { index: 0, name: names[0], acres: 158.2, geometry: {}, properties: {}, errors: [] },
-    { index: 1, name: names[1], acres: null, geometry: {}, properties: {}, errors: ['Ring 1 crosses itself near 47.6° N, 99.9° W'] },
-    { index: 2, name: names[2], acres: 79.9, geometry: {}, properties: {}, errors: [] },
+    { index: 0, name: names[0], acres: 158.2, geometry: {}, properties: {}, problems: [], errors: [] },
+    {
+      index: 1,
+      name: names[1],
+      acres: null,
+      geometry: {},
+      properties: {},
+      problems: [{ code: 'self-intersection', message: 'Ring 1 crosses itself near 47.6° N, 99.9° W', index: 1 }],
+      errors: ['Ring 1 crosses itself near 47.6° N, 99.9° W'],
+    },
+    { index: 2, name: names[2], acres: 79.9, geometry: {}, properties: {}, problems: [], errors: [] },
   ],
 });
 
@@ -44,5 +52,28 @@ describe('upload preview selection', () => {
     expect(selectionProblems(setAllTicked(rows, false))).toEqual(['Tick at least one field to save.']);
     expect(selectionProblems(rename(rows, 0, '  '))).toEqual(['Feature 1 needs a name.']);
     expect(selectionProblems(rename(rows, 2, 'north'))[0]).toMatch(/Two ticked fields are called “north”/);
+  });
+
+  it('when a feature’s only problem is its name, then it starts unticked but can be ticked, and renaming clears the problem', () => {
+    const taken = 'A field called "North" already exists on this farm; rename it or untick it';
+    const withTaken = preview(['North', 'Bowtie', 'South']);
+    withTaken.features[0] = { ...withTaken.features[0], problems: [{ code: 'name-taken', message: taken, index: 0 }], errors: [taken] };
+    let rows = rowsFromPreview(withTaken);
+    expect(rows.map((r) => [r.ticked, r.tickable])).toEqual([
+      [false, true],
+      [false, false],
+      [true, true],
+    ]);
+    expect(rows[0].errors).toEqual([taken]);
+    rows = setTicked(rows, 0, true);
+    // Decided by the problem's code (name-taken), not its words: the save is held back until renamed.
+    expect(selectionProblems(rows)).toEqual([taken]);
+    rows = rename(rows, 0, 'North forty');
+    expect(rows[0].errors).toEqual([]);
+    expect(selectionProblems(rows)).toEqual([]);
+    expect(selectionOf(rows)).toEqual([
+      { index: 0, name: 'North forty' },
+      { index: 2, name: 'South' },
+    ]);
   });
 });

@@ -1,4 +1,5 @@
 import type { UnitSystem } from '@shared/schemas/auth';
+import { roundTo } from '@shared/round';
 import { ftToM, mToFt } from '@shared/units';
 
 // Implement widths keep more precision than the units helper's whole feet or metres: a 60 ft drill
@@ -14,7 +15,7 @@ const metres = new Intl.NumberFormat('en-US', { maximumFractionDigits: 2 });
  */
 export function widthToMetres(value: number, system: UnitSystem): number {
   const m = system === 'metric' ? value : ftToM(value);
-  return Math.round(m * 1e6) / 1e6;
+  return roundTo(m, 6);
 }
 
 /**
@@ -23,7 +24,7 @@ export function widthToMetres(value: number, system: UnitSystem): number {
  * @example metresToWidth(25.6032, 'us') // 84
  */
 export function metresToWidth(widthM: number, system: UnitSystem): number {
-  return system === 'metric' ? Math.round(widthM * 1000) / 1000 : Math.round(mToFt(widthM) * 100) / 100;
+  return system === 'metric' ? roundTo(widthM, 3) : roundTo(mToFt(widthM), 2);
 }
 
 /**

@@ -4,6 +4,7 @@ import type { PlanInput } from '@shared/plan/types';
 import type { UnitSystem } from '@shared/schemas/auth';
 import type { Implement } from '@shared/schemas/fleet';
 import type { SavedPlan } from '@shared/schemas/plans';
+import { roundTo } from '@shared/round';
 import { ftToM, mphToKmh, mToFt } from '@shared/units';
 
 /**
@@ -45,17 +46,16 @@ export interface PlanSettingsBody {
 export const DEFAULT_HEADLAND_PASSES = 2;
 
 /** Speed in the farm's unit from mph (one decimal). */
-export const speedFromMph = (mph: number, system: UnitSystem): number => round(system === 'metric' ? mphToKmh(mph) : mph, 1);
+export const speedFromMph = (mph: number, system: UnitSystem): number => roundTo(system === 'metric' ? mphToKmh(mph) : mph, 1);
 const speedToMph = (speed: number, system: UnitSystem): number => (system === 'metric' ? speed / mphToKmh(1) : speed);
 /** Width in the farm's unit from metres: feet to 0.1 ft, metres to the centimetre. */
-export const widthFromMetres = (m: number, system: UnitSystem): number => (system === 'metric' ? round(m, 2) : round(mToFt(m), 1));
+export const widthFromMetres = (m: number, system: UnitSystem): number => (system === 'metric' ? roundTo(m, 2) : roundTo(mToFt(m), 1));
 const widthToMetres = (width: number, system: UnitSystem): number => (system === 'metric' ? width : ftToM(width));
-const round = (v: number, places: number): number => Math.round(v * 10 ** places) / 10 ** places;
 
 /** Speed and efficiency of an implement kind, in the form's units. */
 export function kindDefaults(kind: ImplementKind, system: UnitSystem): Pick<PlanSettings, 'speed' | 'efficiencyPct'> {
   const d = implementDefaults(kind);
-  return { speed: speedFromMph(d.speedMph, system), efficiencyPct: round(d.efficiency * 100, 1) };
+  return { speed: speedFromMph(d.speedMph, system), efficiencyPct: roundTo(d.efficiency * 100, 1) };
 }
 
 /** Implements of the fleet that do an operation. */
@@ -91,7 +91,7 @@ export function settingsFromSaved(saved: SavedPlan, fleet: readonly Implement[],
     autoHeading: saved.headingDeg === null,
     headingDeg: saved.headingDeg ?? saved.summary.headingDeg,
     speed: speedFromMph(saved.speedMph, system),
-    efficiencyPct: round(saved.efficiency * 100, 1),
+    efficiencyPct: roundTo(saved.efficiency * 100, 1),
     turnSeconds: saved.turnSeconds,
     coverage: saved.coverage,
   };

@@ -1,5 +1,6 @@
 import { Injectable, computed, inject } from '@angular/core';
 import type { UnitSystem } from '@shared/schemas/auth';
+import { roundTo } from '@shared/round';
 import { acresToHa, ftToM, mToFt } from '@shared/units';
 import { AuthStore } from '../../core/auth/auth-store';
 
@@ -28,12 +29,12 @@ export function formatLength(metres: number | null | undefined, system: UnitSyst
 
 /** A length typed in the farm's unit (ft or m), in metres for the API, rounded to the centimetre. */
 export function lengthToMetres(value: number, system: UnitSystem): number {
-  return Math.round((system === 'metric' ? value : ftToM(value)) * 100) / 100;
+  return roundTo(system === 'metric' ? value : ftToM(value), 2);
 }
 
 /** A stored length in metres, in the farm's unit for a form field (whole ft, or m to 0.1). */
 export function metresToLength(metres: number, system: UnitSystem): number {
-  return system === 'metric' ? Math.round(metres * 10) / 10 : Math.round(mToFt(metres));
+  return system === 'metric' ? roundTo(metres, 1) : roundTo(mToFt(metres), 0);
 }
 
 /**

@@ -1,3 +1,4 @@
+import { FIELD_NAME_MAX } from '@shared/field-names';
 import { httpResource } from '@angular/common/http';
 import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
@@ -111,7 +112,7 @@ export class FieldPage {
   protected readonly detailsError = signal<string | null>(null);
 
   protected readonly details = new FormGroup({
-    name: new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.maxLength(120)] }),
+    name: new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.maxLength(FIELD_NAME_MAX)] }),
     notes: new FormControl('', { nonNullable: true, validators: [Validators.maxLength(2000)] }),
   });
 

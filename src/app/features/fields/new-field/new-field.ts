@@ -1,3 +1,4 @@
+import { FIELD_NAME_MAX } from '@shared/field-names';
 import { httpResource } from '@angular/common/http';
 import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
@@ -26,13 +27,15 @@ import { AuthStore } from '../../../core/auth/auth-store';
   styleUrl: './new-field.scss',
 })
 export class NewField {
+  /** Longest field name (shared/field-names). */
+  protected readonly nameMax = FIELD_NAME_MAX;
   private readonly api = inject(FieldsApi);
   private readonly router = inject(Router);
   private readonly snackBar = inject(MatSnackBar);
   private readonly auth = inject(AuthStore);
 
   protected readonly form = new FormGroup({
-    name: new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.maxLength(120)] }),
+    name: new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.maxLength(FIELD_NAME_MAX)] }),
     notes: new FormControl('', { nonNullable: true, validators: [Validators.maxLength(2000)] }),
   });
   private readonly name = toSignal(this.form.controls.name.valueChanges, { initialValue: '' });

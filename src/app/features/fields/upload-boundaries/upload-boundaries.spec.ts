@@ -33,16 +33,17 @@ const PREVIEW: ImportPreview = {
   attributes: ['name', 'legal'],
   nameAttribute: 'name',
   features: [
-    { index: 0, name: 'North forty', acres: 40.1, geometry: square, properties: {}, errors: [] },
+    { index: 0, name: 'North forty', acres: 40.1, geometry: square, properties: {}, problems: [], errors: [] },
     {
       index: 1,
       name: 'Bowtie',
       acres: null,
       geometry: square,
       properties: {},
+      problems: [{ code: 'self-intersection', message: 'Ring 1 crosses itself near 47.60500° N, 99.89500° W', index: 1 }],
       errors: ['Ring 1 crosses itself near 47.60500° N, 99.89500° W'],
     },
-    { index: 2, name: 'Home half', acres: 320.2, geometry: square, properties: {}, errors: [] },
+    { index: 2, name: 'Home half', acres: 320.2, geometry: square, properties: {}, problems: [], errors: [] },
   ],
 };
 
@@ -107,7 +108,10 @@ describe('UploadBoundaries', () => {
           code: 'import_refused',
           message:
             'Nothing was saved. A field called "North forty" already exists on this farm; rename it or untick it (and 1 more problem)',
-          problems: ['A field called "North forty" already exists on this farm; rename it or untick it', 'Something else'],
+          problems: [
+            { code: 'name-taken', message: 'A field called "North forty" already exists on this farm; rename it or untick it', index: 0 },
+            { code: 'no-such-feature', message: 'There is no feature 9 in the file', index: 8 },
+          ],
         },
       },
       { status: 422, statusText: 'Unprocessable Entity' },

@@ -9,12 +9,13 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { Router, RouterLink } from '@angular/router';
-import type { ImportPreview } from '@shared/schemas/fields';
+import { importProblems, type ImportPreview } from '@shared/schemas/fields';
 import type { Observable } from 'rxjs';
 import { ApiError, messageOf } from '../../../core/http/api-error';
 import { FieldMap } from '../../../shared/map/field-map/field-map';
 import type { MapField } from '../../../shared/map/map-types';
 import { AreaPipe } from '../../../shared/units/area-pipe';
+import { FIELD_NAME_MAX } from '@shared/field-names';
 import { LIMIT_TEXT, MAX_UPLOAD_BYTES } from '@shared/limits';
 import { FieldsApi } from '../fields-api';
 import { type ImportRow, rename, rowsFromPreview, selectionOf, selectionProblems, setAllTicked, setTicked } from '../import-selection';
@@ -49,6 +50,8 @@ const isPolygonal = (g: unknown): g is MapField['boundary'] =>
   styleUrl: './upload-boundaries.scss',
 })
 export class UploadBoundaries {
+  /** Longest field name (shared/field-names). */
+  protected readonly nameMax = FIELD_NAME_MAX;
   /** The server's budgets for boundary files, in plain words. */
   protected readonly limits = LIMIT_TEXT.upload;
   private readonly api = inject(FieldsApi);
@@ -167,8 +170,8 @@ export class UploadBoundaries {
   }
 }
 
-/** The list a 422 `import_refused` carries beside its message. */
+/** The messages of the coded problems a 422 `import_refused` carries beside its message. */
 function problemsOf(error: ApiError): string[] {
-  const extra = error.details['problems'];
-  return Array.isArray(extra) ? extra.filter((p): p is string => typeof p === 'string') : [];
+  const parsed = importProblems.safeParse(error.details['problems']);
+  return parsed.success ? parsed.data.map((p) => p.message) : [];
 }
