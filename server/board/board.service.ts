@@ -2,17 +2,25 @@
 // is refused (409 stale_board, with what changed and the board as it is now) when someone else
 // saved first: never a silent overwrite. Conflicts do not block a save; they show on the board.
 import { OPERATION_INFO, type Operation } from '../../shared/operations';
-import type { AssignmentCreate, AssignmentPatch, Board, BoardOrder } from '../../shared/schemas/board';
+import {
+  brokenCardRules,
+  type AssignmentCreate,
+  type AssignmentPatch,
+  type Board,
+  type BoardOrder,
+  type CardFacts,
+} from '../../shared/schemas/board';
 import type { AppDeps } from '../app-deps';
 import type { Tx } from '../db/knex';
 import { AppError, notFound } from '../http/errors';
 import type { SessionPrincipal } from '../http/session-user';
-import * as repo from './assignments.repository';
+import { defaultAcres } from '../jobs/acres-check';
+import * as repo from '../jobs/assignments.repository';
+import type { DbAssignmentRow } from '../jobs/jobs.rows';
 import { bumpDay, changesSince, lockDay } from './board-days.repository';
 import { readBoard } from './board.read';
-import type { DbAssignmentRow } from './board.rows';
-import { parseTime } from './clock';
-import { defaultAcres, resolveRefs } from './references';
+import { formatMinutes, parseTime } from './clock';
+import { resolveRefs } from './references';
 
 interface Change {
   summary: string;
@@ -90,21 +98,22 @@ async function renumberColumn(tx: Tx, farmId: number, day: string, operatorId: n
   );
 }
 
-function times(start: number | null, end: number | null): void {
-  if (start != null && end != null && end <= start) {
-    throw new AppError(422, 'invalid_input', 'The end time must be after the start time', { endTime: 'Must be after the start time' });
-  }
+/** Refuses a card, as it would be saved, that breaks a rule between its fields (shared/schemas/board.ts). */
+function keepsCardRules(card: CardFacts): void {
+  const [broken] = brokenCardRules(card);
+  if (broken) throw new AppError(422, 'invalid_input', broken.message, { [broken.field]: broken.hint });
 }
+
+const minutesOf = (hhmm: string | null) => (hhmm ? parseTime(hhmm) : null);
+const timeOf = (min: number | null) => (min == null ? null : formatMinutes(min));
 
 export async function createAssignment(deps: AppDeps, by: SessionPrincipal, input: AssignmentCreate): Promise<Board> {
   let savedId = 0;
   const board = await save(deps, by, input.date, input.version, [], async (tx) => {
     const refs = await resolveRefs(tx, by.farmId, { ...input, mentorId: input.mentorId ?? null });
-    if (input.mentorId && input.mentorId === input.operatorId)
-      throw new AppError(422, 'invalid_input', 'The mentor must be someone other than the operator', { mentorId: 'Someone else' });
-    const start = input.startTime ? parseTime(input.startTime) : null;
-    const end = input.endTime ? parseTime(input.endTime) : null;
-    times(start, end);
+    keepsCardRules(input);
+    const start = minutesOf(input.startTime ?? null);
+    const end = minutesOf(input.endTime ?? null);
     savedId = await repo.insertAssignment(tx, by.farmId, {
       day: input.date,
       field_id: input.fieldId,
@@ -156,11 +165,11 @@ export async function updateAssignment(deps: AppDeps, by: SessionPrincipal, id: 
     const refs = await resolveRefs(tx, by.farmId, patch);
     const operatorId = patch.operatorId ?? a.operator_id;
     const mentorId = patch.mentorId === undefined ? a.mentor_id : patch.mentorId;
-    if (mentorId && mentorId === operatorId)
-      throw new AppError(422, 'invalid_input', 'The mentor must be someone other than the operator', { mentorId: 'Someone else' });
-    const start = patch.startTime === undefined ? a.start_min : patch.startTime ? parseTime(patch.startTime) : null;
-    const end = patch.endTime === undefined ? a.end_min : patch.endTime ? parseTime(patch.endTime) : null;
-    times(start, end);
+    const startTime = patch.startTime === undefined ? timeOf(a.start_min) : patch.startTime;
+    const endTime = patch.endTime === undefined ? timeOf(a.end_min) : patch.endTime;
+    keepsCardRules({ operatorId, mentorId, startTime, endTime });
+    const start = patch.startTime === undefined ? a.start_min : minutesOf(patch.startTime);
+    const end = patch.endTime === undefined ? a.end_min : minutesOf(patch.endTime);
     const day = patch.date ?? a.day;
     const fieldChanged = (patch.fieldId && patch.fieldId !== a.field_id) || (patch.operation && patch.operation !== a.operation);
     const field = refs.field ?? (await resolveRefs(tx, by.farmId, { fieldId: a.field_id })).field!;

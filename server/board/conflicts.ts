@@ -4,8 +4,9 @@
 import { OPERATION_INFO, type Operation } from '../../shared/operations';
 import type { BoardAssignment, Conflict } from '../../shared/schemas/board';
 import type { SkillLevel } from '../../shared/schemas/fleet';
+import { coveredHours } from '../jobs/hours';
+import { isFinishedForSeason } from '../jobs/progress';
 import { formatMinutes } from './clock';
-import { coveredHours } from './person-hours';
 
 export interface ConflictCard {
   a: BoardAssignment;
@@ -19,9 +20,6 @@ export interface ConflictCard {
 }
 
 export type Skills = ReadonlyMap<number, Partial<Record<Operation, SkillLevel>>>;
-
-/** A field counts as finished for an operation when less than this is left, acres. */
-export const FINISHED_TOLERANCE_ACRES = 0.05;
 
 const job = (c: ConflictCard) =>
   `${c.a.field.name} ${OPERATION_INFO[c.a.operation].label.toLowerCase()} ${formatMinutes(c.start)}–${formatMinutes(c.end)}`;
@@ -128,7 +126,7 @@ export function findConflicts(cards: readonly ConflictCard[], skills: Skills, da
   const open = active.filter((c) => c.a.state !== 'finished');
   const out = [...doubleBookings(active)];
   for (const c of open) out.push(...equipment(c), ...mentoring(c, skills));
-  for (const c of open.filter((c) => c.a.acresToDo < FINISHED_TOLERANCE_ACRES)) {
+  for (const c of open.filter((c) => isFinishedForSeason(c.a.acresToDo))) {
     const op = OPERATION_INFO[c.a.operation].label.toLowerCase();
     out.push({
       code: 'field_finished',

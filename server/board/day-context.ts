@@ -5,14 +5,18 @@ import type { BoardAssignment } from '../../shared/schemas/board';
 import type { SkillLevel } from '../../shared/schemas/fleet';
 import { skillsOfFarm } from '../crew/crew.repository';
 import type { Tx } from '../db/knex';
+import { getFarmSettings } from '../farm/farm.repository';
 import type { DbHazardRow } from '../fields/fields.repository';
 import { whyCannotPull } from '../fleet/can-pull';
 import { serviceDue } from '../fleet/service-due';
-import { acresDone, passPlansOf, peopleOfFarm, viewsOfDay, type PersonRow } from './assignments.repository';
+import { acresDone, viewsOfDay } from '../jobs/assignments.repository';
+import type { AssignmentView } from '../jobs/jobs.rows';
+import { acresToDo, seasonOf } from '../jobs/progress';
 import { getDay } from './board-days.repository';
-import type { AssignmentView, DbBoardDayRow, DbPassPlanRow } from './board.rows';
+import type { DbBoardDayRow, DbPassPlanRow } from './board.rows';
 import { formatMinutes } from './clock';
 import type { ConflictCard, Skills } from './conflicts';
+import { hazardsOfFields, passPlansOf, peopleOfFarm, type PersonRow } from './day.repository';
 import { planHours } from './plan-hours';
 import { schedule } from './schedule';
 import { roundTo } from '../../shared/round';
@@ -32,15 +36,6 @@ export interface DayContext {
 }
 
 export const planKey = (fieldId: number, operation: Operation) => `${fieldId}|${operation}`;
-
-/** The season a day belongs to: its calendar year. */
-export const seasonOf = (day: string): number => Number(day.slice(0, 4));
-
-/** Field acres less what other jobs finished this season for that operation, ≥ 0. */
-export function acresToDo(v: Pick<AssignmentView, 'field_acres' | 'state' | 'acres_done'>, doneThisSeason: number): number {
-  const own = v.state === 'finished' ? (v.acres_done ?? 0) : 0;
-  return Math.max(0, roundTo(v.field_acres - (doneThisSeason - own)));
-}
 
 function toAssignment(v: AssignmentView, done: number, plan: DbPassPlanRow | undefined): BoardAssignment {
   const hours = planHours(v.acres_planned, v.field_acres, { widthM: v.implement_width_m, kind: v.implement_kind }, plan?.summary?.hours);
@@ -79,7 +74,7 @@ function toAssignment(v: AssignmentView, done: number, plan: DbPassPlanRow | und
 
 export async function loadDay(db: Tx, farmId: number, day: string): Promise<DayContext> {
   // One query at a time: on a transaction they share one connection.
-  const farm = await db('farms').where({ id: farmId }).first('name', 'day_hours_limit');
+  const farm = await getFarmSettings(db, farmId);
   const boardDay = await getDay(db, farmId, day);
   const views = await viewsOfDay(db, farmId, day);
   const skillRows = await skillsOfFarm(db, farmId);
@@ -87,9 +82,7 @@ export async function loadDay(db: Tx, farmId: number, day: string): Promise<DayC
   const fieldIds = [...new Set(views.map((v) => v.field_id))];
   const done = await acresDone(db, farmId, seasonOf(day), fieldIds);
   const plans = await passPlansOf(db, farmId, fieldIds);
-  const hazards: DbHazardRow[] = fieldIds.length
-    ? await db<DbHazardRow>('hazards').where({ farm_id: farmId }).whereIn('field_id', fieldIds).orderBy('id')
-    : [];
+  const hazards = await hazardsOfFields(db, farmId, fieldIds);
   const doneBy = new Map(done.map((d) => [planKey(d.field_id, d.operation), d.acres]));
   const passPlans = new Map(plans.map((p) => [planKey(p.field_id, p.operation), p]));
   const skills = new Map<number, Partial<Record<Operation, SkillLevel>>>();
@@ -132,7 +125,7 @@ export async function loadDay(db: Tx, farmId: number, day: string): Promise<DayC
   return {
     farmId,
     day,
-    farm: { name: farm.name, dayHoursLimit: farm.day_hours_limit },
+    farm: { name: farm.name, dayHoursLimit: farm.dayHoursLimit },
     boardDay,
     views: new Map(views.map((v) => [v.id, v])),
     cards,

@@ -2,19 +2,20 @@
 // machine, logged as an event; finishing records acres and hours worked in columns the season
 // report adds up, and moves the machine's engine-hour meter forward.
 import { OPERATION_INFO } from '../../shared/operations';
-import type { EventInput, RunSheetItem } from '../../shared/schemas/board';
+import type { EventInput, RunSheetItem } from '../../shared/schemas/run-sheet';
 import type { AppDeps } from '../app-deps';
-import { updateAssignment, type AssignmentColumns } from '../board/assignments.repository';
 import { lockMachine, raiseMeter } from '../fleet/machines.repository';
 import { AppError } from '../http/errors';
 import type { SessionPrincipal } from '../http/session-user';
-import { checkAcres } from './acres-check';
+import { checkAcres } from '../jobs/acres-check';
+import { updateAssignment, type AssignmentColumns } from '../jobs/assignments.repository';
+import { eventsOfJob, insertEvent } from '../jobs/events.repository';
+import { hoursWorked } from '../jobs/hours';
+import { nextState, pastTense } from '../jobs/state-machine';
 import { backwards } from './engine-hours';
-import { eventsOfJob, insertEvent } from './events.repository';
-import { hoursWorked } from './hours-worked';
 import { lockJob, touchBoard } from './job-lock';
+import { fieldName } from './run-sheet.repository';
 import { runSheetItem } from './run-sheet.service';
-import { nextState, pastTense } from './state-machine';
 
 /** A phone's clock may run a little ahead of the server's. */
 const CLOCK_SKEW_MS = 5 * 60_000;
@@ -75,8 +76,8 @@ export async function logEvent(deps: AppDeps, by: SessionPrincipal, id: number, 
       by_user_id: by.id,
     });
     await updateAssignment(tx, id, cols);
-    const field = await tx('fields').where({ id: a.field_id }).first('name');
-    await touchBoard(tx, by, a, `${by.name} ${pastTense(input.type)} ${field.name} ${OPERATION_INFO[a.operation].label.toLowerCase()}`);
+    const field = await fieldName(tx, by.farmId, a.field_id);
+    await touchBoard(tx, by, a, `${by.name} ${pastTense(input.type)} ${field} ${OPERATION_INFO[a.operation].label.toLowerCase()}`);
   });
   return runSheetItem(deps.db, by.farmId, id);
 }

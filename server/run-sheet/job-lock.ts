@@ -1,9 +1,9 @@
-import type { DbAssignmentRow } from '../board/board.rows';
-import { getAssignment, lockAssignment } from '../board/assignments.repository';
 import { bumpDay, lockDay } from '../board/board-days.repository';
 import type { Tx } from '../db/knex';
 import { forbidden, notFound } from '../http/errors';
 import type { SessionPrincipal } from '../http/session-user';
+import { getAssignment, lockAssignment } from '../jobs/assignments.repository';
+import type { DbAssignmentRow } from '../jobs/jobs.rows';
 
 export type JobActor = 'operator' | 'operator-or-mentor' | 'owner';
 

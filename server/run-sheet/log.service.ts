@@ -1,15 +1,15 @@
 // The owner's corrections to a finished job's log. The season totals read the job's columns, so
 // an edit or a deletion changes them; each correction is kept in the job's event log.
-import type { LogPatch, RunSheetItem } from '../../shared/schemas/board';
+import type { LogPatch, RunSheetItem } from '../../shared/schemas/run-sheet';
 import type { AppDeps } from '../app-deps';
-import { updateAssignment, type AssignmentColumns } from '../board/assignments.repository';
-import type { DbAssignmentRow } from '../board/board.rows';
 import { raiseMeter } from '../fleet/machines.repository';
 import { AppError } from '../http/errors';
 import type { SessionPrincipal } from '../http/session-user';
-import { checkAcres } from './acres-check';
+import { checkAcres } from '../jobs/acres-check';
+import { updateAssignment, type AssignmentColumns } from '../jobs/assignments.repository';
+import { insertEvent } from '../jobs/events.repository';
+import type { DbAssignmentRow } from '../jobs/jobs.rows';
 import { backwards } from './engine-hours';
-import { insertEvent } from './events.repository';
 import { lockJob, touchBoard } from './job-lock';
 import { runSheetItem } from './run-sheet.service';
 

@@ -1,12 +1,12 @@
 // A problem reported from the field. A new hazard goes onto the field as `reported` until the
 // owner confirms it; a breakdown pauses a job that is underway unless the operator says not to.
-import type { ProblemInput, RunSheetItem } from '../../shared/schemas/board';
+import type { ProblemInput, RunSheetItem } from '../../shared/schemas/run-sheet';
 import type { AppDeps } from '../app-deps';
-import { updateAssignment } from '../board/assignments.repository';
 import { insertHazard } from '../fields/fields.repository';
 import { checkHazardGeometry } from '../fields/geometry';
 import type { SessionPrincipal } from '../http/session-user';
-import { insertEvent } from './events.repository';
+import { updateAssignment } from '../jobs/assignments.repository';
+import { insertEvent } from '../jobs/events.repository';
 import { lockJob, touchBoard } from './job-lock';
 import { runSheetItem } from './run-sheet.service';
 

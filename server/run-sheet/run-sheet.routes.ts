@@ -1,4 +1,4 @@
-import { eventBody, logPatchBody, problemBody, runSheetQuery } from '../../shared/schemas/board';
+import { eventBody, logPatchBody, problemBody, runSheetQuery } from '../../shared/schemas/run-sheet';
 import { idParam } from '../../shared/schemas/common';
 import type { AppDeps } from '../app-deps';
 import type { Routes } from '../http/routes';

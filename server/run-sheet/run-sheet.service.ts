@@ -1,28 +1,23 @@
 // An operator's own day: each job they run or mentor, in time order, with the field's map and
 // hazards, the saved pass plan, the machine and implement, the cautions and the log so far.
-import type { MultiPolygon, Polygon } from 'geojson';
 import { OPERATION_INFO } from '../../shared/operations';
-import type { RunSheet, RunSheetItem } from '../../shared/schemas/board';
+import type { RunSheet, RunSheetItem } from '../../shared/schemas/run-sheet';
 import type { AppDeps } from '../app-deps';
-import { getAssignment } from '../board/assignments.repository';
 import type { ConflictCard } from '../board/conflicts';
 import { loadDay, planKey, type DayContext } from '../board/day-context';
 import type { Tx } from '../db/knex';
 import { hazardFeature } from '../fields/fields.service';
 import { forbidden, notFound } from '../http/errors';
 import type { SessionPrincipal } from '../http/session-user';
-import { eventsOfJobs } from './events.repository';
+import { getAssignment } from '../jobs/assignments.repository';
+import { eventsOfJobs } from '../jobs/events.repository';
+import { boundariesOf } from './run-sheet.repository';
 
 async function itemsOf(db: Tx, ctx: DayContext, cards: ConflictCard[], personId: number): Promise<RunSheetItem[]> {
   const ids = cards.map((c) => c.a.id);
   const fieldIds = [...new Set(cards.map((c) => c.a.field.id))];
   const events = await eventsOfJobs(db, ctx.farmId, ids);
-  const boundaries = fieldIds.length
-    ? await db('fields').where({ farm_id: ctx.farmId }).whereIn('id', fieldIds).select('id', 'boundary')
-    : [];
-  const boundaryOf = new Map<number, Polygon | MultiPolygon>(
-    boundaries.map((f: { id: number; boundary: Polygon | MultiPolygon }) => [f.id, f.boundary]),
-  );
+  const boundaryOf = await boundariesOf(db, ctx.farmId, fieldIds);
   return cards.map(({ a }) => {
     const plan = ctx.passPlans.get(planKey(a.field.id, a.operation));
     const view = ctx.views.get(a.id)!;

@@ -2,9 +2,11 @@
 // date_trunc('week')); Node only receives the grouped rows. All sections come from one statement:
 // one plan, one index-only scan of the season's jobs (migration 20261201004000), one snapshot, so
 // the sections always agree with each other even while an owner corrects a log.
+// What counts as done, when a field is finished and what a job's engine hours are: server/jobs.
 import { OPERATIONS, type Operation } from '../../shared/operations';
-import { FINISHED_TOLERANCE_ACRES } from '../board/conflicts';
 import type { Tx } from '../db/knex';
+import { ENGINE_HOURS_SQL } from '../jobs/hours';
+import { FINISHED_TOLERANCE_ACRES, PROGRESS_SQL, seasonDays } from '../jobs/progress';
 
 /** Operations a field planned as fallow still gets. */
 export const FALLOW_OPERATIONS: readonly Operation[] = ['harrowing', 'tillage'];
@@ -75,7 +77,7 @@ export interface SeasonRows {
   machineOperations: MachineOperationRow[];
 }
 
-const IN_SEASON = 'farm_id = :farmId and day >= :from::date and day < :to::date';
+const IN_SEASON = `farm_id = :farmId and ${PROGRESS_SQL.inSeason}`;
 
 /**
  * The finished jobs of one farm and season: what the totals add up, as the work board counts a
@@ -83,9 +85,9 @@ const IN_SEASON = 'farm_id = :farmId and day >= :from::date and day < :to::date'
  * double precision (fast; exact well past the hundredth of an acre the report shows).
  */
 const DONE = `done as materialized (
-  select field_id, operation, operator_id, machine_id, day, coalesce(acres_done, 0)::float8 as acres, coalesce(hours_worked, 0)::float8 as hours,
-         (case when engine_hours_end >= engine_hours_start then engine_hours_end - engine_hours_start end)::float8 as engine_hours
-  from assignments where ${IN_SEASON} and state = 'finished'
+  select field_id, operation, operator_id, machine_id, day, ${PROGRESS_SQL.acresDone}::float8 as acres, coalesce(hours_worked, 0)::float8 as hours,
+         (${ENGINE_HOURS_SQL})::float8 as engine_hours
+  from assignments where ${IN_SEASON} and ${PROGRESS_SQL.isDone}
 )`;
 
 /** Fields with a crop this season; a crop whose name holds the word "fallow" is fallow. */
@@ -108,7 +110,7 @@ const FARM_OPS = `farm_ops as (
  */
 const FIELD_OPS = `field_ops as (
   select d.field_id, d.operation, sum(d.acres) as acres, sum(d.hours) as hours,
-         to_char(min(d.day) filter (where d.cum >= f.acres - :tolerance), 'YYYY-MM-DD') as date_finished
+         to_char(min(d.day) filter (where ${PROGRESS_SQL.finished('d.cum', 'f.acres')}), 'YYYY-MM-DD') as date_finished
   from (select field_id, operation, day, acres, hours, sum(acres) over (partition by field_id, operation order by day) as cum from done) d
   join fields f on f.id = d.field_id
   group by d.field_id, d.operation, f.acres
@@ -135,7 +137,7 @@ const SECTIONS: Record<keyof SeasonRows, string> = {
   // covered (each field capped at its acres), and the pass-plan hours of those fields' saved plans.
   operationPlans: `select o.operation,
       coalesce(sum(p.acres), 0)::float8 as acres_planned,
-      coalesce(sum(least(coalesce(d.acres, 0), p.acres)), 0)::float8 as acres_covered,
+      coalesce(sum(${PROGRESS_SQL.covered('coalesce(d.acres, 0)', 'p.acres')}), 0)::float8 as acres_covered,
       coalesce(sum(p.acres) filter (where h.hours is not null), 0)::float8 as acres_with_plan,
       sum(h.hours)::float8 as planned_hours
     from unnest(:ops::text[]) as o(operation)
@@ -180,8 +182,7 @@ export function seasonQuery(db: Tx, farmId: number, year: number) {
   return db.raw(`with ${DONE}, ${PLANNED}, ${FARM_OPS}, ${FIELD_OPS}, ${PLAN_HOURS}\nselect ${columns}`, {
     farmId,
     year,
-    from: `${year}-01-01`,
-    to: `${year + 1}-01-01`,
+    ...seasonDays(year),
     ops: [...OPERATIONS],
     fallowOps: [...FALLOW_OPERATIONS],
     tolerance: FINISHED_TOLERANCE_ACRES,
@@ -204,8 +205,8 @@ export interface SeasonYearRow {
 export async function seasonYears(db: Tx, farmId: number): Promise<SeasonYearRow[]> {
   const { rows } = await db.raw(
     `with worked as (
-       select extract(year from day)::int as year, coalesce(sum(acres_done), 0)::float8 as acres, count(*)::int as jobs
-       from assignments where farm_id = :farmId and state = 'finished' group by 1
+       select ${PROGRESS_SQL.seasonOfDay} as year, coalesce(sum(acres_done), 0)::float8 as acres, count(*)::int as jobs
+       from assignments where farm_id = :farmId and ${PROGRESS_SQL.isDone} group by 1
      ),
      planned as (select distinct season as year from crop_plans where farm_id = :farmId)
      select coalesce(w.year, p.year) as year, coalesce(w.acres, 0)::float8 as acres, coalesce(w.jobs, 0)::int as jobs

@@ -50,7 +50,7 @@ export async function seasonSummary(deps: AppDeps, farmId: number, year: number)
       acresWithPlan: roundTo(p?.acres_with_plan ?? 0),
       acresPerHour: ratio(acresFinished, hoursLogged),
       plannedAcresPerHour: ratio(p?.acres_with_plan ?? 0, plannedHours),
-      progress: acresPlanned > 0 ? Math.min(1, Math.round(((p?.acres_covered ?? 0) / acresPlanned) * 10_000) / 10_000) : 0,
+      progress: acresPlanned > 0 ? Math.min(1, roundTo((p?.acres_covered ?? 0) / acresPlanned, 4)) : 0,
       jobsFinished: l?.jobs_finished ?? 0,
       jobsCalledOff: l?.jobs_called_off ?? 0,
     };

@@ -1,29 +1,12 @@
-// Work board, run sheet and work orders: request bodies and the shapes the API answers.
-import type { FeatureCollection, MultiPolygon, Polygon } from 'geojson';
+// The work board and its work orders: the owner's edits (request bodies), the rules between a
+// card's fields, and the shapes the API answers. A job's states and log are in ./jobs, the run
+// sheet's requests in ./run-sheet.
 import { z } from 'zod';
 import { OPERATIONS, type Operation } from '../operations';
 import type { ImplementKind } from '../plan/implement-defaults';
-import { DB_INT_MAX, dbId, dbIdNumber, isoDate } from './common';
-import { HAZARD_KINDS } from './fields';
+import { DB_INT_MAX, dbIdNumber, isoDate } from './common';
 import type { MachineKind } from './fleet';
-
-export const ASSIGNMENT_STATES = ['planned', 'underway', 'paused', 'finished', 'called-off'] as const;
-export type AssignmentState = (typeof ASSIGNMENT_STATES)[number];
-export const STATE_LABELS: Record<AssignmentState, string> = {
-  planned: 'planned',
-  underway: 'underway',
-  paused: 'paused',
-  finished: 'finished',
-  'called-off': 'called off',
-};
-
-export const EVENT_TYPES = ['start', 'pause', 'resume', 'finish', 'call-off'] as const;
-export type EventType = (typeof EVENT_TYPES)[number];
-/** What the log may also hold besides the operator's buttons. */
-export type LoggedEventType = EventType | 'problem' | 'log-edited' | 'log-deleted';
-
-export const CALL_OFF_REASONS = ['weather', 'breakdown', 'other'] as const;
-export const PROBLEM_KINDS = ['breakdown', 'hazard', 'other'] as const;
+import { jobNote as note, type AssignmentLog, type AssignmentState, type PersonRef } from './jobs';
 
 /** A board day's first job starts here when no times are set (minutes after midnight). */
 export const DAY_START_MIN = 7 * 60;
@@ -32,11 +15,51 @@ export const DAY_START_MIN = 7 * 60;
 export const timeOfDay = z.string().regex(/^([01]\d|2[0-3]):[0-5]\d$/, 'Use a time written as HH:MM (24-hour clock)');
 const id = dbIdNumber;
 const operation = z.enum(OPERATIONS, { message: `Operation must be one of: ${OPERATIONS.join(', ')}` });
-const note = z.string().trim().max(1000, 'Use at most 1000 characters').nullable().optional();
 /** The board version the client last saw; may come in the body or an `If-Match` header instead. */
 const version = z.number().int().min(0).max(DB_INT_MAX, 'That board version does not exist; reload the work board').optional();
-const endAfterStart = (v: { startTime?: string | null; endTime?: string | null }) => !(v.startTime && v.endTime) || v.endTime > v.startTime;
-const END_MESSAGE = { message: 'The end time must be after the start time', path: ['endTime'] };
+
+/** What the rules between a card's fields look at: its times ('HH:MM') and its people. */
+export interface CardFacts {
+  startTime?: string | null;
+  endTime?: string | null;
+  operatorId?: number | null;
+  mentorId?: number | null;
+}
+
+/** When both times are set, the end comes after the start ('HH:MM' of equal width compares as text). */
+export const endAfterStart = (c: CardFacts): boolean => !(c.startTime && c.endTime) || c.endTime > c.startTime;
+
+/** A mentor, when there is one, is someone other than the operator. */
+export const mentorIsNotOperator = (c: CardFacts): boolean => !c.mentorId || c.mentorId !== c.operatorId;
+
+export interface CardRule {
+  field: 'mentorId' | 'endTime';
+  holds: (c: CardFacts) => boolean;
+  message: string;
+  /** The short form shown beside the field. */
+  hint: string;
+}
+
+/**
+ * The rules between a card's fields: the one definition the request schemas, the board service
+ * and the assignment form use. The schemas check the times of a request; the service checks every
+ * rule on the card as it will be saved (a change may move one end, or the operator, only); the
+ * form checks them before sending. Listed in the order the service has always checked them.
+ */
+export const CARD_RULES: readonly CardRule[] = [
+  { field: 'mentorId', holds: mentorIsNotOperator, message: 'The mentor must be someone other than the operator', hint: 'Someone else' },
+  { field: 'endTime', holds: endAfterStart, message: 'The end time must be after the start time', hint: 'Must be after the start time' },
+];
+
+/** The rules a card breaks, in CARD_RULES order; empty when it keeps them all. */
+export const brokenCardRules = (c: CardFacts): CardRule[] => CARD_RULES.filter((r) => !r.holds(c));
+
+/**
+ * The request schemas check only the times: a mentor who is the operator is refused by the
+ * service (422, after the card's references are checked), as it always was, not here (400).
+ */
+const END_RULE = CARD_RULES.find((r) => r.field === 'endTime')!;
+const endAfterStartIssue = { message: END_RULE.message, path: ['endTime'] };
 
 export const boardQuery = z.object({ date: isoDate });
 export const boardDateParam = z.object({ date: isoDate });
@@ -59,7 +82,7 @@ export const assignmentCreateBody = z
     /** Default: the field's acres still to do for this operation this season. */
     acresPlanned: z.number().positive('Acres planned must be more than 0').max(100_000).optional(),
   })
-  .refine(endAfterStart, END_MESSAGE);
+  .refine(END_RULE.holds, endAfterStartIssue);
 export type AssignmentCreate = z.infer<typeof assignmentCreateBody>;
 
 export const assignmentPatchBody = z
@@ -78,7 +101,7 @@ export const assignmentPatchBody = z
     note,
     acresPlanned: z.number().positive('Acres planned must be more than 0').max(100_000).optional(),
   })
-  .refine(endAfterStart, END_MESSAGE)
+  .refine(END_RULE.holds, endAfterStartIssue)
   .refine((v) => Object.keys(v).some((k) => k !== 'version'), 'Nothing to change');
 export type AssignmentPatch = z.infer<typeof assignmentPatchBody>;
 
@@ -93,75 +116,6 @@ export const boardOrderBody = z.object({
 export type BoardOrder = z.infer<typeof boardOrderBody>;
 
 export const publishBody = z.object({ version });
-
-export const eventBody = z
-  .object({
-    type: z.enum(EVENT_TYPES, { message: `Type must be one of: ${EVENT_TYPES.join(', ')}` }),
-    /** On finish: acres done; default the acres planned. */
-    acres: z.number().positive('Acres must be more than 0').max(100_000).optional(),
-    /** Engine-hour meter reading, on start and finish. */
-    engineHours: z.number().min(0, 'Engine hours cannot be negative').max(200_000).optional(),
-    note,
-    reason: z.enum(CALL_OFF_REASONS, { message: 'Reason must be weather, breakdown or other' }).optional(),
-    /** When it happened (ISO 8601), for taps queued on a phone without a signal; default now. */
-    at: z.iso.datetime({ offset: true, message: 'Use a date and time such as 2026-05-01T08:30:00Z' }).optional(),
-  })
-  .refine((v) => v.type !== 'call-off' || v.reason, {
-    message: 'Say why the job is called off: weather, breakdown or other',
-    path: ['reason'],
-  })
-  .refine((v) => v.type !== 'call-off' || v.reason !== 'other' || (v.note && v.note.length > 0), {
-    message: 'Add a note saying why',
-    path: ['note'],
-  });
-export type EventInput = z.infer<typeof eventBody>;
-
-export const logPatchBody = z
-  .object({
-    acresDone: z.number().positive('Acres done must be more than 0').max(100_000).optional(),
-    hoursWorked: z.number().min(0, 'Hours worked cannot be negative').max(48, 'Hours worked is at most 48 h').optional(),
-    engineHoursStart: z.number().min(0).max(200_000).nullable().optional(),
-    engineHoursEnd: z.number().min(0).max(200_000).nullable().optional(),
-  })
-  .refine((v) => Object.keys(v).length > 0, 'Nothing to change');
-export type LogPatch = z.infer<typeof logPatchBody>;
-
-export const problemBody = z
-  .object({
-    kind: z.enum(PROBLEM_KINDS, { message: 'Kind must be breakdown, hazard or other' }),
-    note: z.string().trim().min(1, 'Say what the problem is').max(1000, 'Use at most 1000 characters'),
-    /** A new hazard: a GeoJSON Point, LineString or Polygon (lon/lat). */
-    geometry: z
-      .object({
-        type: z.enum(['Point', 'LineString', 'Polygon'], { message: 'Mark the hazard as a point, a line or an area' }),
-        coordinates: z.unknown(),
-      })
-      .optional(),
-    hazardKind: z.enum(HAZARD_KINDS).optional(),
-    clearanceM: z.number().min(0, 'Clearance cannot be negative').max(500).optional(),
-    /** A breakdown pauses the job unless this is false. */
-    pause: z.boolean().optional(),
-  })
-  .refine((v) => !v.geometry || v.kind === 'hazard', { message: 'Only a hazard report carries a place on the map', path: ['geometry'] });
-export type ProblemInput = z.infer<typeof problemBody>;
-
-export const runSheetQuery = z.object({ date: isoDate, membershipId: dbId.optional() });
-
-export interface PersonRef {
-  membershipId: number;
-  name: string;
-}
-
-/** What was logged when the job was done; all null until it is. */
-export interface AssignmentLog {
-  startedAt: string | null;
-  finishedAt: string | null;
-  acresDone: number | null;
-  hoursWorked: number | null;
-  engineHoursStart: number | null;
-  engineHoursEnd: number | null;
-  callOffReason: (typeof CALL_OFF_REASONS)[number] | null;
-}
 
 export interface BoardAssignment {
   id: number;
@@ -260,45 +214,4 @@ export interface PublishResult {
   /** People whose order had not changed since the last publish. */
   unchanged: PersonRef[];
   board: Board;
-}
-
-export interface AssignmentEvent {
-  id: number;
-  type: LoggedEventType;
-  at: string;
-  by: string | null;
-  acres: number | null;
-  engineHours: number | null;
-  reason: string | null;
-  note: string | null;
-  hazardId: number | null;
-}
-
-export interface PassPlanOnSheet {
-  implementId: number | null;
-  widthM: number;
-  headlandPasses: number;
-  headingDeg: number | null;
-  coverage: 'full' | 'gaps-ok';
-  speedMph: number;
-  efficiency: number;
-  turnSeconds: number;
-  summary: Record<string, unknown>;
-  updatedAt: string;
-}
-
-export interface RunSheetItem extends Omit<BoardAssignment, 'field' | 'machine'> {
-  /** `mentor`: the signed-in person mentors the operator on this job. */
-  role: 'operator' | 'mentor';
-  field: { id: number; name: string; acres: number; boundary: Polygon | MultiPolygon; hazards: FeatureCollection };
-  machine: { id: number; name: string; kind: MachineKind; engineHours: number };
-  passPlan: PassPlanOnSheet | null;
-  cautions: readonly string[];
-  events: AssignmentEvent[];
-}
-
-export interface RunSheet {
-  date: string;
-  person: PersonRef;
-  assignments: RunSheetItem[];
 }

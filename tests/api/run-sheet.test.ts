@@ -1,6 +1,7 @@
 import bcrypt from 'bcryptjs';
 import { OPERATION_INFO } from '../../shared/operations';
-import type { Board, RunSheet, RunSheetItem } from '../../shared/schemas/board';
+import type { Board } from '../../shared/schemas/board';
+import type { RunSheet, RunSheetItem } from '../../shared/schemas/run-sheet';
 import { makeFarm, type TestFarm } from '../support/farm-factory';
 import { rect } from '../support/geo-fixtures';
 import { Client, startTestApp, type TestApp } from '../support/test-app';

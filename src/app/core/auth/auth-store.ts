@@ -3,6 +3,7 @@ import { Injectable, computed, inject, signal } from '@angular/core';
 import { yearIn } from '@shared/calendar';
 import type { Me, Role } from '@shared/schemas/auth';
 import { type Observable, catchError, firstValueFrom, map, of, tap } from 'rxjs';
+import { API } from '../http/api-paths';
 
 /**
  * Who is signed in, for the whole app. The server decides what each role may do; this store only
@@ -40,7 +41,7 @@ export class AuthStore {
    */
   load(): Promise<Me | null> {
     return firstValueFrom(
-      this.http.get<Me>('/api/auth/me').pipe(
+      this.http.get<Me>(API.authMe).pipe(
         tap(() => this.unavailable.set(null)),
         catchError((err: unknown) => {
           const e = err as { status?: number; message?: string };
@@ -53,7 +54,7 @@ export class AuthStore {
   }
 
   login(email: string, password: string): Observable<Me> {
-    return this.http.post<Me>('/api/auth/login', { email, password }).pipe(tap((me) => this.current.set(me)));
+    return this.http.post<Me>(API.authLogin, { email, password }).pipe(tap((me) => this.current.set(me)));
   }
 
   /** Used by pages whose POST signs the person in (accepting an invitation, a password reset). */
@@ -62,7 +63,7 @@ export class AuthStore {
   }
 
   logout(): Observable<void> {
-    return this.http.post<void>('/api/auth/logout', {}).pipe(
+    return this.http.post<void>(API.authLogout, {}).pipe(
       catchError(() => of(undefined)),
       tap(() => this.clear()),
       map(() => undefined),

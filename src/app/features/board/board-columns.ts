@@ -1,6 +1,7 @@
 // How the work board is laid out: one column per person who can run a machine, their cards in
 // running order, and what a drag (or a keyboard move) sends to the order endpoint.
 import type { Board, BoardAssignment, BoardOrder, WorkOrderState } from '@shared/schemas/board';
+import { roundTo } from '@shared/round';
 import type { CrewMember } from '@shared/schemas/fleet';
 
 export interface BoardColumn {
@@ -20,7 +21,6 @@ export interface CardPlace {
 
 export type OrderColumns = BoardOrder['columns'];
 
-const round2 = (n: number) => Math.round(n * 100) / 100;
 const byRunningOrder = (a: BoardAssignment, b: BoardAssignment) => a.order - b.order || a.id - b.id;
 
 /**
@@ -39,7 +39,7 @@ export function boardColumns(board: Board, crew: readonly CrewMember[]): BoardCo
   return [...people].map(([membershipId, name]) => {
     const cards = board.assignments.filter((a) => a.operator.membershipId === membershipId).sort(byRunningOrder);
     const fromServer = board.operators.find((o) => o.membershipId === membershipId)?.plannedHours;
-    const plannedHours = round2(fromServer ?? cards.filter((a) => a.state !== 'called-off').reduce((sum, a) => sum + a.planHours, 0));
+    const plannedHours = roundTo(fromServer ?? cards.filter((a) => a.state !== 'called-off').reduce((sum, a) => sum + a.planHours, 0));
     return {
       membershipId,
       name,

@@ -1,4 +1,5 @@
 import { dayIn } from '@shared/calendar';
+import { roundTo } from '@shared/round';
 
 /** A day as the API writes it (YYYY-MM-DD), in the browser's own calendar, not UTC. */
 export function isoDay(date: Date): string {
@@ -46,4 +47,4 @@ export const clockTime = (iso: string): string => CLOCK.format(new Date(iso));
 export const stampTime = (iso: string): string => STAMP.format(new Date(iso));
 
 /** Hours to one decimal, as "5.4 h". */
-export const hoursText = (hours: number): string => `${(Math.round(hours * 10) / 10).toLocaleString('en-US')} h`;
+export const hoursText = (hours: number): string => `${roundTo(hours, 1).toLocaleString('en-US')} h`;

@@ -3,8 +3,9 @@ import { Injectable, inject } from '@angular/core';
 import type { Operation } from '@shared/operations';
 import type { CrewMember, SkillLevel } from '@shared/schemas/fleet';
 import { type Observable } from 'rxjs';
+import { API } from '../../core/http/api-paths';
 
-export const CREW_URL = '/api/crew';
+export const CREW_URL = API.crew;
 
 export type SkillChoice = SkillLevel | 'none';
 
@@ -14,6 +15,6 @@ export class CrewApi {
   private readonly http = inject(HttpClient);
 
   setSkill(membershipId: number, operation: Operation, level: SkillChoice): Observable<CrewMember> {
-    return this.http.put<CrewMember>(`${CREW_URL}/${membershipId}/skills/${operation}`, { level });
+    return this.http.put<CrewMember>(API.crewSkill(membershipId, operation), { level });
   }
 }

@@ -6,11 +6,12 @@ import type { Geometry, MultiPolygon, Polygon } from 'geojson';
 import { type Observable } from 'rxjs';
 import type { HazardFeature } from '../../shared/map/map-types';
 import type { FarmSettings } from '@shared/schemas/farm';
+import { API } from '../../core/http/api-paths';
 
-export const FIELDS_URL = '/api/fields';
-export const fieldsUrl = (season: number) => `${FIELDS_URL}?season=${season}`;
-export const fieldUrl = (id: number, season: number) => `${FIELDS_URL}/${id}?season=${season}`;
-export const EXPORT_URL = `${FIELDS_URL}/export.geojson`;
+export const FIELDS_URL = API.fields;
+export const fieldsUrl = API.fieldsOfSeason;
+export const fieldUrl = API.fieldOfSeason;
+export const EXPORT_URL = API.fieldsExport;
 
 export type Boundary = Polygon | MultiPolygon;
 
@@ -32,23 +33,23 @@ export class FieldsApi {
   }
 
   update(id: number, patch: { name?: string; boundary?: Boundary; notes?: string | null }): Observable<FieldDetail> {
-    return this.http.patch<FieldDetail>(`${FIELDS_URL}/${id}`, patch);
+    return this.http.patch<FieldDetail>(API.field(id), patch);
   }
 
   remove(id: number): Observable<void> {
-    return this.http.delete<void>(`${FIELDS_URL}/${id}`);
+    return this.http.delete<void>(API.field(id));
   }
 
   addHazard(fieldId: number, body: HazardInput): Observable<HazardFeature> {
-    return this.http.post<HazardFeature>(`${FIELDS_URL}/${fieldId}/hazards`, body);
+    return this.http.post<HazardFeature>(API.hazards(fieldId), body);
   }
 
   updateHazard(fieldId: number, hazardId: number, patch: Partial<HazardInput> & { status?: 'confirmed' }): Observable<HazardFeature> {
-    return this.http.patch<HazardFeature>(`${FIELDS_URL}/${fieldId}/hazards/${hazardId}`, patch);
+    return this.http.patch<HazardFeature>(API.hazard(fieldId, hazardId), patch);
   }
 
   removeHazard(fieldId: number, hazardId: number): Observable<void> {
-    return this.http.delete<void>(`${FIELDS_URL}/${fieldId}/hazards/${hazardId}`);
+    return this.http.delete<void>(API.hazard(fieldId, hazardId));
   }
 
   setCrop(
@@ -56,24 +57,24 @@ export class FieldsApi {
     season: number,
     body: { crop: string; varietyNote?: string | null },
   ): Observable<CropPlan & { fieldId: number }> {
-    return this.http.put<CropPlan & { fieldId: number }>(`${FIELDS_URL}/${fieldId}/crops/${season}`, body);
+    return this.http.put<CropPlan & { fieldId: number }>(API.crop(fieldId, season), body);
   }
 
   clearCrop(fieldId: number, season: number): Observable<void> {
-    return this.http.delete<void>(`${FIELDS_URL}/${fieldId}/crops/${season}`);
+    return this.http.delete<void>(API.crop(fieldId, season));
   }
 
   copyCrops(from: number, to: number): Observable<{ copied: number }> {
-    return this.http.post<{ copied: number }>(`/api/crop-plans/${to}/copy`, { from });
+    return this.http.post<{ copied: number }>(API.cropCopy(to), { from });
   }
 
   setUnits(units: UnitSystem): Observable<FarmSettings> {
-    return this.http.patch<FarmSettings>('/api/farm', { units });
+    return this.http.patch<FarmSettings>(API.farm, { units });
   }
 
   /** Uploads a boundary file for a preview; events carry the upload progress. */
   previewImport(file: File, nameAttribute: string | null): Observable<HttpEvent<ImportPreview>> {
-    return this.http.post<ImportPreview>(`${FIELDS_URL}/import`, formOf(file), {
+    return this.http.post<ImportPreview>(API.fieldsImport, formOf(file), {
       params: { dryRun: 'true', ...(nameAttribute ? { nameAttribute } : {}) },
       reportProgress: true,
       observe: 'events',
@@ -84,7 +85,7 @@ export class FieldsApi {
   saveImport(file: File, nameAttribute: string | null, selection: { index: number; name: string }[]): Observable<HttpEvent<ImportSaved>> {
     const form = formOf(file);
     form.append('selection', JSON.stringify(selection));
-    return this.http.post<ImportSaved>(`${FIELDS_URL}/import`, form, {
+    return this.http.post<ImportSaved>(API.fieldsImport, form, {
       params: nameAttribute ? { nameAttribute } : {},
       reportProgress: true,
       observe: 'events',

@@ -2,9 +2,10 @@ import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import type { Implement, ImplementInput, Machine, MachineInput } from '@shared/schemas/fleet';
 import { type Observable } from 'rxjs';
+import { API } from '../../core/http/api-paths';
 
-export const MACHINES_URL = '/api/fleet/machines';
-export const IMPLEMENTS_URL = '/api/fleet/implements';
+export const MACHINES_URL = API.machines;
+export const IMPLEMENTS_URL = API.implements;
 
 /** Writes to the farm's fleet (owner only on the server). Reads use httpResource on the URLs above. */
 @Injectable({ providedIn: 'root' })
@@ -16,11 +17,11 @@ export class FleetApi {
   }
 
   updateMachine(id: number, patch: Partial<MachineInput>): Observable<Machine> {
-    return this.http.patch<Machine>(`${MACHINES_URL}/${id}`, patch);
+    return this.http.patch<Machine>(API.machine(id), patch);
   }
 
   deleteMachine(id: number): Observable<void> {
-    return this.http.delete<void>(`${MACHINES_URL}/${id}`);
+    return this.http.delete<void>(API.machine(id));
   }
 
   createImplement(body: ImplementInput): Observable<Implement> {
@@ -28,10 +29,10 @@ export class FleetApi {
   }
 
   updateImplement(id: number, patch: Partial<ImplementInput>): Observable<Implement> {
-    return this.http.patch<Implement>(`${IMPLEMENTS_URL}/${id}`, patch);
+    return this.http.patch<Implement>(API.implement(id), patch);
   }
 
   deleteImplement(id: number): Observable<void> {
-    return this.http.delete<void>(`${IMPLEMENTS_URL}/${id}`);
+    return this.http.delete<void>(API.implement(id));
   }
 }

@@ -2,8 +2,9 @@ import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import type { FarmPatch, FarmSettings } from '@shared/schemas/farm';
 import type { Observable } from 'rxjs';
+import { API } from '../../core/http/api-paths';
 
-export const FARM_URL = '/api/farm';
+export const FARM_URL = API.farm;
 
 /** The farm's own settings (changes are the owner's). Reads use httpResource on FARM_URL. */
 @Injectable({ providedIn: 'root' })

@@ -8,12 +8,13 @@ import type { MultiPolygon, Polygon } from 'geojson';
 import { type Observable } from 'rxjs';
 import type { HazardCollection } from '../../shared/map/map-types';
 import type { PlanSettingsBody } from './plan-settings';
+import { API } from '../../core/http/api-paths';
 
-export const FIELDS_URL = '/api/fields';
-export const IMPLEMENTS_URL = '/api/fleet/implements';
-export const fieldUrl = (id: number) => `${FIELDS_URL}/${id}`;
-export const planUrl = (fieldId: number, operation: Operation) => `/api/plans/${fieldId}/${operation}`;
-export const passesUrl = (fieldId: number, operation: Operation) => `${planUrl(fieldId, operation)}/passes.geojson`;
+export const FIELDS_URL = API.fields;
+export const IMPLEMENTS_URL = API.implements;
+export const fieldUrl = API.field;
+export const planUrl = API.plan;
+export const passesUrl = API.planPasses;
 
 /** `GET /api/fields` (the parts this screen reads). */
 export type FieldOption = Pick<FieldSummary, 'id' | 'name' | 'acres'>;

@@ -1,6 +1,8 @@
 // Which buttons a job shows on the run sheet, and what the dialogs start from. The server checks
 // the same transitions (a 409 if the job moved on meanwhile); this only keeps the screen honest.
-import type { AssignmentState, EventType, RunSheetItem } from '@shared/schemas/board';
+import type { AssignmentState, EventType } from '@shared/schemas/jobs';
+import type { RunSheetItem } from '@shared/schemas/run-sheet';
+import { roundTo } from '@shared/round';
 
 export const ACTIONS_BY_STATE: Readonly<Record<AssignmentState, readonly EventType[]>> = {
   planned: ['start', 'call-off'],
@@ -34,11 +36,9 @@ export function actionsFor(item: Pick<RunSheetItem, 'state' | 'role'>): readonly
 /** A problem can be reported while the job is still to do or going. */
 export const canReportProblem = (state: AssignmentState): boolean => state === 'planned' || state === 'underway' || state === 'paused';
 
-const round1 = (n: number) => Math.round(n * 10) / 10;
-
 /** Start: the machine's meter as Furlong last knew it. */
 export function startDefaults(item: Pick<RunSheetItem, 'machine'>): { engineHours: number } {
-  return { engineHours: round1(item.machine.engineHours) };
+  return { engineHours: roundTo(item.machine.engineHours, 1) };
 }
 
 /**
@@ -47,7 +47,7 @@ export function startDefaults(item: Pick<RunSheetItem, 'machine'>): { engineHour
  */
 export function finishDefaults(item: Pick<RunSheetItem, 'acresPlanned' | 'machine' | 'log'>): { acres: number; engineHours: number } {
   return {
-    acres: Math.round(item.acresPlanned * 100) / 100,
-    engineHours: round1(Math.max(item.machine.engineHours, item.log.engineHoursStart ?? 0)),
+    acres: roundTo(item.acresPlanned, 2),
+    engineHours: roundTo(Math.max(item.machine.engineHours, item.log.engineHoursStart ?? 0), 1),
   };
 }

@@ -1,8 +1,9 @@
 import type { SeasonTable as TableName } from '@shared/schemas/season';
+import { API } from '../../core/http/api-paths';
 
-export const SEASON_INDEX_URL = '/api/season';
-export const summaryUrl = (year: number) => `/api/season/${year}/summary`;
-export const csvUrl = (year: number, table: TableName) => `/api/season/${year}/export/${table}.csv`;
+export const SEASON_INDEX_URL = API.seasons;
+export const summaryUrl = API.seasonSummary;
+export const csvUrl = (year: number, table: TableName) => API.seasonCsv(year, table);
 
 /** A year from the address (`?year=2026`), or null when it is not one the API would take. */
 export function yearParam(value: string | null | undefined): number | null {

@@ -1,6 +1,7 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { catchError, firstValueFrom, of } from 'rxjs';
+import { API } from '../../core/http/api-paths';
 
 /** The optional background tile layer, from `GET /api/config`. Null URL: outlines on a plain background. */
 export interface TileConfig {
@@ -17,7 +18,7 @@ export class MapConfig {
   private cached: Promise<TileConfig> | null = null;
 
   tiles(): Promise<TileConfig> {
-    this.cached ??= firstValueFrom(this.http.get<TileConfig>('/api/config').pipe(catchError(() => of(NO_TILES))));
+    this.cached ??= firstValueFrom(this.http.get<TileConfig>(API.config).pipe(catchError(() => of(NO_TILES))));
     return this.cached;
   }
 }

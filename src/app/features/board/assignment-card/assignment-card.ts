@@ -4,7 +4,8 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatMenuModule } from '@angular/material/menu';
 import { OPERATION_INFO } from '@shared/operations';
-import { type BoardAssignment, type Conflict, STATE_LABELS } from '@shared/schemas/board';
+import type { BoardAssignment, Conflict } from '@shared/schemas/board';
+import { STATE_LABELS } from '@shared/schemas/jobs';
 import { AreaPipe } from '../../../shared/units/area-pipe';
 import { hoursText } from '../board-day';
 

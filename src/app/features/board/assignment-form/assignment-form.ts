@@ -7,9 +7,18 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import { OPERATION_INFO, OPERATIONS, type Operation } from '@shared/operations';
-import type { AssignmentCreate, AssignmentPatch, Board, BoardAssignment } from '@shared/schemas/board';
+import { roundTo } from '@shared/round';
+import {
+  CARD_RULES,
+  brokenCardRules,
+  mentorIsNotOperator,
+  type AssignmentCreate,
+  type AssignmentPatch,
+  type Board,
+  type BoardAssignment,
+} from '@shared/schemas/board';
 import { type CrewMember, type Implement, type Machine, SELF_PROPELLED, type SkillLevel } from '@shared/schemas/fleet';
-import { ACRE_M2, HA_M2, acresToHa } from '@shared/units';
+import { acresToHa, haToAcres } from '@shared/units';
 import { type Observable } from 'rxjs';
 import { applyServerErrors } from '../../../shared/forms/server-errors';
 import { AreaPipe } from '../../../shared/units/area-pipe';
@@ -69,7 +78,7 @@ export class AssignmentForm {
   protected readonly areaLabel = this.metric ? 'Hectares planned' : 'Acres planned';
   private readonly shownArea = this.editing
     ? this.metric
-      ? Math.round(acresToHa(this.editing.acresPlanned) * 100) / 100
+      ? roundTo(acresToHa(this.editing.acresPlanned), 2)
       : this.editing.acresPlanned
     : null;
   protected readonly title = this.editing ? `Edit card: ${this.editing.field.name}` : 'New card';
@@ -127,7 +136,8 @@ export class AssignmentForm {
   protected readonly mentorOptions = computed(() => {
     const op = this.operation();
     if (!op) return [];
-    return this.data.crew.filter((c) => c.skills[op] === 'mentor' && c.membershipId !== this.value().operatorId);
+    const operatorId = this.value().operatorId;
+    return this.data.crew.filter((c) => c.skills[op] === 'mentor' && mentorIsNotOperator({ operatorId, mentorId: c.membershipId }));
   });
 
   constructor() {
@@ -152,10 +162,10 @@ export class AssignmentForm {
 
   protected save(): void {
     if (this.busy()) return;
-    const v = this.form.getRawValue();
-    if (v.startTime && v.endTime && v.endTime <= v.startTime) {
-      this.form.controls.endTime.setErrors({ order: true });
-    }
+    // The same rules between a card's fields as the server's (shared/schemas/board.ts); a rule
+    // broken at the last try is looked at afresh, whichever field was changed since.
+    for (const { field } of CARD_RULES) if (this.form.controls[field].hasError('rule')) this.form.controls[field].updateValueAndValidity();
+    for (const rule of brokenCardRules(this.form.getRawValue())) this.form.controls[rule.field].setErrors({ rule: rule.message });
     if (this.form.invalid) {
       this.form.markAllAsTouched();
       return;
@@ -190,7 +200,7 @@ export class AssignmentForm {
 
   private toAcres(area: number): number {
     if (this.editing && area === this.shownArea) return this.editing.acresPlanned;
-    return this.metric ? Math.round(((area * HA_M2) / ACRE_M2) * 10_000) / 10_000 : area;
+    return this.metric ? roundTo(haToAcres(area), 4) : area;
   }
 
   private request(version: number): Observable<Board> | null {

@@ -19,7 +19,7 @@ import { messageOf } from '../../../core/http/api-error';
 import { ConfirmDialog, type ConfirmDialogData } from '../../../shared/ui/confirm-dialog/confirm-dialog';
 import { AssignmentCard, type MoveTarget } from '../assignment-card/assignment-card';
 import { AssignmentForm, type AssignmentFormData } from '../assignment-form/assignment-form';
-import { BoardApi, CREW_URL, FIELDS_URL, IMPLEMENTS_URL, MACHINES_URL, boardUrl } from '../board-api';
+import { BoardApi } from '../board-api';
 import {
   type BoardColumn,
   type CardPlace,
@@ -32,6 +32,7 @@ import {
 import { addDays, dateOf, hoursText, isIsoDay, isoDay, longDay, stampTime, tomorrow } from '../board-day';
 import { describeChanges, staleBoardOf } from '../stale-board';
 import { AuthStore } from '../../../core/auth/auth-store';
+import { API } from '../../../core/http/api-paths';
 
 /** A save the server refused because the board had moved on; `retry` re-applies it on the board now. */
 interface StaleNotice {
@@ -79,11 +80,11 @@ export class BoardPage {
   protected readonly dayDate = computed(() => dateOf(this.day()));
   protected readonly dayLabel = computed(() => longDay(this.day()));
 
-  protected readonly board = httpResource<Board>(() => boardUrl(this.day()));
-  private readonly crew = httpResource<CrewMember[]>(() => CREW_URL, { defaultValue: [] });
-  private readonly machines = httpResource<Machine[]>(() => MACHINES_URL, { defaultValue: [] });
-  private readonly implementList = httpResource<Implement[]>(() => IMPLEMENTS_URL, { defaultValue: [] });
-  private readonly fields = httpResource<FieldSummary[]>(() => FIELDS_URL, { defaultValue: [] });
+  protected readonly board = httpResource<Board>(() => API.board(this.day()));
+  private readonly crew = httpResource<CrewMember[]>(() => API.crew, { defaultValue: [] });
+  private readonly machines = httpResource<Machine[]>(() => API.machines, { defaultValue: [] });
+  private readonly implementList = httpResource<Implement[]>(() => API.implements, { defaultValue: [] });
+  private readonly fields = httpResource<FieldSummary[]>(() => API.fields, { defaultValue: [] });
 
   protected readonly current = computed(() => (this.board.hasValue() ? this.board.value() : null));
   protected readonly columns = computed(() => {

@@ -1,5 +1,6 @@
 // Boards, crews and run-sheet jobs for the board and run-sheet specs (never imported by the app).
-import type { Board, BoardAssignment, RunSheetItem } from '@shared/schemas/board';
+import type { Board, BoardAssignment } from '@shared/schemas/board';
+import type { RunSheetItem } from '@shared/schemas/run-sheet';
 import type { CrewMember, Implement, Machine } from '@shared/schemas/fleet';
 
 export const TOMAS = { membershipId: 12, name: 'Tomas Reyes' };

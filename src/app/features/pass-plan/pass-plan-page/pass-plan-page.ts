@@ -45,6 +45,7 @@ import {
   toPlanInput,
 } from '../plan-settings';
 import { PlanSummary } from '../plan-summary/plan-summary';
+import { API } from '../../../core/http/api-paths';
 
 const positiveId = (v: string | undefined): number | null => {
   const n = Number(v);
@@ -124,7 +125,7 @@ export class PassPlanPage {
   });
   private readonly savedList = httpResource<SavedPlan[]>(() => {
     const id = this.fieldId();
-    return id ? `/api/plans?fieldId=${id}` : undefined;
+    return id ? API.plansOfField(id) : undefined;
   });
   protected readonly savedOps = computed(() => new Set((this.savedList.hasValue() ? this.savedList.value() : []).map((p) => p.operation)));
   protected readonly savedRes = httpResource<SavedPlanWithResult>(() => {

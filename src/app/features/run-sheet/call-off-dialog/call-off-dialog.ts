@@ -5,7 +5,8 @@ import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/materia
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatRadioModule } from '@angular/material/radio';
-import { CALL_OFF_REASONS, type RunSheetItem } from '@shared/schemas/board';
+import { CALL_OFF_REASONS } from '@shared/schemas/jobs';
+import type { RunSheetItem } from '@shared/schemas/run-sheet';
 import { RunSheetApi } from '../run-sheet-api';
 import { sendFailure } from '../send-failure';
 import type { JobDialogData } from '../start-dialog/start-dialog';

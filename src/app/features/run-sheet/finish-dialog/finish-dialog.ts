@@ -4,16 +4,15 @@ import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
-import type { RunSheetItem } from '@shared/schemas/board';
-import { ACRE_M2, HA_M2, acresToHa } from '@shared/units';
+import type { RunSheetItem } from '@shared/schemas/run-sheet';
+import { roundTo } from '@shared/round';
+import { acresToHa, haToAcres } from '@shared/units';
 import { Units } from '../../../shared/units/units';
 import { finishDefaults } from '../job-actions';
 import { RunSheetApi } from '../run-sheet-api';
 import { sendFailure } from '../send-failure';
 import type { JobDialogData } from '../start-dialog/start-dialog';
 import { FormSubmission } from '../../../shared/forms/form-submission';
-
-const round2 = (n: number) => Math.round(n * 100) / 100;
 
 /** Finish a job: area done (acres, or hectares on a metric farm) and the engine-hour meter at the end. */
 @Component({
@@ -36,7 +35,7 @@ export class FinishDialog {
 
   private readonly defaults = finishDefaults(this.data.item);
   protected readonly form = new FormGroup({
-    acres: new FormControl<number | null>(this.metric() ? round2(acresToHa(this.defaults.acres)) : this.defaults.acres, [
+    acres: new FormControl<number | null>(this.metric() ? roundTo(acresToHa(this.defaults.acres), 2) : this.defaults.acres, [
       Validators.required,
       Validators.min(0.01),
       Validators.max(100_000),
@@ -55,7 +54,7 @@ export class FinishDialog {
   protected submit(): void {
     if (!this.submission.ready()) return;
     const v = this.form.getRawValue();
-    const acres = this.metric() ? round2((v.acres! * HA_M2) / ACRE_M2) : v.acres!;
+    const acres = this.metric() ? roundTo(haToAcres(v.acres!), 2) : v.acres!;
     this.submission.send(
       this.api.event(this.data.item.id, {
         type: 'finish',

@@ -11,14 +11,15 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { Router } from '@angular/router';
 import { OPERATION_INFO } from '@shared/operations';
-import { type RunSheet, type RunSheetItem, STATE_LABELS } from '@shared/schemas/board';
+import { STATE_LABELS } from '@shared/schemas/jobs';
+import type { RunSheet, RunSheetItem } from '@shared/schemas/run-sheet';
 import type { CrewMember } from '@shared/schemas/fleet';
 import { messageOf } from '../../../core/http/api-error';
 import { addDays, dateOf, isIsoDay, isoDay, longDay, today } from '../../board/board-day';
 import { RunSheetJob } from '../run-sheet-job/run-sheet-job';
 import { runSheetUrl } from '../run-sheet-api';
-import { CREW_URL } from '../../crew/crew-api';
 import { AuthStore } from '../../../core/auth/auth-store';
+import { API } from '../../../core/http/api-paths';
 
 const OPEN_FIRST: RunSheetItem['state'][] = ['underway', 'paused', 'planned'];
 
@@ -79,7 +80,7 @@ export class RunSheetPage {
     return this.auth.isOwner() && Number.isInteger(id) && id > 0 && id !== this.auth.me()?.membershipId ? id : null;
   });
   protected readonly sheet = httpResource<RunSheet>(() => runSheetUrl(this.day(), this.personId()));
-  private readonly crew = httpResource<CrewMember[]>(() => (this.auth.isOwner() ? CREW_URL : undefined), { defaultValue: [] });
+  private readonly crew = httpResource<CrewMember[]>(() => (this.auth.isOwner() ? API.crew : undefined), { defaultValue: [] });
   /** The people the owner may open a run sheet for: everyone who can be given field work. */
   protected readonly people = computed(() =>
     this.crew.hasValue()

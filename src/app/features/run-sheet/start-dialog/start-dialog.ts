@@ -4,7 +4,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
-import type { RunSheetItem } from '@shared/schemas/board';
+import type { RunSheetItem } from '@shared/schemas/run-sheet';
 import { startDefaults } from '../job-actions';
 import { RunSheetApi } from '../run-sheet-api';
 import { sendFailure } from '../send-failure';

@@ -1,4 +1,4 @@
-import { STATE_LABELS, type AssignmentState, type EventType } from '../../shared/schemas/board';
+import { STATE_LABELS, type AssignmentState, type EventType } from '../../shared/schemas/jobs';
 
 const NEXT: Record<EventType, { from: readonly AssignmentState[]; to: AssignmentState; hint: string }> = {
   start: { from: ['planned'], to: 'underway', hint: 'Only a planned job can be started.' },

@@ -1,6 +1,7 @@
-import type { AssignmentEvent } from '../../shared/schemas/board';
-import type { DbAssignmentEventRow } from '../board/board.rows';
+// A job's log: the events its operator and the owner recorded.
+import type { AssignmentEvent } from '../../shared/schemas/jobs';
 import type { Tx } from '../db/knex';
+import type { DbAssignmentEventRow } from './jobs.rows';
 
 export async function insertEvent(db: Tx, e: Omit<DbAssignmentEventRow, 'id' | 'at'> & { at?: Date }): Promise<number> {
   const [row] = await db('assignment_events')

@@ -1,7 +1,9 @@
+// A job's row and what the board, the run sheet and the acres checks read of jobs.
 import type { Knex } from 'knex';
 import type { Operation } from '../../shared/operations';
 import type { Tx } from '../db/knex';
-import type { AssignmentView, DbAssignmentRow, DbPassPlanRow } from './board.rows';
+import type { AssignmentView, DbAssignmentRow } from './jobs.rows';
+import { DONE_STATE, seasonDays } from './progress';
 
 export type AssignmentColumns = Partial<Omit<DbAssignmentRow, 'id' | 'farm_id' | 'created_at' | 'updated_at'>>;
 
@@ -42,7 +44,7 @@ export function assignmentViews(db: Tx, farmId: number, filter: (q: Knex.QueryBu
   return q;
 }
 
-export const viewsOfDay = (db: Tx, farmId: number, day: string) => assignmentViews(db, farmId, (q) => q.where('a.day', day));
+export const viewsOfDay = (db: Tx, farmId: number, day: string) => assignmentViews(db, farmId, (q) => void q.where('a.day', day));
 
 export const getAssignment = (db: Tx, farmId: number, id: number) =>
   db<DbAssignmentRow>('assignments').where({ farm_id: farmId, id }).first();
@@ -90,40 +92,15 @@ export async function acresDone(
   fieldIds: number[],
 ): Promise<Array<{ field_id: number; operation: Operation; acres: number }>> {
   if (!fieldIds.length) return [];
+  const { from, to } = seasonDays(season);
   return db('assignments')
-    .where({ farm_id: farmId, state: 'finished' })
+    .where({ farm_id: farmId, state: DONE_STATE })
     .whereIn('field_id', fieldIds)
-    .andWhere('day', '>=', `${season}-01-01`)
-    .andWhere('day', '<', `${season + 1}-01-01`)
+    .andWhere('day', '>=', from)
+    .andWhere('day', '<', to)
     .groupBy('field_id', 'operation')
     .select('field_id', 'operation', db.raw('coalesce(sum(acres_done), 0)::float as acres'));
 }
-
-export const passPlansOf = (db: Tx, farmId: number, fieldIds: number[]): Promise<DbPassPlanRow[]> =>
-  fieldIds.length ? db<DbPassPlanRow>('pass_plans').where({ farm_id: farmId }).whereIn('field_id', fieldIds) : Promise.resolve([]);
-
-export interface PersonRow {
-  membership_id: number;
-  name: string;
-  email: string;
-  role: 'owner' | 'operator' | 'viewer';
-  status: 'invited' | 'active' | 'removed';
-}
-
-export const peopleOfFarm = (db: Tx, farmId: number): Promise<PersonRow[]> =>
-  db('memberships as m')
-    .join('users as u', 'u.id', 'm.user_id')
-    .where('m.farm_id', farmId)
-    .orderBy('u.name')
-    .select('m.id as membership_id', 'u.name', 'u.email', 'm.role', 'm.status');
-
-/** A member who may be given field work: active, owner or operator. */
-export const assignablePerson = (db: Tx, farmId: number, membershipId: number): Promise<PersonRow | undefined> =>
-  db('memberships as m')
-    .join('users as u', 'u.id', 'm.user_id')
-    .where({ 'm.farm_id': farmId, 'm.id': membershipId, 'm.status': 'active' })
-    .whereIn('m.role', ['owner', 'operator'])
-    .first('m.id as membership_id', 'u.name', 'u.email', 'm.role', 'm.status');
 
 /** Acres of a field finished for an operation in a season, leaving out one job if given. */
 export async function acresDoneOn(
@@ -134,10 +111,11 @@ export async function acresDoneOn(
   season: number,
   exceptId?: number,
 ): Promise<number> {
+  const { from, to } = seasonDays(season);
   const q = db('assignments')
-    .where({ farm_id: farmId, field_id: fieldId, operation, state: 'finished' })
-    .andWhere('day', '>=', `${season}-01-01`)
-    .andWhere('day', '<', `${season + 1}-01-01`);
+    .where({ farm_id: farmId, field_id: fieldId, operation, state: DONE_STATE })
+    .andWhere('day', '>=', from)
+    .andWhere('day', '<', to);
   if (exceptId) q.whereNot('id', exceptId);
   const [row] = await q.select(db.raw('coalesce(sum(acres_done), 0)::float as acres'));
   return row.acres;

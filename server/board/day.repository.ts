@@ -1,0 +1,35 @@
+// What a board day reads besides its jobs: the saved pass plans and hazards of its fields, and the
+// farm's people (who may be given field work).
+import type { Tx } from '../db/knex';
+import type { DbHazardRow } from '../fields/fields.repository';
+import type { DbPassPlanRow } from './board.rows';
+
+export const passPlansOf = (db: Tx, farmId: number, fieldIds: number[]): Promise<DbPassPlanRow[]> =>
+  fieldIds.length ? db<DbPassPlanRow>('pass_plans').where({ farm_id: farmId }).whereIn('field_id', fieldIds) : Promise.resolve([]);
+
+export interface PersonRow {
+  membership_id: number;
+  name: string;
+  email: string;
+  role: 'owner' | 'operator' | 'viewer';
+  status: 'invited' | 'active' | 'removed';
+}
+
+export const peopleOfFarm = (db: Tx, farmId: number): Promise<PersonRow[]> =>
+  db('memberships as m')
+    .join('users as u', 'u.id', 'm.user_id')
+    .where('m.farm_id', farmId)
+    .orderBy('u.name')
+    .select('m.id as membership_id', 'u.name', 'u.email', 'm.role', 'm.status');
+
+/** A member who may be given field work: active, owner or operator. */
+export const assignablePerson = (db: Tx, farmId: number, membershipId: number): Promise<PersonRow | undefined> =>
+  db('memberships as m')
+    .join('users as u', 'u.id', 'm.user_id')
+    .where({ 'm.farm_id': farmId, 'm.id': membershipId, 'm.status': 'active' })
+    .whereIn('m.role', ['owner', 'operator'])
+    .first('m.id as membership_id', 'u.name', 'u.email', 'm.role', 'm.status');
+
+/** The hazards of the given fields, in the order they were marked. */
+export const hazardsOfFields = (db: Tx, farmId: number, fieldIds: number[]): Promise<DbHazardRow[]> =>
+  fieldIds.length ? db<DbHazardRow>('hazards').where({ farm_id: farmId }).whereIn('field_id', fieldIds).orderBy('id') : Promise.resolve([]);

@@ -1,0 +1,52 @@
+// A job (an assignment of the work board): its states, its log and what the log may hold. The
+// work board, the run sheet and the season report all speak of jobs in these terms.
+import { z } from 'zod';
+
+export const ASSIGNMENT_STATES = ['planned', 'underway', 'paused', 'finished', 'called-off'] as const;
+export type AssignmentState = (typeof ASSIGNMENT_STATES)[number];
+export const STATE_LABELS: Record<AssignmentState, string> = {
+  planned: 'planned',
+  underway: 'underway',
+  paused: 'paused',
+  finished: 'finished',
+  'called-off': 'called off',
+};
+
+export const EVENT_TYPES = ['start', 'pause', 'resume', 'finish', 'call-off'] as const;
+export type EventType = (typeof EVENT_TYPES)[number];
+/** What the log may also hold besides the operator's buttons. */
+export type LoggedEventType = EventType | 'problem' | 'log-edited' | 'log-deleted';
+
+export const CALL_OFF_REASONS = ['weather', 'breakdown', 'other'] as const;
+export const PROBLEM_KINDS = ['breakdown', 'hazard', 'other'] as const;
+
+/** A note on a job or a logged entry. */
+export const jobNote = z.string().trim().max(1000, 'Use at most 1000 characters').nullable().optional();
+
+export interface PersonRef {
+  membershipId: number;
+  name: string;
+}
+
+/** What was logged when the job was done; all null until it is. */
+export interface AssignmentLog {
+  startedAt: string | null;
+  finishedAt: string | null;
+  acresDone: number | null;
+  hoursWorked: number | null;
+  engineHoursStart: number | null;
+  engineHoursEnd: number | null;
+  callOffReason: (typeof CALL_OFF_REASONS)[number] | null;
+}
+
+export interface AssignmentEvent {
+  id: number;
+  type: LoggedEventType;
+  at: string;
+  by: string | null;
+  acres: number | null;
+  engineHours: number | null;
+  reason: string | null;
+  note: string | null;
+  hazardId: number | null;
+}

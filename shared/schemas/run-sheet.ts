@@ -1,0 +1,90 @@
+// The run sheet: an operator's day, and what they (or the owner) log on a job.
+import type { FeatureCollection, MultiPolygon, Polygon } from 'geojson';
+import { z } from 'zod';
+import type { BoardAssignment } from './board';
+import { dbId, isoDate } from './common';
+import { HAZARD_KINDS } from './fields';
+import type { MachineKind } from './fleet';
+import { CALL_OFF_REASONS, EVENT_TYPES, PROBLEM_KINDS, jobNote as note, type AssignmentEvent, type PersonRef } from './jobs';
+
+export const eventBody = z
+  .object({
+    type: z.enum(EVENT_TYPES, { message: `Type must be one of: ${EVENT_TYPES.join(', ')}` }),
+    /** On finish: acres done; default the acres planned. */
+    acres: z.number().positive('Acres must be more than 0').max(100_000).optional(),
+    /** Engine-hour meter reading, on start and finish. */
+    engineHours: z.number().min(0, 'Engine hours cannot be negative').max(200_000).optional(),
+    note,
+    reason: z.enum(CALL_OFF_REASONS, { message: 'Reason must be weather, breakdown or other' }).optional(),
+    /** When it happened (ISO 8601), for taps queued on a phone without a signal; default now. */
+    at: z.iso.datetime({ offset: true, message: 'Use a date and time such as 2026-05-01T08:30:00Z' }).optional(),
+  })
+  .refine((v) => v.type !== 'call-off' || v.reason, {
+    message: 'Say why the job is called off: weather, breakdown or other',
+    path: ['reason'],
+  })
+  .refine((v) => v.type !== 'call-off' || v.reason !== 'other' || (v.note && v.note.length > 0), {
+    message: 'Add a note saying why',
+    path: ['note'],
+  });
+export type EventInput = z.infer<typeof eventBody>;
+
+export const logPatchBody = z
+  .object({
+    acresDone: z.number().positive('Acres done must be more than 0').max(100_000).optional(),
+    hoursWorked: z.number().min(0, 'Hours worked cannot be negative').max(48, 'Hours worked is at most 48 h').optional(),
+    engineHoursStart: z.number().min(0).max(200_000).nullable().optional(),
+    engineHoursEnd: z.number().min(0).max(200_000).nullable().optional(),
+  })
+  .refine((v) => Object.keys(v).length > 0, 'Nothing to change');
+export type LogPatch = z.infer<typeof logPatchBody>;
+
+export const problemBody = z
+  .object({
+    kind: z.enum(PROBLEM_KINDS, { message: 'Kind must be breakdown, hazard or other' }),
+    note: z.string().trim().min(1, 'Say what the problem is').max(1000, 'Use at most 1000 characters'),
+    /** A new hazard: a GeoJSON Point, LineString or Polygon (lon/lat). */
+    geometry: z
+      .object({
+        type: z.enum(['Point', 'LineString', 'Polygon'], { message: 'Mark the hazard as a point, a line or an area' }),
+        coordinates: z.unknown(),
+      })
+      .optional(),
+    hazardKind: z.enum(HAZARD_KINDS).optional(),
+    clearanceM: z.number().min(0, 'Clearance cannot be negative').max(500).optional(),
+    /** A breakdown pauses the job unless this is false. */
+    pause: z.boolean().optional(),
+  })
+  .refine((v) => !v.geometry || v.kind === 'hazard', { message: 'Only a hazard report carries a place on the map', path: ['geometry'] });
+export type ProblemInput = z.infer<typeof problemBody>;
+
+export const runSheetQuery = z.object({ date: isoDate, membershipId: dbId.optional() });
+
+export interface PassPlanOnSheet {
+  implementId: number | null;
+  widthM: number;
+  headlandPasses: number;
+  headingDeg: number | null;
+  coverage: 'full' | 'gaps-ok';
+  speedMph: number;
+  efficiency: number;
+  turnSeconds: number;
+  summary: Record<string, unknown>;
+  updatedAt: string;
+}
+
+export interface RunSheetItem extends Omit<BoardAssignment, 'field' | 'machine'> {
+  /** `mentor`: the signed-in person mentors the operator on this job. */
+  role: 'operator' | 'mentor';
+  field: { id: number; name: string; acres: number; boundary: Polygon | MultiPolygon; hazards: FeatureCollection };
+  machine: { id: number; name: string; kind: MachineKind; engineHours: number };
+  passPlan: PassPlanOnSheet | null;
+  cautions: readonly string[];
+  events: AssignmentEvent[];
+}
+
+export interface RunSheet {
+  date: string;
+  person: PersonRef;
+  assignments: RunSheetItem[];
+}

@@ -1,0 +1,66 @@
+import type { Operation } from '@shared/operations';
+import type { SeasonTable } from '@shared/schemas/season';
+
+/**
+ * Every path of the API the app calls, in one place: a screen asks `API` for a path instead of
+ * writing it out, so a path that moves on the server moves here once. Values that go into a path
+ * are ids, dates (YYYY-MM-DD), years and names from fixed lists; the one free-text part, an
+ * e-mailed token, is encoded.
+ */
+export const API = {
+  config: '/api/config',
+
+  authMe: '/api/auth/me',
+  authLogin: '/api/auth/login',
+  authLogout: '/api/auth/logout',
+  authForgot: '/api/auth/forgot',
+  authSetPassword: '/api/auth/set-password',
+  authToken: (token: string) => `/api/auth/token/${encodeURIComponent(token)}`,
+
+  farm: '/api/farm',
+  members: '/api/members',
+  memberInvite: '/api/members/invite',
+  member: (id: number) => `/api/members/${id}`,
+  backgroundFailed: '/api/background/failed',
+  backgroundRetry: (id: string) => `/api/background/failed/${encodeURIComponent(id)}/retry`,
+
+  crew: '/api/crew',
+  crewSkill: (membershipId: number, operation: Operation) => `/api/crew/${membershipId}/skills/${operation}`,
+
+  machines: '/api/fleet/machines',
+  machine: (id: number) => `/api/fleet/machines/${id}`,
+  implements: '/api/fleet/implements',
+  implement: (id: number) => `/api/fleet/implements/${id}`,
+
+  fields: '/api/fields',
+  /** The fields with their crops of one season. */
+  fieldsOfSeason: (season: number) => `/api/fields?season=${season}`,
+  field: (id: number) => `/api/fields/${id}`,
+  fieldOfSeason: (id: number, season: number) => `/api/fields/${id}?season=${season}`,
+  fieldsExport: '/api/fields/export.geojson',
+  fieldsImport: '/api/fields/import',
+  hazards: (fieldId: number) => `/api/fields/${fieldId}/hazards`,
+  hazard: (fieldId: number, hazardId: number) => `/api/fields/${fieldId}/hazards/${hazardId}`,
+  crop: (fieldId: number, season: number) => `/api/fields/${fieldId}/crops/${season}`,
+  cropCopy: (toSeason: number) => `/api/crop-plans/${toSeason}/copy`,
+
+  plansOfField: (fieldId: number) => `/api/plans?fieldId=${fieldId}`,
+  plan: (fieldId: number, operation: Operation) => `/api/plans/${fieldId}/${operation}`,
+  planPasses: (fieldId: number, operation: Operation) => `/api/plans/${fieldId}/${operation}/passes.geojson`,
+
+  board: (date: string) => `/api/board?date=${date}`,
+  boardOrder: (date: string) => `/api/board/${date}/order`,
+  boardPublish: (date: string) => `/api/board/${date}/publish`,
+  assignments: '/api/assignments',
+  assignment: (id: number) => `/api/assignments/${id}`,
+  assignmentEvents: (id: number) => `/api/assignments/${id}/events`,
+  assignmentProblems: (id: number) => `/api/assignments/${id}/problems`,
+
+  /** A day's run sheet: the signed-in person's, or (for the owner) another member's. */
+  runSheet: (date: string, membershipId: number | null = null) =>
+    `/api/run-sheet?date=${date}${membershipId === null ? '' : `&membershipId=${membershipId}`}`,
+
+  seasons: '/api/season',
+  seasonSummary: (year: number) => `/api/season/${year}/summary`,
+  seasonCsv: (year: number, table: SeasonTable) => `/api/season/${year}/export/${table}.csv`,
+} as const;
