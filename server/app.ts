@@ -5,6 +5,7 @@ import express, { type Express } from 'express';
 import session from 'express-session';
 import type { AppDeps } from './app-deps';
 import { authRoutes } from './auth/auth.routes';
+import { backgroundRoutes } from './background/background.routes';
 import { sharedComputePool, type ComputePool } from './compute/pool';
 import { createPassport, restorePrincipal } from './auth/passport';
 import { healthRoutes } from './health/health.routes';
@@ -25,6 +26,7 @@ import { fleetRoutes } from './fleet/fleet.routes';
 import { jobLogRoutes, runSheetRoutes } from './run-sheet/run-sheet.routes';
 import { seasonRoutes } from './season/season.routes';
 import { openapiRoutes } from './openapi/openapi.routes';
+import { projectRoot } from './paths';
 
 export interface CreateAppOptions extends Omit<AppDeps, 'compute'> {
   /** Defaults to the process's shared compute pool. */
@@ -76,6 +78,7 @@ export function createApp(options: CreateAppOptions): Express {
   mount('', (r) => healthRoutes(r, deps));
   mount('/auth', (r) => authRoutes(r, deps, passport));
   mount('/members', (r) => memberRoutes(r, deps));
+  mount('/background', (r) => backgroundRoutes(r, deps));
   mount('/farm', (r) => farmRoutes(r, deps));
   mount('/fields', (r) => fieldRoutes(r, deps));
   mount('/crop-plans', (r) => cropPlanRoutes(r, deps));
@@ -91,7 +94,7 @@ export function createApp(options: CreateAppOptions): Express {
   api.use(apiNotFound);
   app.use('/api', api);
 
-  serveApp(app, deps.staticDir ?? path.resolve(__dirname, '..', 'dist', 'furlong', 'browser'));
+  serveApp(app, deps.staticDir ?? path.join(projectRoot, 'dist', 'furlong', 'browser'));
   app.use(errorHandler(deps.log));
   return app;
 }

@@ -1,4 +1,5 @@
-import type { Db, Tx } from '../db/knex';
+import { enqueue } from '../background/queue';
+import type { Tx } from '../db/knex';
 import type { DbMailRow } from '../db/rows';
 
 export interface OutgoingMail {
@@ -11,6 +12,11 @@ export interface OutgoingMail {
   html?: string | null;
 }
 
+/**
+ * Writes the message to the outbox and its send job to the `mail` queue, both inside `db` (the
+ * caller's transaction): the mail exists, and will be sent, exactly when the change that causes
+ * it commits.
+ */
 export async function enqueueMail(db: Tx, mail: OutgoingMail): Promise<number> {
   const [row] = await db<DbMailRow>('mail_outbox')
     .insert({
@@ -23,44 +29,26 @@ export async function enqueueMail(db: Tx, mail: OutgoingMail): Promise<number> {
       html_body: mail.html ?? null,
     })
     .returning('id');
+  await enqueue(db, 'mail', { mailId: row.id, farmId: mail.farmId, kind: mail.kind });
   return row.id;
 }
 
-/**
- * Claims the next due message after `afterId` for one send, in one statement (its own short
- * transaction): the attempt is counted and `next_attempt_at` moves `leaseMs` ahead, which is the
- * lease: no other run takes the message while it is being sent, and no lock is held meanwhile.
- * If the sender dies mid-send, the message is due again when the lease runs out.
- */
-export async function claimNext(db: Db, afterId: number, leaseMs: number): Promise<DbMailRow | undefined> {
-  const next = db('mail_outbox')
-    .select('id')
-    .where('status', 'queued')
-    .andWhere('next_attempt_at', '<=', db.fn.now())
-    .andWhere('id', '>', afterId)
-    .orderBy('id')
-    .limit(1)
-    .forUpdate()
-    .skipLocked();
-  const [row] = await db<DbMailRow>('mail_outbox')
-    .where('id', next)
-    .update({ attempts: db.raw('attempts + 1'), next_attempt_at: db.raw('now() + make_interval(secs => ?)', [leaseMs / 1000]) })
-    .returning('*');
-  return row;
-}
+export const mailById = (db: Tx, id: number): Promise<DbMailRow | undefined> => db<DbMailRow>('mail_outbox').where({ id }).first();
 
 /** The mail server took the message. */
-export async function markSent(db: Db, id: number): Promise<void> {
-  await db('mail_outbox').where({ id, status: 'queued' }).update({ status: 'sent', sent_at: db.fn.now(), last_error: null });
+export async function markSent(db: Tx, id: number, attempts: number): Promise<void> {
+  await db('mail_outbox').where({ id }).update({ status: 'sent', sent_at: db.fn.now(), last_error: null, attempts });
 }
 
-/** The attempt failed: try again after `delayMs`, or give up (`failed`, shown on the board). */
-export async function markRetry(db: Db, id: number, error: string, giveUp: boolean, delayMs: number): Promise<void> {
+/** An attempt failed: the message waits for its retry (`queued`) or was given up (`failed`, shown on the board). */
+export async function markAttempt(db: Tx, id: number, attempts: number, error: string, gaveUp: boolean): Promise<void> {
   await db('mail_outbox')
-    .where({ id, status: 'queued' })
-    .update({
-      status: giveUp ? 'failed' : 'queued',
-      last_error: error.slice(0, 1000),
-      next_attempt_at: db.raw('now() + make_interval(secs => ?)', [delayMs / 1000]),
-    });
+    .where({ id })
+    .whereNot({ status: 'sent' })
+    .update({ status: gaveUp ? 'failed' : 'queued', attempts, last_error: error.slice(0, 1000) });
+}
+
+/** The owner asked for another try of a message that was given up. */
+export async function requeue(db: Tx, id: number): Promise<void> {
+  await db('mail_outbox').where({ id, status: 'failed' }).update({ status: 'queued' });
 }

@@ -10,12 +10,9 @@ import {
   boardDateParam,
   boardOrderBody,
   boardQuery,
-  eventBody,
-  logPatchBody,
-  problemBody,
   publishBody,
-  runSheetQuery,
 } from '../../shared/schemas/board';
+import { failedJobList, jobIdParam } from '../../shared/schemas/background';
 import { idParam } from '../../shared/schemas/common';
 import { farmPatchBody } from '../../shared/schemas/farm';
 import {
@@ -37,6 +34,7 @@ import {
 } from '../../shared/schemas/fields';
 import { implementBody, implementPatchBody, machineBody, machinePatchBody, skillBody, skillParams } from '../../shared/schemas/fleet';
 import { planListQuery, planParams, planPreviewBody, planSettings } from '../../shared/schemas/plans';
+import { eventBody, logPatchBody, problemBody, runSheetQuery } from '../../shared/schemas/run-sheet';
 import { seasonExportParams, seasonIndex, seasonParams, seasonSummary } from '../../shared/schemas/season';
 
 export interface ResponseContract {
@@ -127,6 +125,15 @@ export const CONTRACT: Record<string, RouteContract> = {
     responses: [json('The member with the new role.', 'Member')],
   },
   'DELETE /api/members/:id': { summary: 'Removes a person from the farm.', params: idParam, responses: [noContent('Removed.')] },
+  'GET /api/background/failed': {
+    summary: "Lists the farm's background jobs (e-mails) that failed for good, newest first.",
+    responses: [json('The failed jobs.', failedJobList)],
+  },
+  'POST /api/background/failed/:id/retry': {
+    summary: 'Tries a failed background job again.',
+    params: jobIdParam,
+    responses: [noContent('Back in its queue.')],
+  },
   'GET /api/farm': {
     summary: "Gives the farm's settings: name, units, a day's hour limit and time zone.",
     responses: [json('The settings.', 'FarmSettings')],

@@ -5,7 +5,8 @@ import express from 'express';
 import request from 'supertest';
 import { errorHandler } from '../../server/http/errors';
 import { requestLogger } from '../../server/logging/request-log';
-import { OutboxWorker } from '../../server/mail/outbox-worker';
+import { MailWorker } from '../../server/mail/mail-worker';
+import { enqueueMail } from '../../server/mail/outbox.repository';
 import { createLogger } from '../../server/logging/logger';
 import { createTransport } from '../../server/mail/transport';
 import { makeFarm, type TestFarm } from '../support/farm-factory';
@@ -171,17 +172,15 @@ describe('mail worker log lines', () => {
   afterAll(() => t.close());
 
   async function queueMail(to: string): Promise<number> {
-    const [row] = await t
-      .db('mail_outbox')
-      .insert({ kind: 'invite', to_address: to, subject: 'Join the farm', text_body: 'BODY-SECRET-5521' })
-      .returning('id');
-    return row.id as number;
+    return t.db.transaction((tx) =>
+      enqueueMail(tx, { farmId: null, kind: 'invite', to, subject: 'Join the farm', text: 'BODY-SECRET-5521' }),
+    );
   }
 
   it('when a message is sent, then one line says sent with its id, kind and attempt, and not its address or body', async () => {
     const log = captureLines();
     const id = await queueMail('sent-target@furlong.test');
-    const worker = new OutboxWorker(t.db, createTransport(null, t.mail.port), {
+    const worker = new MailWorker(t.db, createTransport(null, t.mail.port), {
       from: t.config.mailFrom,
       logger: createLogger({ env: 'test', logLevel: 'info' }, log.stream),
     });
@@ -199,7 +198,7 @@ describe('mail worker log lines', () => {
 
     const log = captureLines();
     const id = await queueMail('retry-target@furlong.test');
-    const worker = new OutboxWorker(t.db, createTransport(null, port), {
+    const worker = new MailWorker(t.db, createTransport(null, port), {
       from: t.config.mailFrom,
       logger: createLogger({ env: 'test', logLevel: 'info' }, log.stream),
     });

@@ -1,11 +1,14 @@
-// A mail server that accepts connections and then never answers: the outbox worker gives up on
+// A mail server that accepts connections and then never answers: the mail worker gives up on
 // the attempt after its timeouts, holds no database transaction or lock while it waits, and the
-// message is delivered once, later, by a mail server that works.
+// message is delivered once, later, by a mail server that works. The jobs are pg-boss's, in the
+// fault cluster's database (prepared with retries due a second later).
 import net from 'node:net';
 import { createDb, type Db } from '../../server/db/knex';
 import { FakeMailServer } from '../../server/mail/fake-smtp';
-import { OutboxWorker } from '../../server/mail/outbox-worker';
-import { claimNext, enqueueMail } from '../../server/mail/outbox.repository';
+import PgBoss from 'pg-boss';
+import { jobQueue, JOB_SCHEMA } from '../../server/background/queue';
+import { MailWorker } from '../../server/mail/mail-worker';
+import { enqueueMail } from '../../server/mail/outbox.repository';
 import { createTransport } from '../../server/mail/transport';
 import { makeFarm, type TestFarm } from '../support/farm-factory';
 import { faultCluster, freePort, isPostgresRunning, sleep, startPostgres } from './support/fault-cluster';
@@ -44,13 +47,20 @@ describe('the mail server hangs', () => {
 
   // Each worker here sends whatever is due in this database: mail other fault tests left queued
   // is set aside, so the counts below are this file's own.
-  beforeEach(() =>
-    db('mail_outbox').where({ status: 'queued' }).update({ status: 'failed', last_error: 'set aside by the mail fault tests' }),
-  );
+  beforeEach(async () => {
+    await db('mail_outbox').where({ status: 'queued' }).update({ status: 'failed', last_error: 'set aside by the mail fault tests' });
+    await db.raw(`UPDATE ${JOB_SCHEMA}.job SET state = 'cancelled' WHERE name = 'mail' AND state < 'completed'`);
+  });
 
   const queue = (to: string) =>
     enqueueMail(db, { farmId: farm.id, kind: 'invite', to, subject: `Fault test ${to}`, text: 'You are invited to Mail Farm on Furlong.' });
   const row = (id: number) => db('mail_outbox').where({ id }).first();
+  const jobOf = async (mailId: number) =>
+    (await db.raw(`SELECT id::text, state FROM ${JOB_SCHEMA}.job WHERE name = 'mail' AND (data->>'mailId')::int = ?`, [mailId]))
+      .rows[0] as {
+      id: string;
+      state: string;
+    };
   /** Sessions of this database sitting in an open transaction, and locks anyone holds on the outbox. */
   const openTransactions = async () =>
     Number(
@@ -69,11 +79,7 @@ describe('the mail server hangs', () => {
   it('when the mail server never answers, then the attempt times out with no transaction open meanwhile, and a working server later gets the message exactly once', async () => {
     const to = `hang.${tag}@furlong.test`;
     const id = await queue(to);
-    const hanging = new OutboxWorker(db, createTransport(null, silentPort, SHORT), {
-      from: 'Furlong <furlong@localhost>',
-      baseDelayMs: 50,
-      maxDelayMs: 200,
-    });
+    const hanging = new MailWorker(db, createTransport(null, silentPort, SHORT), { from: 'Furlong <furlong@localhost>' });
     const before = accepted;
     const started = Date.now();
     const run = hanging.drain();
@@ -84,8 +90,9 @@ describe('the mail server hangs', () => {
       await sleep(300);
       expect(await openTransactions()).toBe(0);
       expect(await outboxLocks()).toBe(0);
-      // Its lease keeps the message from a second sender meanwhile.
-      expect(await claimNext(db, id - 1, 1000)).toBeUndefined();
+      // pg-boss holds the job active: a second worker is given nothing meanwhile.
+      expect(await jobQueue(db).fetch('mail')).toEqual([]);
+      expect((await jobOf(id)).state).toBe('active');
     } finally {
       await run.catch(() => undefined);
     }
@@ -98,12 +105,8 @@ describe('the mail server hangs', () => {
     const mail = new FakeMailServer();
     const port = await mail.start(await freePort());
     try {
-      const working = new OutboxWorker(db, createTransport(null, port, SHORT), {
-        from: 'Furlong <furlong@localhost>',
-        baseDelayMs: 50,
-        maxDelayMs: 200,
-      });
-      await sleep(100); // the 50 ms retry delay
+      const working = new MailWorker(db, createTransport(null, port, SHORT), { from: 'Furlong <furlong@localhost>' });
+      await sleep(1100); // the retry delay (a second in tests)
       await working.drain();
       await working.drain();
       expect(mail.to(to)).toHaveLength(1);
@@ -113,23 +116,38 @@ describe('the mail server hangs', () => {
     }
   });
 
-  it('when a worker died while sending, then the message is sent again once its lease runs out, and only once', async () => {
+  it('when a worker died while sending, then the message is sent again once pg-boss expires its job, and only once', async () => {
     const to = `lease.${tag}@furlong.test`;
     const id = await queue(to);
-    // A sender claims it for 700 ms and then "dies" (never sends, never marks it).
-    expect((await claimNext(db, id - 1, 700))?.id).toBe(id);
+    // A worker takes the job and then "dies" (never sends, never reports). Its time to run is cut
+    // to 1 s so pg-boss's upkeep finds it expired at once.
+    const [taken] = await jobQueue(db).fetch('mail');
+    expect(taken.id).toBe((await jobOf(id)).id);
+    await db.raw(`UPDATE ${JOB_SCHEMA}.job SET expire_in = interval '1 second' WHERE name = 'mail' AND id = ?::uuid`, [taken.id]);
+    const upkeep = new PgBoss({
+      connectionString: cluster.url,
+      schema: JOB_SCHEMA,
+      migrate: false,
+      schedule: false,
+      maintenanceIntervalSeconds: 1,
+    });
+    upkeep.on('error', () => undefined);
     const mail = new FakeMailServer();
     const port = await mail.start(0);
     try {
-      const worker = new OutboxWorker(db, createTransport(null, port, SHORT), { from: 'Furlong <furlong@localhost>' });
+      const worker = new MailWorker(db, createTransport(null, port, SHORT), { from: 'Furlong <furlong@localhost>' });
       await worker.drain();
       expect(mail.to(to)).toHaveLength(0);
-      await sleep(900);
-      await worker.drain();
+      await upkeep.start();
+      for (let i = 0; i < 40 && mail.to(to).length === 0; i++) {
+        await sleep(250);
+        await worker.drain();
+      }
       await worker.drain();
       expect(mail.to(to)).toHaveLength(1);
       expect(await row(id)).toMatchObject({ status: 'sent', attempts: 2 });
     } finally {
+      await upkeep.stop({ graceful: false, wait: true });
       await mail.stop();
     }
   });
@@ -138,19 +156,16 @@ describe('the mail server hangs', () => {
     const to = `cap.${tag}@furlong.test`;
     const id = await queue(to);
     const closedPort = await freePort(); // nobody listens: each attempt is refused at once
-    const worker = new OutboxWorker(db, createTransport(null, closedPort, SHORT), {
-      from: 'Furlong <furlong@localhost>',
-      baseDelayMs: 20,
-      maxDelayMs: 20,
-      maxAttempts: 3,
-    });
+    const worker = new MailWorker(db, createTransport(null, closedPort, SHORT), { from: 'Furlong <furlong@localhost>', maxAttempts: 3 });
     for (let i = 0; i < 3; i++) {
       await worker.drain();
-      await sleep(60);
+      await sleep(1100); // the retry delay (a second in tests)
     }
     const r = await row(id);
     expect(r).toMatchObject({ status: 'failed', attempts: 3 });
     expect(r.last_error).toMatch(/ECONNREFUSED.*gave up after 3 attempts/s);
+    // The job is in pg-boss's failed state: the owner's "Mail and background jobs" list shows it.
+    expect((await jobOf(id)).state).toBe('failed');
     await worker.drain();
     expect((await row(id)).attempts).toBe(3);
   });

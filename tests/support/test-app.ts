@@ -7,7 +7,7 @@ import { createDb, type Db } from '../../server/db/knex';
 import { createSessionStore, type SessionStore } from '../../server/http/session';
 import { createLogger } from '../../server/logging/logger';
 import { FakeMailServer } from '../../server/mail/fake-smtp';
-import { OutboxWorker } from '../../server/mail/outbox-worker';
+import { MailWorker } from '../../server/mail/mail-worker';
 import { createTransport } from '../../server/mail/transport';
 import { testDatabaseUrl } from './env';
 
@@ -16,7 +16,7 @@ export interface TestApp {
   db: Db;
   config: Config;
   mail: FakeMailServer;
-  worker: OutboxWorker;
+  worker: MailWorker;
   sessions: SessionStore;
   /** Everything the app logged (its error handler logs only failures it did not expect). */
   logged: unknown[];
@@ -46,7 +46,7 @@ export async function startTestApp(
   });
   const db = createDb(config.databaseUrl, { min: 0, max: 5 });
   const sessions = createSessionStore(config.databaseUrl, false);
-  const worker = new OutboxWorker(db, createTransport(null, port), { from: config.mailFrom, baseDelayMs: 50, maxDelayMs: 200 });
+  const worker = new MailWorker(db, createTransport(null, port), { from: config.mailFrom });
   const logged: unknown[] = [];
   const logger = logTo ? createLogger(config, logTo) : undefined;
   const app = createApp({ config, db, sessions, nudgeMail: () => undefined, log: (err) => logged.push(err), logger });

@@ -17,6 +17,11 @@ export const foundation: Record<string, Case> = {
     expect: ownerOnly(200, 404),
   },
   'DELETE /api/members/:id': { path: async (c) => `/api/members/${await c.spareMember()}`, expect: ownerOnly(204, 404) },
+  'GET /api/background/failed': { expect: ownerOnly(200) },
+  'POST /api/background/failed/:id/retry': {
+    path: () => '/api/background/failed/00000000-0000-4000-8000-000000000000/retry',
+    expect: ownerOnly(404),
+  },
   'GET /api/farm': { expect: members(200) },
   'PATCH /api/farm': { body: { dayHoursLimit: 12 }, expect: ownerOnly(200) },
 };

@@ -54,6 +54,8 @@ describe('MembersPage', () => {
     httpTesting
       .expectOne('/api/farm')
       .flush({ id: 1, name: 'Tamarack Ridge Farm', units: 'us', dayHoursLimit: 12, timeZone: 'America/Chicago' });
+    // So does the list of failed e-mails (background-jobs.spec.ts tests it).
+    httpTesting.expectOne('/api/background/failed').flush({ jobs: [] });
   });
 
   afterEach(() => {

@@ -12,6 +12,7 @@ import { filter, switchMap } from 'rxjs';
 import { AuthStore } from '../../../core/auth/auth-store';
 import { messageOf } from '../../../core/http/api-error';
 import { ConfirmDialog, type ConfirmDialogData } from '../../../shared/ui/confirm-dialog/confirm-dialog';
+import { BackgroundJobs } from '../background-jobs/background-jobs';
 import { FarmSettingsForm } from '../farm-settings/farm-settings';
 import { InviteMember } from '../invite-member/invite-member';
 import { MEMBERS_URL, MembersApi } from '../members-api';
@@ -21,7 +22,16 @@ import { ROLE_OPTIONS } from '../role-labels';
 @Component({
   selector: 'app-members-page',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [FarmSettingsForm, InviteMember, MatButtonModule, MatIconModule, MatProgressBarModule, MatSelectModule, MatTableModule],
+  imports: [
+    BackgroundJobs,
+    FarmSettingsForm,
+    InviteMember,
+    MatButtonModule,
+    MatIconModule,
+    MatProgressBarModule,
+    MatSelectModule,
+    MatTableModule,
+  ],
   templateUrl: './members-page.html',
   styleUrl: './members-page.scss',
 })

@@ -1,23 +1,20 @@
 import type { Transporter } from 'nodemailer';
+import type PgBoss from 'pg-boss';
+import { lastAttempt } from '../background/failed-jobs.repository';
+import { jobQueue, sqlOn, type JobData } from '../background/queue';
 import type { Db } from '../db/knex';
-import type { DbMailRow } from '../db/rows';
 import { logMessage } from '../http/errors';
 import { silentLogger, type Logger } from '../logging/logger';
-import { claimNext, markRetry, markSent } from './outbox.repository';
+import { mailById, markAttempt, markSent } from './outbox.repository';
 
-export interface OutboxOptions {
+export interface MailWorkerOptions {
   from: string;
   /** How often to look for due mail when nobody nudges, ms. */
   pollMs?: number;
-  /** First retry delay, doubled per attempt up to `maxDelayMs`. */
-  baseDelayMs?: number;
-  maxDelayMs?: number;
   /**
-   * How long a claimed message is kept from other runs while it is sent, ms. Longer than one
-   * send can take (the transport's connection, greeting and socket timeouts: 10 + 10 + 30 s).
+   * Attempts before a message that keeps failing is given up, at most the queue's own cap
+   * (`QUEUE_POLICY.mail`: 10); lower in tests.
    */
-  leaseMs?: number;
-  /** Attempts before a message that keeps failing is marked failed with its last error. */
   maxAttempts?: number;
   /** Where each attempt's outcome is logged (mail id and kind, never the address or body); default silent. */
   logger?: Logger;
@@ -26,11 +23,14 @@ export interface OutboxOptions {
 /** One send attempt as the log shows it. */
 export interface MailAttemptLog {
   mailId: number;
+  jobId: string;
   kind: string;
   attempt: number;
   outcome: 'sent' | 'retry' | 'failed';
   error?: string;
 }
+
+type MailJob = PgBoss.JobWithMetadata<JobData['mail']>;
 
 /** Mail servers quote the address they refused ("550 <x@y>: no such user"); the log keeps neither. */
 const ADDRESS = /[^\s<>"'(),;:]+@[^\s<>"'(),;:]+/g;
@@ -40,24 +40,22 @@ const withoutAddresses = (message: string): string => message.replace(ADDRESS, '
 const FAILURES_PER_RUN = 20;
 
 /**
- * Sends what the outbox holds. Each message is claimed in one short statement (a lease, see
- * `claimNext`), sent with no database transaction open, then marked in another short statement,
- * so a mail server that hangs holds no row lock and no connection. A message is marked sent only
- * after the mail server took it; a temporary failure (server down or silent, 4xx) retries with
- * exponential backoff, up to `maxAttempts` attempts; a permanent refusal (5xx, e.g. no such
- * mailbox) or the last allowed attempt is marked failed so the board can show it.
+ * Works the `mail` queue. pg-boss hands out each job to one worker (its fetch locks and marks it
+ * active in one statement); the message is sent with no transaction open, then the outcome is
+ * recorded in one short transaction: the outbox row for the board, and the job completed or
+ * failed. A failed job is retried by pg-boss with back-off up to its cap; a permanent refusal
+ * (5xx, e.g. no such mailbox) fails for good at once. A job whose worker died mid-send is
+ * expired by pg-boss's maintenance and retried.
  *
- * Delivery is at least once: if the message was taken but the database cannot be told (it is
- * down that moment), the worker keeps the fact and records it on its next run; only if this
- * process also ends before then is the message sent again when its lease runs out.
+ * Delivery is at least once: if the mail server took the message but the database cannot be
+ * told (it is down that moment), the worker keeps the fact and records it when the job comes
+ * back; only if this process also ends before then is the message sent again.
  */
-export class OutboxWorker {
+export class MailWorker {
   private timer: NodeJS.Timeout | null = null;
   private running: Promise<number> | null = null;
+  private readonly boss: PgBoss;
   private readonly pollMs: number;
-  private readonly baseDelayMs: number;
-  private readonly maxDelayMs: number;
-  private readonly leaseMs: number;
   private readonly maxAttempts: number;
   /** Messages the mail server took whose `sent` mark did not reach the database yet. */
   private readonly unrecorded = new Set<number>();
@@ -67,20 +65,18 @@ export class OutboxWorker {
   constructor(
     private readonly db: Db,
     private readonly transport: Transporter,
-    private readonly options: OutboxOptions,
+    private readonly options: MailWorkerOptions,
   ) {
+    this.boss = jobQueue(db);
     this.pollMs = options.pollMs ?? 5000;
-    this.baseDelayMs = options.baseDelayMs ?? 5000;
-    this.maxDelayMs = options.maxDelayMs ?? 15 * 60_000;
-    this.leaseMs = options.leaseMs ?? 5 * 60_000;
-    this.maxAttempts = options.maxAttempts ?? 10;
+    this.maxAttempts = options.maxAttempts ?? Infinity;
     this.log = options.logger ?? silentLogger();
   }
 
   start(): void {
     if (this.timer) return;
     // nudge() restarts the timer through here: say it once.
-    if (!this.announced) this.log.info({ pollMs: this.pollMs, maxAttempts: this.maxAttempts }, 'mail worker started');
+    if (!this.announced) this.log.info({ pollMs: this.pollMs }, 'mail worker started');
     this.announced = true;
     const tick = () => {
       void this.drain()
@@ -117,32 +113,31 @@ export class OutboxWorker {
   }
 
   private async sendDue(): Promise<number> {
-    for (const id of [...this.unrecorded]) {
-      await markSent(this.db, id);
-      this.unrecorded.delete(id);
-    }
     let sent = 0;
     let failuresInARow = 0;
-    // Ids go up within one run, so each message is tried at most once per run, even one whose
-    // short retry delay has already passed.
-    let afterId = 0;
+    // A job that fails now is due again after its retry delay (at least a second), so one run
+    // does not try the same message twice.
     for (;;) {
-      const mail = await claimNext(this.db, afterId, this.leaseMs);
-      if (!mail) return sent;
-      afterId = mail.id;
-      if (await this.send(mail)) {
+      const [job] = (await this.boss.fetch<JobData['mail']>('mail', { batchSize: 1, includeMetadata: true })) as MailJob[];
+      if (!job) return sent;
+      if (await this.work(job)) {
         sent++;
         failuresInARow = 0;
       } else if (++failuresInARow >= FAILURES_PER_RUN) return sent;
     }
   }
 
-  /** One attempt at one claimed message; true when the mail server took it. */
-  private async send(mail: DbMailRow): Promise<boolean> {
-    if (mail.attempts > this.maxAttempts) {
-      // Its earlier attempts never came back (the sender died each time): give up now.
-      this.attempt(mail, 'failed', `no answer after ${mail.attempts - 1} attempts`);
-      await markRetry(this.db, mail.id, `${mail.last_error ?? 'no answer'} (gave up after ${mail.attempts - 1} attempts)`, true, 0);
+  /** One attempt at one job; true when the mail server took the message. */
+  private async work(job: MailJob): Promise<boolean> {
+    const attempt = job.retryCount + 1;
+    // The job's start, by its id only; the attempt's line below names the mail.
+    this.log.info({ jobId: job.id, queue: 'mail', attempt }, 'job started');
+    const mail = await mailById(this.db, job.data.mailId);
+    if (!mail || mail.status === 'sent' || this.unrecorded.has(mail.id)) {
+      // Sent before (the mark or the completion was lost), or the message is gone with its farm.
+      if (mail && mail.status !== 'sent') await markSent(this.db, mail.id, attempt);
+      if (mail) this.unrecorded.delete(mail.id);
+      await this.boss.complete('mail', job.id);
       return false;
     }
     try {
@@ -156,16 +151,22 @@ export class OutboxWorker {
     } catch (err) {
       const e = err as { responseCode?: number; message?: string };
       const permanent = typeof e.responseCode === 'number' && e.responseCode >= 500;
-      const last = mail.attempts >= this.maxAttempts;
-      const delay = Math.min(this.baseDelayMs * 2 ** (mail.attempts - 1), this.maxDelayMs);
-      const message = `${e.message ?? String(err)}${last && !permanent ? ` (gave up after ${mail.attempts} attempts)` : ''}`;
-      this.attempt(mail, permanent || last ? 'failed' : 'retry', message);
-      await markRetry(this.db, mail.id, message, permanent || last, delay);
+      const last = attempt >= Math.min(job.retryLimit + 1, this.maxAttempts);
+      const message = `${e.message ?? String(err)}${last && !permanent ? ` (gave up after ${attempt} attempts)` : ''}`;
+      this.attempt(job, attempt, permanent || last ? 'failed' : 'retry', message);
+      await this.db.transaction(async (tx) => {
+        await markAttempt(tx, mail.id, attempt, message, permanent || last);
+        if (permanent || last) await lastAttempt(tx, 'mail', job.id);
+        await this.boss.fail('mail', job.id, { message: withoutAddresses(message) }, { db: sqlOn(tx) });
+      });
       return false;
     }
-    this.attempt(mail, 'sent');
+    this.attempt(job, attempt, 'sent');
     try {
-      await markSent(this.db, mail.id);
+      await this.db.transaction(async (tx) => {
+        await markSent(tx, mail.id, attempt);
+        await this.boss.complete('mail', job.id, {}, { db: sqlOn(tx) });
+      });
     } catch (err) {
       this.unrecorded.add(mail.id);
       throw err;
@@ -174,11 +175,12 @@ export class OutboxWorker {
   }
 
   /** Logs one attempt's outcome: the mail's id and kind, never its address, subject or body. */
-  private attempt(mail: DbMailRow, outcome: MailAttemptLog['outcome'], error?: string): void {
+  private attempt(job: MailJob, attempt: number, outcome: MailAttemptLog['outcome'], error?: string): void {
     const line: MailAttemptLog = {
-      mailId: mail.id,
-      kind: mail.kind,
-      attempt: mail.attempts,
+      mailId: job.data.mailId,
+      jobId: job.id,
+      kind: job.data.kind,
+      attempt,
       outcome,
       ...(error ? { error: withoutAddresses(error) } : {}),
     };
