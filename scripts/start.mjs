@@ -1,5 +1,6 @@
 // `npm start`: install what is missing, run the project-local PostgreSQL, migrate, load the
-// demo farm once, build the app and serve app + API on one origin. Ctrl-C stops it all.
+// demo farm once, build the app and the server, and serve app + API on one origin from the
+// compiled server (WEB_CONCURRENCY processes, default: the machine's cores). Ctrl-C stops it all.
 import { spawn } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
@@ -28,12 +29,14 @@ try {
   run('node', ['--import', 'tsx', 'scripts/prepare-db.ts'], { env });
   log('building the app…');
   run('npx', ['ng', 'build', '--configuration', 'production'], { env });
+  log('building the server…');
+  run('node', ['node_modules/typescript/bin/tsc', '-p', 'tsconfig.build.json'], { env });
 } catch (err) {
   supervisor.stop(1, err.message);
 }
 
 if (!supervisor.stopping) {
-  const server = spawn('node', ['--import', 'tsx', 'server/index.ts'], { cwd: root, env, stdio: 'inherit' });
+  const server = spawn('node', ['dist/server/server/index.js'], { cwd: root, env, stdio: 'inherit' });
   supervisor.adopt(server, 'the web server');
   waitForHealth(`http://127.0.0.1:${port}/api/health`).then(
     () => {

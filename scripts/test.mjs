@@ -82,7 +82,7 @@ function jest(name, config, extra = []) {
 }
 
 try {
-  if (cluster) run('node', ['--import', 'tsx', 'scripts/prepare-db.ts'], { env });
+  if (cluster) run('node', ['--import', 'tsx', 'scripts/prepare-db.ts', '--fast-retries'], { env });
   if (want('lint')) check('lint', 'node', ['node_modules/eslint/bin/eslint.js', '.', '--max-warnings=0']);
   if (want('lint')) check('formatting (prettier --check)', 'node', ['node_modules/prettier/bin/prettier.cjs', '--check', '.']);
   if (want('typecheck')) {
@@ -90,13 +90,15 @@ try {
     check('type-check app', 'node', ['node_modules/typescript/bin/tsc', '-p', 'tsconfig.app.json', '--noEmit']);
     check('type-check browser tests', 'node', ['node_modules/typescript/bin/tsc', '-p', 'tsconfig.e2e.json', '--noEmit']);
   }
+  // The compiled server, as `npm start` runs it: tests/api/processes.test.ts starts it.
+  if (want('api')) check('build server', 'node', ['node_modules/typescript/bin/tsc', '-p', 'tsconfig.build.json']);
   if (want('unit')) jest('unit', 'jest.unit.config.js');
   if (want('api')) jest('api', 'jest.api.config.js', ['--runInBand']);
   if (faultCluster) {
     faultCluster.start();
     faultCluster.ensureDatabase('furlong_fault', { fresh: true });
     const url = faultCluster.url('furlong_fault');
-    run('node', ['--import', 'tsx', 'scripts/prepare-db.ts', '--migrate-only'], { env: { ...env, DATABASE_URL: url } });
+    run('node', ['--import', 'tsx', 'scripts/prepare-db.ts', '--migrate-only', '--fast-retries'], { env: { ...env, DATABASE_URL: url } });
     Object.assign(env, {
       FAULT_DATABASE_URL: url,
       FAULT_PG_BIN: faultCluster.bin,

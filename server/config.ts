@@ -1,3 +1,4 @@
+import os from 'node:os';
 import { COMPUTE_TIME_LIMIT_MS } from '../shared/limits';
 import { z } from 'zod';
 
@@ -23,6 +24,8 @@ const schema = z
     TRUST_PROXY: z.enum(['0', '1']).default('0'),
     /** How long one heavy computation (plan, boundary check, file import) may run before it is stopped, ms. */
     COMPUTE_TIME_LIMIT_MS: z.coerce.number().int().min(1000).max(600_000).default(COMPUTE_TIME_LIMIT_MS),
+    /** How many server processes answer requests (one port, node:cluster). Default: the machine's cores. */
+    WEB_CONCURRENCY: z.coerce.number().int().min(1).max(64).optional(),
     /** How much the server logs (pino's levels). Default: info; in test: silent. */
     LOG_LEVEL: z.enum(LOG_LEVELS, { message: `LOG_LEVEL must be one of ${LOG_LEVELS.join(', ')}` }).optional(),
   })
@@ -50,6 +53,7 @@ export interface Config {
   mapTileAttribution: string | null;
   trustProxy: boolean;
   computeTimeLimitMs: number;
+  webConcurrency: number;
   logLevel: LogLevel;
 }
 
@@ -78,6 +82,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     mapTileAttribution: c.MAP_TILE_ATTRIBUTION ?? null,
     trustProxy: c.TRUST_PROXY === '1',
     computeTimeLimitMs: c.COMPUTE_TIME_LIMIT_MS,
+    webConcurrency: c.WEB_CONCURRENCY ?? os.availableParallelism(),
     // Tests stay quiet unless someone asks for logs (LOG_LEVEL=debug while chasing a failure).
     logLevel: c.LOG_LEVEL ?? (c.NODE_ENV === 'test' ? 'silent' : 'info'),
   };

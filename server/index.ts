@@ -1,50 +1,139 @@
+import cluster, { type Worker } from 'node:cluster';
 import path from 'node:path';
+import { ClusterMemoryStorePrimary } from '@express-rate-limit/cluster-memory-store';
+import PgBoss from 'pg-boss';
 import { createApp } from './app';
-import { loadConfig } from './config';
+import { JOB_SCHEMA } from './background/queue';
+import { loadConfig, type Config } from './config';
 import { createDb } from './db/knex';
-import { FakeMailServer } from './mail/fake-smtp';
-import { OutboxWorker } from './mail/outbox-worker';
-import { createTransport } from './mail/transport';
 import { createSessionStore } from './http/session';
 import { createLogger, type Logger } from './logging/logger';
+import { FakeMailServer } from './mail/fake-smtp';
+import { MailWorker } from './mail/mail-worker';
+import { createTransport } from './mail/transport';
+import { projectRoot } from './paths';
+
+// One process, or (WEB_CONCURRENCY > 1) a primary that forks that many server processes sharing
+// the port (node:cluster). The primary serves no requests: it runs the local fake mail server,
+// keeps the sign-in rate limits for all processes (so N processes do not allow N times the
+// attempts), and starts a process again if one ends unexpectedly. The background job workers
+// (mail) run in the first server process only.
 
 /** Set once the configuration is read; before that, failures go to stderr as plain text. */
 let logger: Logger | null = null;
 
-async function main(): Promise<void> {
-  const config = loadConfig();
-  const log = createLogger(config);
-  logger = log;
-  log.info({ env: config.env, logLevel: config.logLevel }, 'starting');
+/** Plain text on stdout in every environment and at every LOG_LEVEL: `npm start`, the tests and the benchmarks wait for it. */
+const sayListening = (config: Config, processes: number) =>
+  console.log(
+    `Furlong API and app listening on http://${config.host}:${config.port}${processes > 1 ? ` (${processes} server processes)` : ''}`,
+  );
+
+/** Starts the local fake mail server when no real one is configured; says what it catches. */
+async function startFakeMail(config: Config): Promise<FakeMailServer | null> {
+  if (config.smtpUrl) return null;
+  const fakeMail = new FakeMailServer(path.join(projectRoot, '.data', 'mail'));
+  await fakeMail.start(config.fakeSmtpPort);
+  const seen = new Set<unknown>();
+  setInterval(() => {
+    for (const m of fakeMail.messages) {
+      if (seen.has(m)) continue;
+      seen.add(m);
+      const links = m.text.match(/https?:\/\/\S+/g) ?? [];
+      console.log(`mail caught for ${m.to.join(', ')}: "${m.subject}" ${links.join(' ')}`);
+    }
+  }, 500).unref();
+  return fakeMail;
+}
+
+async function primary(config: Config, log: Logger): Promise<void> {
+  log.info({ env: config.env, logLevel: config.logLevel, processes: config.webConcurrency }, 'starting');
+  new ClusterMemoryStorePrimary().init();
+  const fakeMail = await startFakeMail(config);
+  const env = { FAKE_SMTP_PORT: String(fakeMail?.port ?? config.fakeSmtpPort) };
+  let stopping = false;
+  let listening = 0;
+  const restarts: number[] = [];
+  const fork = (background: boolean): Worker => {
+    const worker = cluster.fork({ ...env, FURLONG_BACKGROUND: background ? '1' : '0' });
+    worker.once('listening', () => {
+      if (++listening === config.webConcurrency) sayListening(config, config.webConcurrency);
+    });
+    worker.once('exit', (code, signal) => {
+      if (stopping) return;
+      // A process that keeps ending at once (bad configuration, database gone) is not restarted
+      // forever: five ends within a minute stop everything with the reason in the log.
+      const now = Date.now();
+      restarts.push(now);
+      while (restarts.length && restarts[0] < now - 60_000) restarts.shift();
+      log.error({ pid: worker.process.pid, code, signal }, 'a server process ended; starting another');
+      if (restarts.length >= 5) {
+        fatal('server processes keep ending; stopping', `last: code ${code}, signal ${signal}`);
+        void shutdown(1);
+        return;
+      }
+      fork(background);
+    });
+    return worker;
+  };
+  for (let i = 0; i < config.webConcurrency; i++) fork(i === 0);
+
+  const shutdown = async (code = 0) => {
+    if (stopping) return;
+    stopping = true;
+    log.info('shutting down the server processes');
+    const workers = Object.values(cluster.workers ?? {}).filter((w): w is Worker => !!w);
+    await Promise.all(
+      workers.map(
+        (w) =>
+          new Promise<void>((resolve) => {
+            if (w.isDead()) return resolve();
+            w.once('exit', () => resolve());
+            w.process.kill('SIGTERM');
+          }),
+      ),
+    );
+    await fakeMail?.stop().catch(() => undefined);
+    log.info({ exitCode: code }, 'stopped');
+    process.exit(code);
+  };
+  process.on('SIGTERM', () => void shutdown());
+  process.on('SIGINT', () => void shutdown());
+}
+
+/** One server process: the app on the port, and (when `background`) the job workers. */
+async function serve(config: Config, log: Logger, { background, single }: { background: boolean; single: boolean }): Promise<void> {
+  if (single) log.info({ env: config.env, logLevel: config.logLevel }, 'starting');
   const db = createDb(config.databaseUrl);
   const sessions = createSessionStore(config.databaseUrl);
+  const fakeMail = single ? await startFakeMail(config) : null;
 
-  let fakeMail: FakeMailServer | null = null;
-  let mailPort = config.fakeSmtpPort;
-  if (!config.smtpUrl) {
-    fakeMail = new FakeMailServer(path.resolve(__dirname, '..', '.data', 'mail'));
-    mailPort = await fakeMail.start(config.fakeSmtpPort);
-    const seen = new Set<unknown>();
-    setInterval(() => {
-      for (const m of fakeMail!.messages) {
-        if (seen.has(m)) continue;
-        seen.add(m);
-        const links = m.text.match(/https?:\/\/\S+/g) ?? [];
-        console.log(`mail caught for ${m.to.join(', ')}: "${m.subject}" ${links.join(' ')}`);
-      }
-    }, 500).unref();
+  let boss: PgBoss | null = null;
+  let mail: MailWorker | null = null;
+  if (background) {
+    // pg-boss's own upkeep: expiring jobs whose worker died, archiving, deleting old ones.
+    // Failed jobs stay 30 days where the owner's list finds them.
+    boss = new PgBoss({
+      connectionString: config.databaseUrl,
+      schema: JOB_SCHEMA,
+      max: 2,
+      migrate: false,
+      schedule: false,
+      maintenanceIntervalSeconds: 60,
+      archiveFailedAfterSeconds: 30 * 86_400,
+    });
+    boss.on('error', (err: Error) => log.warn({ error: err.message }, 'background job upkeep failed; it is tried again'));
+    await boss.start();
+    mail = new MailWorker(db, createTransport(config.smtpUrl, fakeMail?.port ?? config.fakeSmtpPort), {
+      from: config.mailFrom,
+      logger: log.child({ worker: 'mail' }),
+    });
+    mail.start();
   }
-  const worker = new OutboxWorker(db, createTransport(config.smtpUrl, mailPort), {
-    from: config.mailFrom,
-    logger: log.child({ worker: 'mail' }),
-  });
-  worker.start();
 
-  const app = createApp({ config, db, sessions, nudgeMail: () => worker.nudge(), logger: log });
+  const app = createApp({ config, db, sessions, nudgeMail: () => mail?.nudge(), logger: log });
   const server = app.listen(config.port, config.host, () => {
-    // Plain text on stdout in every environment and at every LOG_LEVEL: `npm start`, the tests
-    // and the benchmarks wait for "listening on".
-    console.log(`Furlong API and app listening on http://${config.host}:${config.port}`);
+    if (single) sayListening(config, 1);
+    else log.info({ background }, 'server process listening');
   });
 
   // Ctrl-C under `npm start` reaches this process twice (the terminal's SIGINT, then the
@@ -62,7 +151,8 @@ async function main(): Promise<void> {
     clearTimeout(force);
     let code = 0;
     for (const [what, close] of [
-      ['the mail worker', () => worker.stop()],
+      ['the mail worker', async () => mail?.stop()],
+      ['the background job upkeep', async () => boss?.stop({ graceful: false, wait: true })],
       ['the fake mail server', async () => fakeMail?.stop()],
       ['the sessions pool', () => sessions.close()],
       ['the database pool', () => db.destroy()],
@@ -81,6 +171,19 @@ async function main(): Promise<void> {
   process.on('SIGINT', () => void shutdown());
 }
 
+async function main(): Promise<void> {
+  const config = loadConfig();
+  const log = createLogger(config);
+  logger = log;
+  if (cluster.isWorker) {
+    await serve(config, log.child({ pid: process.pid }), { background: process.env.FURLONG_BACKGROUND === '1', single: false });
+  } else if (config.webConcurrency > 1) {
+    await primary(config, log);
+  } else {
+    await serve(config, log, { background: true, single: true });
+  }
+}
+
 /** Why the process ends: the error's code, stack and cause. */
 function describe(err: unknown): string {
   if (!(err instanceof Error)) return String(err);
@@ -91,7 +194,7 @@ function describe(err: unknown): string {
 }
 
 // A failure nothing handled leaves the process in a state nobody planned for: say what it was,
-// then end (the supervisor, `npm start` or a service manager, restarts or reports it). Requests'
+// then end (the primary, `npm start` or a service manager, restarts or reports it). Requests'
 // own failures never get here: Express 5 passes a rejected handler to the error handler.
 process.on('uncaughtException', (err, origin) => {
   fatal(`the server stops after an unexpected error (${origin})`, describe(err));

@@ -7,13 +7,15 @@ import { issueXsrfToken } from '../http/csrf';
 import { AppError } from '../http/errors';
 import type { Routes } from '../http/routes';
 import { principal, type SessionPrincipal } from '../http/session-user';
+import { rateStore } from '../http/rate-store';
 import { body, params } from '../http/validate';
 import * as auth from './auth.service';
 
 const WINDOW_MS = 15 * 60_000;
 
-function limiter(limit: number, key: (req: Request) => string, message: string): RequestHandler {
+function limiter(name: string, limit: number, key: (req: Request) => string, message: string): RequestHandler {
   return rateLimit({
+    store: rateStore(name),
     windowMs: WINDOW_MS,
     limit,
     skipSuccessfulRequests: true,
@@ -46,9 +48,10 @@ function signIn(req: Request, res: Response, next: NextFunction, deps: AppDeps, 
 }
 
 export function authRoutes(r: Routes, deps: AppDeps, passport: ReturnType<typeof createPassport>): void {
-  const perAccount = limiter(5, accountKey, 'Too many failed sign-ins for this account; wait 15 minutes and try again');
-  const perAddress = limiter(30, ipKey, 'Too many failed sign-ins from this address; wait 15 minutes and try again');
+  const perAccount = limiter('sign-in-account', 5, accountKey, 'Too many failed sign-ins for this account; wait 15 minutes and try again');
+  const perAddress = limiter('sign-in-address', 30, ipKey, 'Too many failed sign-ins from this address; wait 15 minutes and try again');
   const mailLimit = rateLimit({
+    store: rateStore('mail-links'),
     windowMs: WINDOW_MS,
     limit: 10,
     keyGenerator: ipKey,

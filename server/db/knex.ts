@@ -2,6 +2,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import knex, { type Knex } from 'knex';
 import pg from 'pg';
+import { projectRoot } from '../paths';
 
 // DATE columns are calendar days: keep them as 'YYYY-MM-DD' strings, never shifted by a time zone.
 pg.types.setTypeParser(pg.types.builtins.DATE, (v) => v);
@@ -12,7 +13,7 @@ pg.types.setTypeParser(pg.types.builtins.INT8, (v) => Number(v));
 export type Db = Knex;
 export type Tx = Knex | Knex.Transaction;
 
-const migrationsDir = path.resolve(__dirname, '..', '..', 'migrations');
+const migrationsDir = path.join(projectRoot, 'migrations');
 
 /**
  * Lists migrations by file name without the extension, so the same history is valid whether

@@ -52,7 +52,8 @@ export function createSessionStore(
     errorLog: (what: string, err: unknown) => onError(String(what).replace(/:$/, '').toLowerCase(), err),
   });
   throttleTouch(store);
-  reuseReads(store);
+  const changes = new SessionChanges(databaseUrl, onError);
+  reuseReads(store, changes);
   let closing: Promise<void> | undefined;
   return {
     store,
@@ -67,6 +68,7 @@ export function createSessionStore(
     // Safe to call twice (a second SIGINT/SIGTERM during shutdown): pg refuses a second end().
     close: async () => {
       closing ??= (async () => {
+        await changes.close();
         await (store as unknown as { close: () => Promise<void> }).close();
         await pool.end();
       })();
@@ -95,15 +97,81 @@ function throttleTouch(store: session.Store): void {
 }
 
 /**
+ * Listens on PostgreSQL's `furlong_session` channel, where a trigger names every session that
+ * is signed out or changed (migrations/20261202000600_session_change_notify.ts), in whichever
+ * server process it happened. While the listening connection is down, nothing is kept: a
+ * notification could be missed, so every read goes to the database until it is back.
+ */
+class SessionChanges {
+  private client: pg.Client | null = null;
+  private closed = false;
+  private retry: NodeJS.Timeout | null = null;
+  /** Called with a session id, or with nothing when every kept copy must go. */
+  onChange: (sid?: string) => void = () => undefined;
+  listening = false;
+
+  constructor(
+    private readonly databaseUrl: string,
+    private readonly onError: (what: string, err: unknown) => void,
+  ) {
+    void this.connect();
+  }
+
+  private async connect(): Promise<void> {
+    const client = new pg.Client({ connectionString: this.databaseUrl, connectionTimeoutMillis: 5000 });
+    this.client = client;
+    const lost = (err?: unknown) => {
+      if (this.client !== client) return;
+      this.client = null;
+      this.listening = false;
+      this.onChange();
+      client.removeAllListeners('notification');
+      void client.end().catch(() => undefined);
+      if (this.closed) return;
+      if (err) this.onError('the session change listener lost its connection', err);
+      this.retry = setTimeout(() => void this.connect(), 1000);
+      this.retry.unref();
+    };
+    client.on('error', lost);
+    client.on('end', () => lost());
+    client.on('notification', (n) => this.onChange(n.payload));
+    try {
+      await client.connect();
+      await client.query('LISTEN furlong_session');
+      if (this.client === client) this.listening = true;
+    } catch (err) {
+      lost(err);
+    }
+  }
+
+  async close(): Promise<void> {
+    this.closed = true;
+    if (this.retry) clearTimeout(this.retry);
+    const client = this.client;
+    this.client = null;
+    this.listening = false;
+    await client?.end().catch(() => undefined);
+  }
+}
+
+/**
  * One page asks for several things at once, each with the same session cookie: the session read
  * from PostgreSQL is kept for a few seconds and reused. Saving or destroying a session (signing
- * in or out) here drops the kept copy at once. Nothing else writes sessions: they are only ever
- * changed through this store, in this one server process. Who the person is and what they may
- * do is still read afresh on every request (`principal`).
+ * in or out) in this process drops the kept copy at once, and in every other process as soon as
+ * PostgreSQL's notification arrives (`SessionChanges`). Who the person is and what they may do
+ * is still read afresh on every request (`principal`).
  */
-function reuseReads(store: session.Store): void {
+function reuseReads(store: session.Store, changes: SessionChanges): void {
   const { get, set, destroy } = { get: store.get.bind(store), set: store.set.bind(store), destroy: store.destroy.bind(store) };
   const kept = new LRUCache<string, string>({ max: 10_000, ttl: SESSION_REUSE_MS });
+  // A change that arrives while a read is under way may be older than what the read returns, or
+  // newer: the read is then used once and not kept.
+  let changeCount = 0;
+  changes.onChange = (sid) => {
+    changeCount++;
+    if (sid) kept.delete(sid);
+    else kept.clear();
+  };
   store.get = (sid, done) => {
     const json = kept.get(sid);
     if (json) {
@@ -112,8 +180,9 @@ function reuseReads(store: session.Store): void {
       if (expires > Date.now()) return done(null, sess);
       kept.delete(sid);
     }
+    const before = changeCount;
     get(sid, (err: unknown, sess?: session.SessionData | null) => {
-      if (!err && sess) kept.set(sid, JSON.stringify(sess));
+      if (!err && sess && changes.listening && changeCount === before) kept.set(sid, JSON.stringify(sess));
       done(err, sess);
     });
   };

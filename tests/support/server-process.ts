@@ -24,12 +24,19 @@ export interface ServerProcess {
   stop(): Promise<void>;
 }
 
-/** The real server (`server/index.ts`) as its own process on a free loopback port. */
-export async function startServerProcess(env: NodeJS.ProcessEnv): Promise<ServerProcess> {
+/** The compiled server (`tsc -p tsconfig.build.json`, a step of `npm test` and `npm start`). */
+const COMPILED = path.join(root, 'dist', 'server', 'server', 'index.js');
+
+/**
+ * The real server as its own process on a free loopback port: from its TypeScript sources, or
+ * (`compiled`) the build `npm start` runs.
+ */
+export async function startServerProcess(env: NodeJS.ProcessEnv, { compiled = false } = {}): Promise<ServerProcess> {
   const port = await freePort();
-  const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
+  if (compiled && !fs.existsSync(COMPILED)) throw new Error(`${COMPILED} is missing: build it with npx tsc -p tsconfig.build.json`);
+  const child = spawn(process.execPath, compiled ? [COMPILED] : ['--import', 'tsx', 'server/index.ts'], {
     cwd: root,
-    env: { ...process.env, NODE_ENV: 'test', HOST: '127.0.0.1', PORT: String(port), FAKE_SMTP_PORT: '0', ...env },
+    env: { ...process.env, NODE_ENV: 'test', HOST: '127.0.0.1', PORT: String(port), FAKE_SMTP_PORT: '0', WEB_CONCURRENCY: '1', ...env },
     stdio: ['ignore', 'pipe', 'pipe'],
   });
   let out = '';
@@ -67,9 +74,16 @@ export async function startServerProcess(env: NodeJS.ProcessEnv): Promise<Server
 
 /** A browser-like client over real HTTP: keeps the session cookie and sends the XSRF header. */
 export class HttpClient {
-  private cookies = new Map<string, string>();
+  protected cookies = new Map<string, string>();
 
   constructor(readonly base: string) {}
+
+  /** A client on another server (another process) with this one's cookies: the same session. */
+  sameSessionOn(base: string): HttpClient {
+    const other = new HttpClient(base);
+    other.cookies = new Map(this.cookies);
+    return other;
+  }
 
   private remember(res: Response): void {
     for (const c of res.headers.getSetCookie()) {

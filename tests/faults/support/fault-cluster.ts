@@ -81,6 +81,7 @@ export class ServerProcess {
         DATABASE_URL: databaseUrl,
         SESSION_SECRET: secret,
         FAKE_SMTP_PORT: '0',
+        WEB_CONCURRENCY: '1',
       },
       stdio: ['ignore', 'pipe', 'pipe'],
     });
