@@ -47,6 +47,19 @@ export default tseslint.config(
       ],
     },
   },
+  // The server, shared code, scripts and tests: the type-checked promise rules (a dropped promise
+  // hides a failure; an async function where a callback's result is ignored loses its error).
+  {
+    files: ['server/**/*.ts', 'shared/**/*.ts', 'scripts/**/*.ts', 'tests/**/*.ts', 'migrations/**/*.ts', 'seeds/**/*.ts'],
+    ignores: ['tests/browser/**'],
+    languageOptions: { parserOptions: { project: ['./tsconfig.server.json'], tsconfigRootDir: import.meta.dirname } },
+    rules: { '@typescript-eslint/no-floating-promises': 'error', '@typescript-eslint/no-misused-promises': 'error' },
+  },
+  {
+    files: ['tests/browser/**/*.ts'],
+    languageOptions: { parserOptions: { project: ['./tsconfig.e2e.json'], tsconfigRootDir: import.meta.dirname } },
+    rules: { '@typescript-eslint/no-floating-promises': 'error', '@typescript-eslint/no-misused-promises': 'error' },
+  },
   {
     files: ['**/*.js', '**/*.mjs', '**/*.cjs'],
     languageOptions: {
@@ -66,7 +79,7 @@ export default tseslint.config(
   {
     // The Angular app: angular-eslint's recommended rules, inline templates linted as templates, and
     // the type-checked promise rules (a dropped navigate() or an async handler in a void slot hides
-    // failures). Type information is only asked for here; server/, shared/, scripts/ and tests/ follow later.
+    // failures). The same promise rules cover the rest of the TypeScript above.
     files: ['src/**/*.ts'],
     extends: [...angular.configs.tsRecommended],
     processor: angular.processInlineTemplates,
