@@ -23,9 +23,14 @@ export default tseslint.config(
     settings: {
       'import/resolver': { node: { extensions: ['.ts', '.js', '.mjs'] } },
       'boundaries/elements': [
-        { type: 'shared', pattern: 'shared/**/*', partialMatch: false },
-        { type: 'server', pattern: 'server/**/*', partialMatch: false },
-        { type: 'app', pattern: 'src/**/*', partialMatch: false },
+        { type: 'shared', pattern: 'shared', partialMatch: false },
+        // A server feature's folder (server/jobs, server/board …) and, in the app, a feature's
+        // component folders (features/board/assignment-card …) apart from its top-level files.
+        { type: 'server', pattern: 'server/*', capture: ['feature'], partialMatch: false },
+        { type: 'server', pattern: 'server', partialMatch: false },
+        { type: 'app-component', pattern: 'src/app/features/*/*', capture: ['feature', 'folder'], partialMatch: false },
+        { type: 'app', pattern: 'src/app/features/*', capture: ['feature'], partialMatch: false },
+        { type: 'app', pattern: 'src', partialMatch: false },
       ],
       'boundaries/files': [
         { category: 'data-access', pattern: ['server/**/*.repository.ts', 'server/db/**', 'server/**/*.read.ts'] },
@@ -39,9 +44,25 @@ export default tseslint.config(
           default: 'allow',
           checkAllOrigins: true,
           policies: [
-            { from: { element: { type: 'shared' } }, disallow: { to: { element: { types: { anyOf: ['server', 'app'] } } } } },
-            { from: { element: { type: 'app' } }, disallow: { to: { element: { type: 'server' } } } },
+            {
+              from: { element: { type: 'shared' } },
+              disallow: { to: { element: { types: { anyOf: ['server', 'app', 'app-component'] } } } },
+            },
+            { from: { element: { types: { anyOf: ['app', 'app-component'] } } }, disallow: { to: { element: { type: 'server' } } } },
             { from: { file: { categories: 'route-or-service' } }, disallow: { to: { module: { origin: 'external', source: 'knex' } } } },
+            // The job itself is what board, run sheet and season stand on, never the other way.
+            {
+              from: { element: { type: 'server', captured: { feature: 'jobs' } } },
+              disallow: { to: { element: { type: 'server', captured: { feature: ['board', 'run-sheet', 'season'] } } } },
+            },
+            // A feature's components are its own: another feature may use its top-level files (its
+            // API service, its helpers), not reach into its component folders. Test fixtures aside.
+            {
+              from: { element: { types: { anyOf: ['app', 'app-component'] }, captured: { feature: '*' } } },
+              disallow: {
+                to: { element: { type: 'app-component', captured: { feature: '!{{ from.captured.feature }}', folder: '!testing' } } },
+              },
+            },
           ],
         },
       ],

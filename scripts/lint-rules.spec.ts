@@ -1,0 +1,64 @@
+// The architecture rules of eslint.config.mjs fire: each probe file below breaks one rule, is
+// written into the tree for the time of the test (the rules read real paths), linted with the
+// project's own configuration, and removed.
+import { execFileSync } from 'node:child_process';
+import fs from 'node:fs';
+import path from 'node:path';
+
+const root = path.resolve(__dirname, '..');
+const PROBES: Array<{ file: string; code: string; rule: RegExp }> = [
+  {
+    file: 'shared/lint-probe.ts',
+    code: "import { createApp } from '../server/app';\nexport const probe = createApp;\n",
+    rule: /type "server" are not allowed in elements of type "shared"/,
+  },
+  {
+    file: 'src/app/features/run-sheet/run-sheet-job/lint-probe.ts',
+    code: "import { createApp } from '../../../../../server/app';\nexport const probe = createApp;\n",
+    rule: /type "server" are not allowed in elements of type "app-component"/,
+  },
+  {
+    file: 'src/app/features/run-sheet/lint-probe.ts',
+    code: "import { AssignmentCard } from '../board/assignment-card/assignment-card';\nexport const probe = AssignmentCard;\n",
+    rule: /type "app-component" and captured values: feature="board"/,
+  },
+  {
+    file: 'server/jobs/lint-probe.ts',
+    code: "import { boardRoutes } from '../board/board.routes';\nexport const probe = boardRoutes;\n",
+    rule: /feature="board" are not allowed in elements of type "server" and captured values: feature="jobs"/,
+  },
+  {
+    file: 'server/crew/lint-probe.service.ts',
+    code: "import knex from 'knex';\nexport const probe = knex;\n",
+    rule: /module source "knex"/,
+  },
+  {
+    file: 'server/crew/lint-probe-promise.ts',
+    code: 'async function later(): Promise<void> {}\nexport function probe(): void {\n  later();\n}\n',
+    rule: /no-floating-promises/,
+  },
+];
+
+describe('the lint rules of the architecture', () => {
+  it('when a file breaks a boundary, the knex rule or the promise rules, then eslint fails and names it', () => {
+    for (const p of PROBES) fs.writeFileSync(path.join(root, p.file), p.code);
+    let out = '';
+    try {
+      execFileSync(process.execPath, ['node_modules/eslint/bin/eslint.js', '--format', 'json', ...PROBES.map((p) => p.file)], {
+        cwd: root,
+        stdio: ['ignore', 'pipe', 'ignore'],
+        maxBuffer: 16 * 1024 * 1024,
+      });
+    } catch (err) {
+      out = String((err as { stdout?: Buffer }).stdout ?? '');
+    } finally {
+      for (const p of PROBES) fs.rmSync(path.join(root, p.file), { force: true });
+    }
+    const results = JSON.parse(out || '[]') as Array<{ filePath: string; messages: Array<{ message: string; ruleId: string | null }> }>;
+    for (const p of PROBES) {
+      const found = results.find((r) => r.filePath.endsWith(p.file));
+      const said = (found?.messages ?? []).map((m) => `${m.ruleId}: ${m.message}`).join('\n');
+      expect({ file: p.file, said }).toEqual({ file: p.file, said: expect.stringMatching(p.rule) });
+    }
+  }, 180_000);
+});
