@@ -1,17 +1,28 @@
 // Benchmark of the server under load (not a test): node --import tsx scripts/bench-server.ts
 // A generated farm of 200 fields with 10 seasons of logs (50,000 finished jobs) in a database of
-// its own (furlong_bench on the test cluster, made fresh each run), the real app on a loopback port,
-// and autocannon with one signed-in owner's cookie. The server runs as `npm start` runs it, in a
-// process of its own (server/index.ts), so that autocannon does not share its event loop.
+// its own (furlong_bench on the test cluster, made fresh each run), the real server on a loopback
+// port, and autocannon with one signed-in owner's cookie. The server runs as `npm start` runs it:
+// compiled (dist/server, built here first when missing or older than the sources), in processes of
+// its own, so that autocannon does not share its event loop.
+// Printed side by side in one run: the work board (a busy day, 40 jobs) and the fields list (200
+// fields) at 20 and 50 connections, with 1 and 2 server processes (WEB_CONCURRENCY), each beside
+// bare Express answering the same bytes at the same processes (node:cluster for 2) — the ceiling
+// when the load tool, PostgreSQL and the server share the machine's cores; and start-up time and
+// resident memory (the process and its children) of the TypeScript-loader run and the compiled
+// run, before and after the same load.
 // Targets: season summary < 100 ms median for one reader (one connection: a report is opened by a
 // person, not a crowd; the 10-connection figure is printed beside it for information); work board
-// for a busy day (40 jobs) < 30 ms p95 at 50 connections; no errors. Each run lasts 10 s. Exits 1
-// when a target is missed.
-import { spawn, type ChildProcess } from 'node:child_process';
+// < 30 ms p95 at 50 connections on one process; no errors. Each measurement lasts 5 s after 2 s
+// of the same load unmeasured. Exits 1 when a target is missed.
+import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
+import fs from 'node:fs';
+import http from 'node:http';
 import { createRequire } from 'node:module';
 import net, { type AddressInfo } from 'node:net';
+import os from 'node:os';
 import path from 'node:path';
 import bcrypt from 'bcryptjs';
+import { prepareQueues } from '../server/background/queue';
 import { createDb, migrationConfig, type Db } from '../server/db/knex';
 // @ts-expect-error -- the set-up helpers are plain ES modules without types
 import { LocalCluster } from './lib/setup.mjs';
@@ -49,7 +60,10 @@ const WINDOWS: Array<[string, number, number]> = [
   ['combining', 8, 20],
 ];
 const BOARD_DAY = `${LAST_SEASON}-06-10`;
-const DURATION_S = 10;
+/** Each measurement, after WARM_UP_S of the same load unmeasured (the server's code is compiled hot by then). */
+const DURATION_S = 5;
+const WARM_UP_S = 2;
+const CONNECTIONS = [20, 50];
 const PASSWORD = 'bench-owner-password';
 
 async function generate(db: Db): Promise<number> {
@@ -161,23 +175,33 @@ interface Run {
   detail: string;
 }
 
-async function measure(
-  url: string,
-  cookie: string,
-  connections: number,
-  seconds = DURATION_S,
-): Promise<{ r: CannonResult; times: number[] }> {
+interface Measured {
+  r: CannonResult;
+  times: number[];
+  seconds: number;
+}
+
+async function measure(url: string, cookie: string, connections: number, seconds = DURATION_S): Promise<Measured> {
   const times: number[] = [];
   // The headers a browser sends with the app's requests: the session cookie and the encodings it takes.
   const inst = autocannon({ url, connections, duration: seconds, headers: { cookie, 'accept-encoding': 'gzip, deflate, br' } });
   inst.on('response', (_c, _status, _bytes, ms) => times.push(ms));
   const r = await inst;
   times.sort((a, b) => a - b);
-  return { r, times };
+  return { r, times, seconds };
+}
+
+/** The same load unmeasured first (the server's code is compiled hot by then), then measured. */
+async function measureWarm(url: string, cookie: string, connections: number): Promise<Measured> {
+  await measure(url, cookie, connections, WARM_UP_S);
+  return measure(url, cookie, connections);
 }
 
 const ms = (n: number) => `${n.toFixed(1)} ms`;
 const pct = (sorted: number[], p: number) => sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)] ?? Number.NaN;
+const perSecond = (m: Measured) => m.times.length / m.seconds;
+const failures = (m: Measured) => m.r.errors + m.r.timeouts + m.r.non2xx;
+const mb = (kb: number) => `${(kb / 1024).toFixed(0)} MB`;
 
 async function freePort(): Promise<number> {
   const probe = net.createServer().listen(0, '127.0.0.1');
@@ -187,18 +211,103 @@ async function freePort(): Promise<number> {
   return port;
 }
 
-/** Resolves once a started server prints that it listens; rejects if it exits first. */
+/** Resolves once a started server prints that it listens; rejects, with what it printed, if it exits first. */
 function listening(child: ChildProcess, name: string): Promise<void> {
   return new Promise<void>((resolve, reject) => {
-    child.once('exit', (code) => reject(new Error(`${name} exited with ${code} before listening`)));
+    let seen = false;
+    let said = '';
+    child.once('exit', (code) => {
+      if (!seen) reject(new Error(`${name} exited with ${code} before listening:\n${said.slice(-4000)}`));
+    });
+    // The request log lines keep coming on stdout: once the server listens they are read and dropped.
     child.stdout!.on('data', (chunk: Buffer) => {
-      if (chunk.toString().includes('listening on')) resolve();
+      if (seen) return;
+      said += chunk.toString();
+      if (said.includes('listening on')) {
+        seen = true;
+        said = '';
+        resolve();
+      }
     });
   });
 }
 
-/** Starts server/index.ts on a free loopback port and resolves once it listens. */
-async function startServer(databaseUrl: string): Promise<{ child: ChildProcess; base: string }> {
+/**
+ * Resident memory of a process and all its descendants (the server processes under a cluster
+ * primary), in kB: VmRSS of each from /proc (Linux). Threads (compute workers, pino's transport)
+ * are part of their process's figure.
+ */
+function treeRssKb(root: number): number {
+  const children = new Map<number, number[]>();
+  for (const entry of fs.readdirSync('/proc')) {
+    if (!/^\d+$/.test(entry)) continue;
+    try {
+      const stat = fs.readFileSync(`/proc/${entry}/stat`, 'utf8');
+      // The command name (2nd field) is in parentheses and may hold spaces: the parent id is the 2nd field after it.
+      const ppid = Number(stat.slice(stat.lastIndexOf(')') + 2).split(' ')[1]);
+      children.set(ppid, [...(children.get(ppid) ?? []), Number(entry)]);
+    } catch {
+      // The process ended while the list was read.
+    }
+  }
+  let total = 0;
+  const todo = [root];
+  while (todo.length) {
+    const pid = todo.pop()!;
+    try {
+      const m = /VmRSS:\s+(\d+) kB/.exec(fs.readFileSync(`/proc/${pid}/status`, 'utf8'));
+      total += m ? Number(m[1]) : 0;
+    } catch {
+      // Gone.
+    }
+    todo.push(...(children.get(pid) ?? []));
+  }
+  return total;
+}
+
+const ROOT = path.resolve(__dirname, '..');
+
+/** How the server is started: TypeScript through the tsx loader, or the compiled build (as `npm start` runs it). */
+type Build = 'tsx' | 'compiled';
+const SERVER_ARGS: Record<Build, string[]> = {
+  tsx: ['--import', 'tsx', 'server/index.ts'],
+  compiled: ['dist/server/server/index.js'],
+};
+
+/** The newest modification time of the files under `dir` that `keep` accepts (0 when there are none). */
+function newest(dir: string, keep: (file: string) => boolean): number {
+  if (!fs.existsSync(dir)) return 0;
+  let t = 0;
+  for (const entry of fs.readdirSync(dir, { withFileTypes: true, recursive: true })) {
+    const file = path.join(entry.parentPath, entry.name);
+    if (entry.isFile() && keep(file)) t = Math.max(t, fs.statSync(file).mtimeMs);
+  }
+  return t;
+}
+
+/** Compiles the server (tsconfig.build.json) when dist/server is missing or older than its sources. */
+function ensureBuild(): string {
+  const out = path.join(ROOT, 'dist', 'server');
+  const sources = Math.max(
+    ...['server', 'shared'].map((d) => newest(path.join(ROOT, d), (f) => f.endsWith('.ts') && !f.endsWith('.spec.ts'))),
+    fs.statSync(path.join(ROOT, 'tsconfig.build.json')).mtimeMs,
+  );
+  if (fs.existsSync(path.join(out, 'server', 'index.js')) && newest(out, () => true) >= sources) return 'up to date';
+  const t = performance.now();
+  const res = spawnSync('npx', ['tsc', '-p', 'tsconfig.build.json'], { cwd: ROOT, stdio: 'inherit' });
+  if (res.status !== 0) throw new Error('the server build (npx tsc -p tsconfig.build.json) failed');
+  return `built in ${((performance.now() - t) / 1000).toFixed(1)} s`;
+}
+
+interface Started {
+  child: ChildProcess;
+  base: string;
+  /** From spawn to "listening on", ms. */
+  startMs: number;
+}
+
+/** Starts the server on a free loopback port and resolves once it (all its processes) listens. */
+async function startServer(databaseUrl: string, build: Build, processes: number): Promise<Started> {
   const port = await freePort();
   const env = {
     ...process.env,
@@ -208,28 +317,43 @@ async function startServer(databaseUrl: string): Promise<{ child: ChildProcess; 
     PORT: String(port),
     SESSION_SECRET: 'bench-secret-bench-secret-bench-secret-0123',
     FAKE_SMTP_PORT: '0',
+    WEB_CONCURRENCY: String(processes),
   };
-  const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
-    cwd: path.resolve(__dirname, '..'),
-    env,
-    stdio: ['ignore', 'pipe', 'inherit'],
-  });
-  await listening(child, 'the server');
-  return { child, base: `http://127.0.0.1:${port}` };
+  const t = performance.now();
+  const child = spawn(process.execPath, SERVER_ARGS[build], { cwd: ROOT, env, stdio: ['ignore', 'pipe', 'inherit'] });
+  await listening(child, `the server (${build}, ${processes} process${processes > 1 ? 'es' : ''})`);
+  return { child, base: `http://127.0.0.1:${port}`, startMs: performance.now() - t };
 }
 
 /**
- * The machine's own ceiling, for reading the board figures: Express with no middleware at all,
- * answering every request with the same number of bytes as the board, in a process of its own.
+ * The machine's own ceiling, for reading the server's figures: Express with no middleware at all,
+ * answering every request with `bytes` bytes, in a process of its own, or in `processes` processes
+ * sharing the port through node:cluster as the server's do.
  */
-async function startBareExpress(bytes: number): Promise<{ child: ChildProcess; base: string }> {
+async function startBareExpress(bytes: number, processes: number): Promise<Started> {
   const port = await freePort();
-  const code = `const express = require('express'); const body = Buffer.alloc(${bytes}, 120); const app = express();
-    app.get('/', (_req, res) => { res.type('json').send(body); });
-    app.listen(${port}, '127.0.0.1', () => console.log('listening on ${port}'));`;
-  const child = spawn(process.execPath, ['-e', code], { cwd: path.resolve(__dirname, '..'), stdio: ['ignore', 'pipe', 'inherit'] });
+  // A file, not `node -e`: node:cluster forks the primary's script.
+  const file = path.join(os.tmpdir(), `furlong-bench-bare-${process.pid}.cjs`);
+  fs.writeFileSync(
+    file,
+    `const cluster = require('node:cluster');
+    if (${processes} > 1 && cluster.isPrimary) {
+      let up = 0;
+      for (let i = 0; i < ${processes}; i++) cluster.fork().once('listening', () => { if (++up === ${processes}) console.log('listening on ${port}'); });
+      process.on('SIGTERM', () => { for (const w of Object.values(cluster.workers)) w.kill(); process.exit(0); });
+    } else {
+      const express = require(${JSON.stringify(createRequire(__filename).resolve('express'))});
+      const body = Buffer.alloc(${bytes}, 120);
+      const app = express();
+      app.get('/', (_req, res) => { res.type('json').send(body); });
+      app.listen(${port}, '127.0.0.1', () => { if (${processes} === 1) console.log('listening on ${port}'); });
+    }`,
+  );
+  const t = performance.now();
+  const child = spawn(process.execPath, [file], { cwd: ROOT, stdio: ['ignore', 'pipe', 'inherit'] });
+  child.once('exit', () => fs.rmSync(file, { force: true }));
   await listening(child, 'bare Express');
-  return { child, base: `http://127.0.0.1:${port}` };
+  return { child, base: `http://127.0.0.1:${port}`, startMs: performance.now() - t };
 }
 
 async function stopServer(child: ChildProcess | null): Promise<void> {
@@ -239,6 +363,99 @@ async function stopServer(child: ChildProcess | null): Promise<void> {
   await exited;
 }
 
+/** The bytes of an answer's body as they cross the wire (compressed when the server compresses). */
+function wireBytes(url: string, cookie: string): Promise<{ status: number; bytes: number; encoding: string }> {
+  return new Promise((resolve, reject) => {
+    http
+      .get(url, { headers: { cookie, 'accept-encoding': 'gzip, deflate, br' } }, (res) => {
+        let bytes = 0;
+        res.on('data', (c: Buffer) => (bytes += c.length));
+        res.on('end', () =>
+          resolve({ status: res.statusCode ?? 0, bytes, encoding: String(res.headers['content-encoding'] ?? 'identity') }),
+        );
+      })
+      .on('error', reject);
+  });
+}
+
+/** Signs in once, as the browser does (XSRF cookie, then the login with its header); returns the cookie header. */
+async function signIn(base: string): Promise<string> {
+  const first = await fetch(`${base}/api/health`);
+  const xsrf = /XSRF-TOKEN=([^;]+)/.exec(first.headers.getSetCookie().join('; '))?.[1] ?? '';
+  const login = await fetch(`${base}/api/auth/login`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json', 'x-xsrf-token': decodeURIComponent(xsrf), cookie: `XSRF-TOKEN=${xsrf}` },
+    body: JSON.stringify({ email: 'owner@bench.test', password: PASSWORD }),
+  });
+  if (login.status !== 200) throw new Error(`sign-in failed: ${login.status} ${await login.text()}`);
+  const sid = login.headers
+    .getSetCookie()
+    .map((c) => c.split(';')[0])
+    .find((c) => c.startsWith('furlong.sid='));
+  return [`XSRF-TOKEN=${xsrf}`, sid].join('; ');
+}
+
+/** The routes measured side by side, with the bytes each answer takes on the wire. */
+interface Route {
+  name: string;
+  path: string;
+  bytes: number;
+}
+
+/** One cell of the throughput table: a route, a number of connections, a number of processes. */
+interface Cell {
+  route: string;
+  connections: number;
+  processes: number;
+  server: Measured;
+  bare?: Measured;
+}
+
+/** Reads each route once per process (each server process keeps its own caches), unmeasured. */
+async function prime(base: string, cookie: string, paths: string[]): Promise<void> {
+  for (const p of paths) {
+    for (let i = 0; i < 20; i++) {
+      const res = await fetch(`${base}${p}`, { headers: { cookie } });
+      if (res.status !== 200) throw new Error(`${p} answered ${res.status}: ${(await res.text()).slice(0, 300)}`);
+      await res.arrayBuffer();
+    }
+  }
+}
+
+/** Every route at every connection count, on one running server. */
+async function matrix(base: string, cookie: string, routes: Route[], processes: number): Promise<Cell[]> {
+  const cells: Cell[] = [];
+  for (const route of routes) {
+    for (const connections of CONNECTIONS) {
+      cells.push({ route: route.name, connections, processes, server: await measureWarm(`${base}${route.path}`, cookie, connections) });
+    }
+  }
+  return cells;
+}
+
+/** Bare Express answering each route's bytes at each connection count, at `processes` processes. */
+async function bareMatrix(cells: Cell[], routes: Route[], processes: number): Promise<void> {
+  for (const route of routes) {
+    const bare = await startBareExpress(route.bytes, processes);
+    try {
+      for (const connections of CONNECTIONS) {
+        const cell = cells.find((c) => c.route === route.name && c.connections === connections && c.processes === processes)!;
+        cell.bare = await measureWarm(bare.base, '', connections);
+      }
+    } finally {
+      await stopServer(bare.child);
+    }
+  }
+}
+
+interface StartUp {
+  build: Build;
+  startMs: number;
+  rssStartKb: number;
+  rssLoadKb: number;
+  cells: Cell[];
+}
+
 async function main(): Promise<void> {
   const cluster = new LocalCluster('pg-test', 54339);
   cluster.start();
@@ -246,8 +463,12 @@ async function main(): Promise<void> {
   const url: string = cluster.url('furlong_bench');
   const db = createDb(url);
   let server: ChildProcess | null = null;
+  const t0 = performance.now();
   try {
+    console.log(`server build: ${ensureBuild()}`);
     await db.migrate.latest(migrationConfig);
+    // The background job queues, as scripts/prepare-db.ts makes them for `npm start`.
+    await prepareQueues(url);
     let t = performance.now();
     await generate(db);
     const [{ count }] = await db('assignments').where({ state: 'finished' }).count<Array<{ count: number }>>('* as count');
@@ -255,116 +476,113 @@ async function main(): Promise<void> {
       `generated ${FIELDS} fields, ${SEASONS} seasons, ${count} finished jobs in ${((performance.now() - t) / 1000).toFixed(1)} s`,
     );
 
-    const started = await startServer(url);
-    server = started.child;
-    const base = started.base;
-
-    // Sign in once, as the browser does (XSRF cookie, then the login with its header).
-    const first = await fetch(`${base}/api/health`);
-    const xsrf = /XSRF-TOKEN=([^;]+)/.exec(first.headers.getSetCookie().join('; '))?.[1] ?? '';
-    const login = await fetch(`${base}/api/auth/login`, {
-      method: 'POST',
-      headers: { 'content-type': 'application/json', 'x-xsrf-token': decodeURIComponent(xsrf), cookie: `XSRF-TOKEN=${xsrf}` },
-      body: JSON.stringify({ email: 'owner@bench.test', password: PASSWORD }),
-    });
-    if (login.status !== 200) throw new Error(`sign-in failed: ${login.status} ${await login.text()}`);
-    const sid = login.headers
-      .getSetCookie()
-      .map((c) => c.split(';')[0])
-      .find((c) => c.startsWith('furlong.sid='));
-    const cookie = [`XSRF-TOKEN=${xsrf}`, sid].join('; ');
-
-    const summaryUrl = `${base}/api/season/${LAST_SEASON}/summary`;
-    const boardUrl = `${base}/api/board?date=${BOARD_DAY}`;
-    for (const u of [summaryUrl, boardUrl]) {
-      const res = await fetch(u, { headers: { cookie } });
-      if (res.status !== 200) throw new Error(`${u} answered ${res.status}: ${(await res.text()).slice(0, 300)}`);
-      for (let i = 0; i < 20; i++) await (await fetch(u, { headers: { cookie } })).arrayBuffer();
-    }
-    const sample = (await (await fetch(summaryUrl, { headers: { cookie } })).json()) as { totals: { jobsFinished: number } };
-    const boardRes = await fetch(boardUrl, { headers: { cookie, 'accept-encoding': 'gzip' } });
-    const boardBytes = Number(boardRes.headers.get('content-length'));
-    const board = (await boardRes.json()) as { assignments?: unknown[] };
-    console.log(
-      `season ${LAST_SEASON}: ${sample.totals.jobsFinished} finished jobs; board ${BOARD_DAY}: ${board.assignments?.length ?? '?'} jobs, ${boardBytes} bytes gzipped`,
-    );
-
+    const summaryPath = `/api/season/${LAST_SEASON}/summary`;
+    const boardPath = `/api/board?date=${BOARD_DAY}`;
+    const fieldsPath = '/api/fields';
     const runs: Run[] = [];
+    const cells: Cell[] = [];
+    const startUps: StartUp[] = [];
+    let routes: Route[] = [];
     t = performance.now();
-    // The cost every signed-in request pays (session, principal, rolling cookie), for reading the rest.
-    const floor = await measure(`${base}/api/auth/me`, cookie, 1);
-    runs.push({
-      name: `signed-in floor (GET /api/auth/me), 1 connection, ${DURATION_S} s`,
-      target: '(information)',
-      measured: `median ${ms(pct(floor.times, 50))}`,
-      pass: true,
-      detail: `p95 ${ms(pct(floor.times, 95))}, ${floor.r.requests.total} requests`,
-    });
-    const one = await measure(summaryUrl, cookie, 1);
-    runs.push({
-      name: `season summary, 1 connection, ${DURATION_S} s`,
-      target: 'median < 100 ms',
-      measured: `median ${ms(pct(one.times, 50))}`,
-      pass: pct(one.times, 50) < 100,
-      detail: `p95 ${ms(pct(one.times, 95))}, ${one.r.requests.total} requests`,
-    });
-    const ten = await measure(summaryUrl, cookie, 10);
-    runs.push({
-      name: `season summary, 10 connections, ${DURATION_S} s`,
-      target: '(information)',
-      measured: `median ${ms(pct(ten.times, 50))}`,
-      pass: true,
-      detail: `p95 ${ms(pct(ten.times, 95))}, ${ten.r.requests.total} requests`,
-    });
-    const sErrors = [one, ten].reduce((n, m) => n + m.r.errors + m.r.timeouts + m.r.non2xx, 0);
-    runs.push({
-      name: 'season summary errors',
-      target: '0',
-      measured: String(sErrors),
-      pass: sErrors === 0,
-      detail: 'errors, timeouts and non-2xx answers',
-    });
-    const b1 = await measure(boardUrl, cookie, 1);
-    runs.push({
-      name: `work board for a day, 1 connection, ${DURATION_S} s`,
-      target: '(information)',
-      measured: `p95 ${ms(pct(b1.times, 95))}`,
-      pass: true,
-      detail: `median ${ms(pct(b1.times, 50))}, ${b1.r.requests.total} requests`,
-    });
-    // Three seconds of the same load first, unmeasured: the server's code is compiled hot by then.
-    await measure(boardUrl, cookie, 50, 3);
-    const b = await measure(boardUrl, cookie, 50);
-    const bErrors = [b1, b].reduce((n, m) => n + m.r.errors + m.r.timeouts + m.r.non2xx, 0);
-    runs.push({
-      name: `work board for a day, 50 connections, ${DURATION_S} s`,
-      target: 'p95 < 30 ms',
-      measured: `p95 ${ms(pct(b.times, 95))}`,
-      pass: pct(b.times, 95) < 30,
-      detail: `median ${ms(pct(b.times, 50))}, ${b.r.requests.total} requests`,
-    });
-    const bare = await startBareExpress(boardBytes);
-    try {
-      await measure(bare.base, '', 50, 3);
-      const e = await measure(bare.base, '', 50);
-      runs.push({
-        name: `bare Express, same bytes, 50 connections, ${DURATION_S} s`,
-        target: '(information)',
-        measured: `p95 ${ms(pct(e.times, 95))}`,
-        pass: true,
-        detail: `median ${ms(pct(e.times, 50))}, ${e.r.requests.total} requests`,
-      });
-    } finally {
-      await stopServer(bare.child);
+
+    // One process, TypeScript loader, then compiled: start-up time and memory before and after the
+    // same load (the throughput matrix); the compiled one also takes the targets' runs.
+    for (const build of ['tsx', 'compiled'] as const) {
+      const started = await startServer(url, build, 1);
+      server = started.child;
+      const rssStartKb = treeRssKb(server.pid!);
+      const cookie = await signIn(started.base);
+      await prime(started.base, cookie, [summaryPath, boardPath, fieldsPath]);
+      if (!routes.length) {
+        const board = await wireBytes(`${started.base}${boardPath}`, cookie);
+        const fields = await wireBytes(`${started.base}${fieldsPath}`, cookie);
+        const sample = (await (await fetch(`${started.base}${summaryPath}`, { headers: { cookie } })).json()) as {
+          totals: { jobsFinished: number };
+        };
+        const fieldList = (await (await fetch(`${started.base}${fieldsPath}`, { headers: { cookie } })).json()) as unknown[];
+        console.log(
+          `season ${LAST_SEASON}: ${sample.totals.jobsFinished} finished jobs; board ${BOARD_DAY}: ${board.bytes} bytes (${board.encoding}); ` +
+            `fields list: ${fieldList.length} fields, ${fields.bytes} bytes (${fields.encoding})`,
+        );
+        routes = [
+          { name: 'work board', path: boardPath, bytes: board.bytes },
+          { name: 'fields list', path: fieldsPath, bytes: fields.bytes },
+        ];
+      }
+      const own = await matrix(started.base, cookie, routes, 1);
+      if (build === 'compiled') cells.push(...own);
+      startUps.push({ build, startMs: started.startMs, rssStartKb, rssLoadKb: treeRssKb(server.pid!), cells: own });
+
+      if (build === 'compiled') {
+        // The cost every signed-in request pays (session, principal, rolling cookie), for reading the rest.
+        const floor = await measure(`${started.base}/api/auth/me`, cookie, 1);
+        runs.push({
+          name: `signed-in floor (GET /api/auth/me), 1 connection, ${DURATION_S} s`,
+          target: '(information)',
+          measured: `median ${ms(pct(floor.times, 50))}`,
+          pass: true,
+          detail: `p95 ${ms(pct(floor.times, 95))}, ${floor.r.requests.total} requests`,
+        });
+        const one = await measure(`${started.base}${summaryPath}`, cookie, 1);
+        runs.push({
+          name: `season summary, 1 connection, ${DURATION_S} s`,
+          target: 'median < 100 ms',
+          measured: `median ${ms(pct(one.times, 50))}`,
+          pass: pct(one.times, 50) < 100,
+          detail: `p95 ${ms(pct(one.times, 95))}, ${one.r.requests.total} requests`,
+        });
+        const ten = await measure(`${started.base}${summaryPath}`, cookie, 10);
+        runs.push({
+          name: `season summary, 10 connections, ${DURATION_S} s`,
+          target: '(information)',
+          measured: `median ${ms(pct(ten.times, 50))}`,
+          pass: true,
+          detail: `p95 ${ms(pct(ten.times, 95))}, ${ten.r.requests.total} requests`,
+        });
+        const sErrors = failures(one) + failures(ten);
+        runs.push({
+          name: 'season summary errors',
+          target: '0',
+          measured: String(sErrors),
+          pass: sErrors === 0,
+          detail: 'errors, timeouts and non-2xx answers',
+        });
+        const b = own.find((c) => c.route === 'work board' && c.connections === 50)!.server;
+        runs.push({
+          name: `work board for a day, 50 connections, 1 process, ${DURATION_S} s`,
+          target: 'p95 < 30 ms',
+          measured: `p95 ${ms(pct(b.times, 95))}`,
+          pass: pct(b.times, 95) < 30,
+          detail: `median ${ms(pct(b.times, 50))}, ${b.r.requests.total} requests`,
+        });
+      }
+      await stopServer(server);
+      server = null;
     }
+
+    // Two processes (node:cluster), compiled.
+    const two = await startServer(url, 'compiled', 2);
+    server = two.child;
+    const cookie2 = await signIn(two.base);
+    // Each process keeps its own board cache: enough reads that both have built theirs.
+    await prime(two.base, cookie2, [boardPath, fieldsPath]);
+    cells.push(...(await matrix(two.base, cookie2, routes, 2)));
+    await stopServer(server);
+    server = null;
+
+    await bareMatrix(cells, routes, 1);
+    await bareMatrix(cells, routes, 2);
+
+    const routeErrors = cells.reduce((n, c) => n + failures(c.server), 0);
     runs.push({
-      name: 'work board errors',
+      name: 'work board and fields list errors',
       target: '0',
-      measured: String(bErrors),
-      pass: bErrors === 0,
-      detail: 'errors, timeouts and non-2xx answers',
+      measured: String(routeErrors),
+      pass: routeErrors === 0,
+      detail: 'errors, timeouts and non-2xx answers, every run of the table below',
     });
 
+    console.log('\nTargets');
     console.table(
       runs.map((r) => ({
         bench: r.name,
@@ -374,7 +592,41 @@ async function main(): Promise<void> {
         detail: r.detail,
       })),
     );
-    console.log(`measured in ${((performance.now() - t) / 1000).toFixed(0)} s`);
+
+    console.log(
+      `\nThroughput, compiled server (${WARM_UP_S} s warm-up, ${DURATION_S} s measured each); "× bare": the server's figure over ` +
+        'bare Express answering the same bytes at the same connections and processes (requests/s: higher is better; p95: lower is better)',
+    );
+    console.table(
+      cells.map((c) => ({
+        route: c.route,
+        connections: c.connections,
+        processes: c.processes,
+        'requests/s': Math.round(perSecond(c.server)),
+        p95: ms(pct(c.server.times, 95)),
+        'bare requests/s': c.bare ? Math.round(perSecond(c.bare)) : '?',
+        'bare p95': c.bare ? ms(pct(c.bare.times, 95)) : '?',
+        'requests/s × bare': c.bare ? (perSecond(c.server) / perSecond(c.bare)).toFixed(2) : '?',
+        'p95 × bare': c.bare ? (pct(c.server.times, 95) / pct(c.bare.times, 95)).toFixed(1) : '?',
+      })),
+    );
+
+    console.log('\nStart-up and memory, 1 process: TypeScript loader (before) and compiled build (after); the same load for both');
+    const at = (s: StartUp, route: string, connections: number) =>
+      s.cells.find((c) => c.route === route && c.connections === connections)!.server;
+    console.table(
+      startUps.map((s) => ({
+        run: s.build === 'tsx' ? 'node --import tsx server/index.ts' : 'node dist/server/server/index.js',
+        'spawn → listening': ms(s.startMs),
+        'RSS after start': mb(s.rssStartKb),
+        'RSS after load': mb(s.rssLoadKb),
+        'board 50 conn. req/s': Math.round(perSecond(at(s, 'work board', 50))),
+        'fields 50 conn. req/s': Math.round(perSecond(at(s, 'fields list', 50))),
+      })),
+    );
+    console.log(
+      `measured in ${((performance.now() - t) / 1000).toFixed(0)} s; whole bench ${((performance.now() - t0) / 1000).toFixed(0)} s`,
+    );
     process.exitCode = runs.every((r) => r.pass) ? 0 : 1;
   } finally {
     await stopServer(server);

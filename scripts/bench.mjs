@@ -7,6 +7,7 @@ const benches = [
   ['pass plan', ['--import', 'tsx', 'scripts/bench-plan.ts']],
   ['server', ['--import', 'tsx', 'scripts/bench-server.ts']],
   ['limits', ['--import', 'tsx', 'scripts/bench-limits.ts']],
+  ['request log', ['--import', 'tsx', 'scripts/bench-request-log.ts']],
 ];
 const only = process.argv.slice(2);
 
