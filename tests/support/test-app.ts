@@ -49,7 +49,17 @@ export async function startTestApp(
   const worker = new MailWorker(db, createTransport(null, port), { from: config.mailFrom });
   const logged: unknown[] = [];
   const logger = logTo ? createLogger(config, logTo) : undefined;
-  const app = createApp({ config, db, sessions, nudgeMail: () => undefined, log: (err) => logged.push(err), logger });
+  // FURLONG_STATIC_DIR: a build of the app made elsewhere (e.g. ng build --output-path), for browser tests.
+  const staticDir = process.env.FURLONG_STATIC_DIR;
+  const app = createApp({
+    config,
+    db,
+    sessions,
+    nudgeMail: () => undefined,
+    log: (err) => logged.push(err),
+    logger,
+    ...(staticDir ? { staticDir } : {}),
+  });
   return {
     app,
     db,
