@@ -70,7 +70,8 @@ function to2d(g: Geometry): Geometry {
 
 /**
  * Boundaries as Furlong stores them: 2-D positions, and a collection of polygons (as KML's
- * MultiGeometry becomes) merged into one MultiPolygon. Anything else is left for the checks.
+ * MultiGeometry becomes) merged into one MultiPolygon; a collection of lines only (or points
+ * only) becomes one MultiLineString (MultiPoint). Anything else is left for the checks.
  */
 export function normaliseGeometry(g: Geometry | null): Geometry | null {
   if (!g) return null;
@@ -81,6 +82,17 @@ export function normaliseGeometry(g: Geometry | null): Geometry | null {
     const polys = parts.flatMap((p) => (p.type === 'Polygon' ? [p.coordinates] : p.type === 'MultiPolygon' ? p.coordinates : []));
     return polys.length === 1 ? { type: 'Polygon', coordinates: polys[0] } : { type: 'MultiPolygon', coordinates: polys };
   }
+  // Lines only, or points only: named as what they are, not as a mix of shapes.
+  if (parts.length > 0 && parts.every((p) => p.type === 'LineString' || p.type === 'MultiLineString'))
+    return {
+      type: 'MultiLineString',
+      coordinates: parts.flatMap((p) => (p.type === 'LineString' ? [p.coordinates] : p.type === 'MultiLineString' ? p.coordinates : [])),
+    };
+  if (parts.length > 0 && parts.every((p) => p.type === 'Point' || p.type === 'MultiPoint'))
+    return {
+      type: 'MultiPoint',
+      coordinates: parts.flatMap((p) => (p.type === 'Point' ? [p.coordinates] : p.type === 'MultiPoint' ? p.coordinates : [])),
+    };
   return flat;
 }
 

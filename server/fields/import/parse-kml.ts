@@ -161,9 +161,63 @@ export function parseKml(text: string): FeatureCollection {
   if (!doc.documentElement || doc.documentElement.nodeName.replace(/^.*:/, '') !== 'kml') {
     throw bad('The file is XML but not KML (its root element is not <kml>)');
   }
-  const fc = kml(doc) as FeatureCollection;
+  asPlainKml(doc.documentElement as unknown as KmlElement);
+  const all = kml(doc) as FeatureCollection;
+  // An image's footprint (GroundOverlay) and a region box (NetworkLink) are not boundaries.
+  const features = all.features.filter((f) => !NOT_BOUNDARIES.has(String(f.properties?.['@geometry-type'] ?? '')));
+  if (features.length === 0 && all.features.length > 0)
+    throw new AppError(
+      422,
+      'no_features',
+      'The KML file holds only image overlays or region boxes (GroundOverlay, NetworkLink), no field boundaries (placemarks with polygons)',
+    );
+  const fc: FeatureCollection = { type: 'FeatureCollection', features };
   checkFileBudget(fc, 'KML file');
   return fc;
+}
+
+/** togeojson's marks on features that come from elements other than placemarks. */
+const NOT_BOUNDARIES = new Set(['groundoverlay', 'networklink']);
+
+/** Namespaces of KML 2.0–2.2 (OGC 07-147r2 and the earlier Google ones). */
+const KML_NAMESPACES = /^https?:\/\/(?:www\.opengis\.net\/kml\/|earth\.google\.com\/kml\/)/;
+
+/**
+ * Geometry containers some writers use in KML in place of MultiGeometry (GML's names); GDAL's KML
+ * reader takes them as MultiGeometry (recalled from memory), and so does Furlong.
+ */
+const MULTI_GEOMETRY_NAMES = new Set(['MultiPolygon', 'MultiLineString', 'MultiPoint']);
+
+interface KmlElement {
+  nodeType: number;
+  tagName: string;
+  nodeName: string;
+  localName: string | null;
+  prefix: string | null;
+  namespaceURI: string | null;
+  childNodes: ArrayLike<KmlElement>;
+}
+
+/**
+ * The document as togeojson reads it: it matches element names as written, so KML elements
+ * written with a prefix (`<kml:Placemark>`) lose the prefix, and GML-style multi-geometries
+ * become MultiGeometry. Iterative: the depth was bounded by scanKml, but no stack is needed.
+ */
+function asPlainKml(root: KmlElement): void {
+  const stack = [root];
+  while (stack.length) {
+    const el = stack.pop()!;
+    if (el.prefix && el.namespaceURI && KML_NAMESPACES.test(el.namespaceURI) && el.localName) rename(el, el.localName);
+    if (MULTI_GEOMETRY_NAMES.has(el.tagName)) rename(el, 'MultiGeometry');
+    for (let i = 0; i < el.childNodes.length; i++) if (el.childNodes[i].nodeType === 1) stack.push(el.childNodes[i]);
+  }
+}
+
+function rename(el: KmlElement, name: string): void {
+  el.tagName = name;
+  el.nodeName = name;
+  el.localName = name;
+  el.prefix = null;
 }
 
 /** A KMZ is a zip holding a KML document (doc.kml, or the first .kml). */

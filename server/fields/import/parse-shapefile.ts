@@ -1,16 +1,18 @@
-import type { FeatureCollection } from 'geojson';
+import type { FeatureCollection, Geometry, Position } from 'geojson';
 import proj4 from 'proj4';
 import { MAX_BOUNDARY_RINGS, MAX_FILE_FEATURES, MAX_FILE_VERTICES } from '../../../shared/limits';
 import { AppError } from '../../http/errors';
 import { openArchive, type Archive } from './archive';
 import { checkFileBudget } from './normalise';
 import { EARTH_SEMI_MAJOR_M, prjNotOnEarth } from './prj-check';
+import { readPrj, type PrjReading } from './prj-read';
+import { nodeTouches } from './touch-nodes';
 
 // shpjs's Node build reads `self`.
 (globalThis as { self?: unknown }).self ??= globalThis;
 // eslint-disable-next-line @typescript-eslint/no-require-imports
 const shp = require('shpjs') as {
-  parseShp: (shp: ArrayBufferView, prj?: string) => Array<FeatureCollection['features'][number]['geometry']>;
+  parseShp: (shp: ArrayBufferView, prj?: string) => Array<Geometry | null>;
   parseDbf: (dbf: ArrayBufferView, cpg?: string) => Array<Record<string, unknown>>;
 };
 
@@ -137,17 +139,74 @@ async function readLayer(zip: Archive, shpName: string): Promise<FeatureCollecti
       `The coordinate system in ${prjName} is for another body (semi-major axis ${int(Math.round(semiMajor))} m); Furlong maps fields on Earth`,
     );
   }
-  const shpData = await zip.read(shpName);
+  const reading = readPrj(prj, prjName);
+  const shpData = withoutPadding(await zip.read(shpName));
   checkShpHeader(shpData, shpName);
   const dbfData = await zip.read(dbfName);
   checkDbfHeader(dbfData, dbfName);
   const cpgName = sibling('cpg');
   const cpg = cpgName ? (await zip.read(cpgName)).subarray(0, 256).toString('utf8') : undefined;
+  let geoms: Array<Geometry | null>;
+  let rows: Array<Record<string, unknown>>;
   try {
-    const geoms = shp.parseShp(shpData, prj);
-    const rows = shp.parseDbf(dbfData, cpg);
-    return geoms.map((geometry, i) => ({ type: 'Feature', geometry, properties: rows[i] ?? {} }));
+    // Read in the file's own coordinates; reprojected below through both readings of the .prj.
+    geoms = shp.parseShp(shpData);
+    rows = shp.parseDbf(dbfData, cpg);
   } catch (err) {
     throw bad(`The shapefile ${shpName} is damaged and cannot be read (${(err as Error).message})`);
+  }
+  // A null shape stays null (GeoJSON allows it); the preview names it "no geometry".
+  return geoms.map((geometry, i) => ({
+    type: 'Feature',
+    geometry: (geometry && toWgs84(geometry, reading)) as Geometry,
+    properties: rows[i] ?? {},
+  }));
+}
+
+/**
+ * The .shp without bytes after its last record. The header gives the file's length (16-bit words
+ * at byte 24, ESRI technical description); some writers pad past it, or pad inside it with zeros.
+ * No record has a content length of 0 (even a null shape holds its 4-byte type), so a record
+ * header of zeros is padding: the records end there.
+ */
+export function withoutPadding(data: Buffer): Buffer {
+  if (data.length < 100) return data;
+  const declared = data.readInt32BE(24) * 2;
+  let end = declared >= 100 && declared < data.length ? declared : data.length;
+  for (let offset = 100; offset + 8 <= end;) {
+    const len = data.readInt32BE(offset + 4) * 2;
+    if (len === 0) {
+      end = offset;
+      break;
+    }
+    if (len < 0) break;
+    offset += 8 + len;
+  }
+  return end < data.length ? data.subarray(0, end) : data;
+}
+
+/** A shape in the file's coordinates → WGS84, touches between its rings kept as touches. */
+function toWgs84(g: Geometry, reading: PrjReading): Geometry {
+  const pt = (p: Position) => reading.toWgs84(p);
+  switch (g.type) {
+    case 'Point':
+      return { type: 'Point', coordinates: pt(g.coordinates) };
+    case 'MultiPoint':
+    case 'LineString':
+      return { ...g, coordinates: g.coordinates.map(pt) } as Geometry;
+    case 'MultiLineString':
+      return { type: 'MultiLineString', coordinates: g.coordinates.map((l) => l.map(pt)) };
+    case 'Polygon':
+    case 'MultiPolygon': {
+      const polys = g.type === 'Polygon' ? [g.coordinates] : g.coordinates;
+      nodeTouches(
+        polys.flatMap((rings) => rings),
+        reading.millimetre,
+      );
+      const out = polys.map((rings) => rings.map((ring) => ring.map(pt)));
+      return g.type === 'Polygon' ? { type: 'Polygon', coordinates: out[0] } : { type: 'MultiPolygon', coordinates: out };
+    }
+    default:
+      return g;
   }
 }

@@ -54,13 +54,13 @@ const NAMED = new Set([
 ]);
 const MAX_DEPTH = 64;
 
-interface WktNode {
+export interface WktNode {
   keyword: string;
   args: Array<string | number | WktNode>;
 }
 
 /** Reads WKT into a tree, or null when it is not well-formed WKT (proj4 then has the last word). */
-function readWkt(text: string): WktNode[] | null {
+export function readWkt(text: string): WktNode[] | null {
   const roots: WktNode[] = [];
   const stack: WktNode[] = [];
   const push = (v: string | number | WktNode) => {

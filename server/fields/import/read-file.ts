@@ -111,7 +111,7 @@ export async function readBoundaryFile(file: { name: string; data: Buffer }, nam
     else if (g.type !== 'Polygon' && g.type !== 'MultiPolygon')
       problems.push({
         code: 'not-polygon',
-        message: `${label} is ${GEOMETRY_NAMES[g.type] ?? g.type}, but a field boundary must be an area (polygon)`,
+        message: `${label} is ${GEOMETRY_NAMES[g.type] ?? g.type}, not a field boundary: a field boundary must be an area (polygon)`,
         index,
       });
     else {
