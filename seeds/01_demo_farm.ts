@@ -17,8 +17,15 @@ export interface DemoAccount {
 
 export const demoAccounts = accounts as DemoAccount[];
 
+export interface SeedOptions {
+  /** Replace the demo farm when it is there already. */
+  reset?: boolean;
+  /** The instant to load the demo as of: its history ends before that day and its planned days start on it. */
+  now?: Date;
+}
+
 /** Loads the demo farm unless it is there already; with `reset`, replaces it. Returns the farm id. */
-export async function seed(knex: Knex, options: { reset?: boolean } = {}): Promise<number> {
+export async function seed(knex: Knex, options: SeedOptions = {}): Promise<number> {
   return knex.transaction(async (tx) => {
     const existing = await tx('farms').where({ name: DEMO_FARM_NAME }).first('id');
     if (existing && !options.reset) return existing.id as number;
@@ -34,7 +41,7 @@ export async function seed(knex: Knex, options: { reset?: boolean } = {}): Promi
     const [farm] = await tx('farms')
       .insert({ name: DEMO_FARM_NAME, units: 'us', day_hours_limit: 12, time_zone: DEMO_TIME_ZONE })
       .returning('id');
-    const ctx: DemoContext = { farmId: farm.id, users: {} };
+    const ctx: DemoContext = { farmId: farm.id, users: {}, now: options.now ?? new Date() };
     for (const a of demoAccounts) {
       // The app's own cost: a demo account with a cheaper hash would answer a wrong password
       // sooner than an unknown address does (which is compared against a hash of that cost).

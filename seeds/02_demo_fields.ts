@@ -37,7 +37,8 @@ interface DemoHazard {
 interface DemoField {
   name: string;
   rings: Position[][];
-  crops: [string, string]; // last season, this season
+  /** A three-year rotation: the crop of season S is `rotation[S % 3]`. */
+  rotation: [string, string, string];
   hazards?: DemoHazard[];
 }
 
@@ -49,7 +50,7 @@ const FIELDS: DemoField[] = [
   {
     name: 'Home Quarter',
     rings: [ring(box(0, 0, 1, 1)), hole(box(0.05, 0.7, 0.22, 0.22))],
-    crops: ['canola', 'spring wheat'],
+    rotation: ['canola', 'spring wheat', 'barley'],
     hazards: [
       { kind: 'bin', geometry: point(0.3, 0.8), clearanceM: 15, note: 'Four hopper bins and the auger east of the yard' },
       { kind: 'power', geometry: line([0, 0.6], [0.16, 0.7]), clearanceM: 10, note: 'Service line into the yard' },
@@ -58,7 +59,7 @@ const FIELDS: DemoField[] = [
   {
     name: 'North Section',
     rings: [ring(box(0, 2, 2, 2)), hole(blob(1.2, 3.1, 0.18))],
-    crops: ['spring wheat', 'canola'],
+    rotation: ['spring wheat', 'canola', 'durum'],
     hazards: [
       { kind: 'waterway', geometry: area(blob(1.2, 3.1, 0.26)), clearanceM: 5, note: 'Slough edge is soft in a wet spring' },
       { kind: 'rock', geometry: point(0.4, 2.5), clearanceM: 3, note: 'Large rock, marked with a flag' },
@@ -68,13 +69,13 @@ const FIELDS: DemoField[] = [
   {
     name: 'Slough Quarter',
     rings: [ring(box(2, 0, 1, 1)), hole(blob(2.5, 0.5, 0.15))],
-    crops: ['durum', 'field peas'],
+    rotation: ['durum', 'field peas', 'spring wheat'],
     hazards: [{ kind: 'waterway', geometry: area(blob(2.5, 0.5, 0.2)), clearanceM: 5, note: 'Cattails; do not cut into the slough' }],
   },
   {
     name: 'Draw Half',
     rings: [ring(box(3, 0, 2, 1))],
-    crops: ['barley', 'durum'],
+    rotation: ['barley', 'durum', 'canola'],
     hazards: [
       {
         kind: 'draw',
@@ -93,7 +94,7 @@ const FIELDS: DemoField[] = [
   {
     name: 'Bin Site Eighty',
     rings: [ring(box(1, 0, 1, 0.5))],
-    crops: ['field peas', 'barley'],
+    rotation: ['field peas', 'barley', 'spring wheat'],
     hazards: [{ kind: 'bin', geometry: point(1.9, 0.1), clearanceM: 15, note: 'Two bins on the road corner' }],
   },
   {
@@ -107,31 +108,31 @@ const FIELDS: DemoField[] = [
         [5, 0.65],
       ]),
     ],
-    crops: ['spring wheat', 'canola'],
+    rotation: ['spring wheat', 'canola', 'field peas'],
     hazards: [{ kind: 'neighbour', geometry: line([5, 0.65], [5.35, 1]), clearanceM: 3, note: "Neighbour's edge along the angled road" }],
   },
-  { name: 'Tamarack Flats', rings: [ring(box(2, 2, 2, 2))], crops: ['canola', 'spring wheat'] },
+  { name: 'Tamarack Flats', rings: [ring(box(2, 2, 2, 2))], rotation: ['canola', 'spring wheat', 'durum'] },
   {
     name: 'Schoolhouse Quarter',
     rings: [ring(box(4, 2, 1, 1))],
-    crops: ['durum', 'barley'],
+    rotation: ['durum', 'barley', 'canola'],
     hazards: [{ kind: 'power', geometry: point(4.5, 2.05), clearanceM: 8, note: 'Power pole with a guy wire' }],
   },
   {
     name: 'Rock Pile Quarter',
     rings: [ring(box(5, 2, 1, 1))],
-    crops: ['barley', 'field peas'],
+    rotation: ['barley', 'field peas', 'spring wheat'],
     hazards: [
       { kind: 'rock', geometry: area(blob(5.5, 2.6, 0.05, 8)), clearanceM: 5, note: 'Rock pile' },
       { kind: 'rock', geometry: point(5.2, 2.3), clearanceM: 3, note: 'Rock' },
     ],
   },
-  { name: 'East Half', rings: [ring(box(6, 0, 1, 2))], crops: ['spring wheat', 'durum'] },
-  { name: 'South Section', rings: [ring(box(0, -3, 2, 2))], crops: ['field peas', 'spring wheat'] },
+  { name: 'East Half', rings: [ring(box(6, 0, 1, 2))], rotation: ['spring wheat', 'durum', 'canola'] },
+  { name: 'South Section', rings: [ring(box(0, -3, 2, 2))], rotation: ['field peas', 'spring wheat', 'barley'] },
   {
     name: 'Coulee Section',
     rings: [ring(box(2, -3, 2, 2))],
-    crops: ['spring wheat', 'canola'],
+    rotation: ['spring wheat', 'canola', 'durum'],
     hazards: [
       {
         kind: 'draw',
@@ -141,22 +142,25 @@ const FIELDS: DemoField[] = [
       },
     ],
   },
-  { name: 'Railroad Eighty', rings: [ring(box(4, -1.5, 1, 0.5))], crops: ['canola', 'barley'] },
-  { name: 'West Half', rings: [ring(box(-1, 0, 1, 2))], crops: ['barley', 'durum'] },
+  { name: 'Railroad Eighty', rings: [ring(box(4, -1.5, 1, 0.5))], rotation: ['canola', 'barley', 'spring wheat'] },
+  { name: 'West Half', rings: [ring(box(-1, 0, 1, 2))], rotation: ['barley', 'durum', 'field peas'] },
 ];
 
+/** The crop a demo field grows in a season (its place in the field's rotation). */
+export function demoCrop(fieldName: string, season: number): string {
+  const f = FIELDS.find((x) => x.name === fieldName);
+  if (!f) throw new Error(`${fieldName} is not a demo field`);
+  return f.rotation[((season % 3) + 3) % 3];
+}
+
+/** The fields and their hazards; the crop plans come with the seasons' work (03_demo_fleet_crew.ts). */
 export const seedDemoFields: DemoStep = async (tx, { farmId }) => {
-  const season = new Date().getFullYear();
   for (const f of FIELDS) {
     const boundary = { type: 'Polygon' as const, coordinates: f.rings };
     const areaM2 = geodesicAreaM2(boundary);
     const [row] = await tx('fields')
       .insert({ farm_id: farmId, name: f.name, boundary: JSON.stringify(boundary), area_m2: areaM2, acres: areaM2 / ACRE_M2 })
       .returning('id');
-    await tx('crop_plans').insert([
-      { farm_id: farmId, field_id: row.id, season: season - 1, crop: f.crops[0] },
-      { farm_id: farmId, field_id: row.id, season, crop: f.crops[1] },
-    ]);
     for (const h of f.hazards ?? []) {
       await tx('hazards').insert({
         farm_id: farmId,

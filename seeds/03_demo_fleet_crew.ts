@@ -1,10 +1,13 @@
-// Fleet, crew skills, tomorrow's work board and two seasons of logged work for the fictional
-// Tamarack Ridge Farm. Everything here is invented; names are neutral, never a maker's.
+// Fleet, crew skills, crop plans, the planned days ahead and two seasons of logged work for the
+// fictional Tamarack Ridge Farm, as of the day the demo is loaded (demo-season.ts works out which
+// days). Everything here is invented; names are neutral, never a maker's.
 import { DateTime } from 'luxon';
 import type { Operation } from '../shared/operations';
 import { effectiveCapacityAcPerH } from '../shared/plan/field-capacity';
 import { implementDefaults, type ImplementKind } from '../shared/plan/implement-defaults';
 import { mToFt } from '../shared/units';
+import { demoCrop } from './02_demo_fields';
+import { demoYear, type DemoOperation, type DemoPerson, type DemoPiece } from './demo-season';
 import type { DemoStep } from './steps';
 
 const MACHINES = [
@@ -84,31 +87,30 @@ const SKILLS: Record<string, Partial<Record<Operation, 'qualified' | 'learning' 
   'milo@tamarack-ridge.example': { harrowing: 'learning' },
 };
 
-/** Which machine and implement, who, and when (month, first day) each operation of the year runs. */
-const SEASON: Array<{
-  op: Operation;
-  machine: MachineKey;
-  implement: string;
-  month: number;
-  day: number;
-  spread: number;
-  people: string[];
-}> = [
-  { op: 'harrowing', machine: '4wd1', implement: 'harrow', month: 4, day: 10, spread: 14, people: ['tomas', 'milo'] },
-  { op: 'seeding', machine: '4wd2', implement: 'drill', month: 4, day: 24, spread: 26, people: ['tomas', 'ada'] },
-  { op: 'spraying', machine: 'sprayer', implement: 'boom', month: 6, day: 4, spread: 22, people: ['ada'] },
-  { op: 'swathing', machine: 'swather', implement: 'swath', month: 8, day: 8, spread: 14, people: ['ada', 'tomas'] },
-  { op: 'combining', machine: 'combine', implement: 'draper', month: 8, day: 20, spread: 34, people: ['tomas', 'ingrid'] },
-];
+/** The machine and implement each operation of the season runs with. */
+const RIG: Record<DemoOperation, { machine: MachineKey; implement: string }> = {
+  harrowing: { machine: '4wd1', implement: 'harrow' },
+  seeding: { machine: '4wd2', implement: 'drill' },
+  spraying: { machine: 'sprayer', implement: 'boom' },
+  swathing: { machine: 'swather', implement: 'swath' },
+  combining: { machine: 'combine', implement: 'draper' },
+};
 
-/** This season's jobs left for tomorrow's board (and a called-off spraying day), so it has work to show. */
-const LEFT_FOR_TOMORROW = new Set(['North Section|seeding', 'Tamarack Flats|seeding', 'Slough Quarter|spraying']);
-/** Share of North Section harrowed this season before tomorrow; Milo harrows the rest. */
-const NORTH_HARROWED = 0.4;
+/** What the weather did on a day that was called off, by operation. */
+const CALL_OFF_NOTE = (op: DemoOperation) => (op === 'spraying' ? 'Wind over 15 mph by mid-morning' : 'Rain overnight; too wet to go');
+
+/** The owner's note on the first planned card of each operation. */
+const PLANNED_NOTE: Record<DemoOperation, string> = {
+  harrowing: 'Spread the straw rows evenly; keep the clearances shown on the map',
+  seeding: 'Check the seed depth after the first round',
+  spraying: 'Only if the wind is between 3 and 8 mph',
+  swathing: 'Swath when most seeds on the main stem have turned colour',
+  combining: 'Check the moisture of the first load before filling the bin',
+};
 
 const round = (n: number, d = 2) => Math.round(n * 10 ** d) / 10 ** d;
 
-export const seedDemoFleetCrew: DemoStep = async (tx, { farmId, users }) => {
+export const seedDemoFleetCrew: DemoStep = async (tx, { farmId, users, now }) => {
   const machineId = {} as Record<MachineKey, number>;
   const meter = {} as Record<MachineKey, number>;
   for (const [i, m] of MACHINES.entries()) {
@@ -141,7 +143,7 @@ export const seedDemoFleetCrew: DemoStep = async (tx, { farmId, users }) => {
 
   const memberships: Array<{ id: number; user_id: number }> = await tx('memberships').where({ farm_id: farmId }).select('id', 'user_id');
   const member = (email: string) => memberships.find((m) => m.user_id === users[email])!.id;
-  const person = (first: string) => member(`${first}@tamarack-ridge.example`);
+  const person = (first: DemoPerson) => member(`${first}@tamarack-ridge.example`);
   const skillRows = Object.entries(SKILLS).flatMap(([email, skills]) =>
     Object.entries(skills).map(([operation, level]) => ({ farm_id: farmId, membership_id: member(email), operation, level })),
   );
@@ -151,93 +153,74 @@ export const seedDemoFleetCrew: DemoStep = async (tx, { farmId, users }) => {
     .where({ farm_id: farmId })
     .orderBy('id')
     .select('id', 'name', 'acres');
-  const byName = (name: string) => fields.find((f) => f.name === name)!;
-  const crops: Array<{ field_id: number; season: number; crop: string }> = await tx('crop_plans')
-    .where({ farm_id: farmId })
-    .select('field_id', 'season', 'crop');
   const zone: string = (await tx('farms').where({ id: farmId }).first('time_zone')).time_zone;
-  const today = DateTime.now().setZone(zone).startOf('day');
-  const thisSeason = today.year;
+  const today = DateTime.fromJSDate(now ?? new Date())
+    .setZone(zone)
+    .startOf('day');
 
-  const jobs: Array<Record<string, unknown>> = [];
-  const runOrder = new Map<string, number>();
   const capacity = (key: string) => {
     const spec = IMPLEMENTS.find((i) => i.key === key)!;
     const d = implementDefaults(spec.kind);
     return effectiveCapacityAcPerH(mToFt(widthM[key]), d.speedMph, d.efficiency);
   };
-  const log = (job: {
-    day: DateTime;
-    fieldId: number;
-    op: Operation;
-    who: number;
-    mentor?: number;
-    machine: MachineKey;
-    implement: string;
-    acres: number;
-    calledOff?: string;
-  }) => {
-    const key = `${job.day.toISODate()}|${job.who}`;
+  const capacityAcPerH = Object.fromEntries(Object.entries(RIG).map(([op, r]) => [op, capacity(r.implement)])) as Record<
+    DemoOperation,
+    number
+  >;
+  const year = demoYear(
+    today,
+    (season) => fields.map((f) => ({ id: f.id, acres: Number(f.acres), crop: demoCrop(f.name, season) })),
+    capacityAcPerH,
+  );
+  await tx('crop_plans').insert(
+    year.cropSeasons.flatMap((season) => fields.map((f) => ({ farm_id: farmId, field_id: f.id, season, crop: demoCrop(f.name, season) }))),
+  );
+
+  // Each person's jobs of a day run in the order they were worked out; meters count up day by day.
+  const pieces = [...year.pieces].sort((a, b) => a.day.localeCompare(b.day));
+  const runOrder = new Map<string, number>();
+  const noted = new Set<string>();
+  const jobs = pieces.map((p: DemoPiece): Record<string, unknown> => {
+    const who = person(p.who);
+    const key = `${p.day}|${who}`;
     runOrder.set(key, (runOrder.get(key) ?? 0) + 1);
-    const hours = round((job.acres / capacity(job.implement)) * (0.9 + ((job.fieldId * 7 + job.day.day) % 5) * 0.06));
-    const startAt = job.day.set({ hour: 8 });
+    const { machine, implement } = RIG[p.op];
     const base = {
       farm_id: farmId,
-      day: job.day.toISODate(),
-      field_id: job.fieldId,
-      operation: job.op,
-      operator_id: job.who,
-      mentor_id: job.mentor ?? null,
-      machine_id: machineId[job.machine],
-      implement_id: implementId[job.implement],
+      day: p.day,
+      field_id: p.fieldId,
+      operation: p.op,
+      operator_id: who,
+      mentor_id: p.mentor ? person(p.mentor) : null,
+      machine_id: machineId[machine],
+      implement_id: implementId[implement],
       run_order: runOrder.get(key),
-      acres_planned: job.acres,
+      acres_planned: round(p.acres, 4),
     };
-    if (job.calledOff) {
-      jobs.push({ ...base, state: 'called-off', call_off_reason: 'weather', note: job.calledOff });
-      return;
+    if (p.outcome === 'rained-off') return { ...base, state: 'called-off', call_off_reason: 'weather', note: CALL_OFF_NOTE(p.op) };
+    if (p.outcome === 'open') {
+      const first = !noted.has(`${p.day}|${p.op}`);
+      noted.add(`${p.day}|${p.op}`);
+      return { ...base, note: first ? PLANNED_NOTE[p.op] : null };
     }
+    const day = DateTime.fromISO(p.day, { zone });
+    const hours = round((p.acres / capacityAcPerH[p.op]) * (0.9 + ((p.fieldId * 7 + day.day) % 5) * 0.06));
+    const startAt = day.set({ hour: 8 });
     const engine = round(hours * 1.12, 1);
-    jobs.push({
+    const row = {
       ...base,
       state: 'finished',
       started_at: startAt.toJSDate(),
       finished_at: startAt.plus({ hours }).toJSDate(),
-      acres_done: round(job.acres, 4),
+      acres_done: round(p.acres, 4),
       hours_worked: hours,
-      engine_hours_start: round(meter[job.machine], 1),
-      engine_hours_end: round(meter[job.machine] + engine, 1),
-    });
-    meter[job.machine] = round(meter[job.machine] + engine + 0.4, 1);
-  };
+      engine_hours_start: round(meter[machine], 1),
+      engine_hours_end: round(meter[machine] + engine, 1),
+    };
+    meter[machine] = round(meter[machine] + engine + 0.4, 1);
+    return row;
+  });
 
-  for (const season of [thisSeason - 1, thisSeason]) {
-    fields.forEach((f, i) => {
-      const crop = crops.find((c) => c.field_id === f.id && c.season === season)?.crop;
-      for (const s of SEASON) {
-        if (s.op === 'swathing' && crop !== 'canola') continue;
-        const day = DateTime.fromObject({ year: season, month: s.month, day: s.day }, { zone }).plus({ days: (i * 3) % s.spread });
-        if (day >= today) continue;
-        const pair = `${f.name}|${s.op}`;
-        const who = person(s.people[i % s.people.length]);
-        const mentor = who === person('milo') ? person('tomas') : undefined;
-        const job = { fieldId: f.id, op: s.op, who, mentor, machine: s.machine, implement: s.implement };
-        if (season === thisSeason && LEFT_FOR_TOMORROW.has(pair)) {
-          if (s.op === 'spraying') log({ ...job, day, acres: f.acres, calledOff: 'Wind over 15 mph by mid-morning' });
-          continue;
-        }
-        if (season === thisSeason && pair === 'North Section|harrowing') log({ ...job, day, acres: f.acres * NORTH_HARROWED });
-        else if (i % 4 === 1) {
-          // A field finished over two days: a partial finish, then the rest.
-          log({ ...job, day, acres: f.acres * 0.55 });
-          log({ ...job, day: day.plus({ days: 1 }), acres: f.acres * 0.45 });
-        } else if (season === thisSeason - 1 && i % 5 === 3) {
-          log({ ...job, day, acres: f.acres, calledOff: 'Rain overnight; too wet to go' });
-          log({ ...job, day: day.plus({ days: 2 }), acres: f.acres });
-        } else log({ ...job, day, acres: f.acres });
-      }
-    });
-  }
   const inserted: Array<{
     id: number;
     state: string;
@@ -249,9 +232,11 @@ export const seedDemoFleetCrew: DemoStep = async (tx, { farmId, users }) => {
     engine_hours_end: number | null;
     note: string | null;
     day: string;
-  }> = jobs.length
-    ? await tx('assignments')
-        .insert(jobs)
+  }> = [];
+  for (let i = 0; i < jobs.length; i += 500)
+    inserted.push(
+      ...(await tx('assignments')
+        .insert(jobs.slice(i, i + 500))
         .returning([
           'id',
           'state',
@@ -263,14 +248,15 @@ export const seedDemoFleetCrew: DemoStep = async (tx, { farmId, users }) => {
           'engine_hours_end',
           'note',
           'day',
-        ])
-    : [];
+        ])),
+    );
   const userOf = new Map(memberships.map((m) => [m.id, m.user_id]));
   const events = inserted.flatMap((a): Array<Record<string, unknown>> => {
     const by = userOf.get(a.operator_id) ?? null;
     const base = { farm_id: farmId, assignment_id: a.id, by_user_id: by };
     if (a.state === 'called-off')
       return [{ ...base, type: 'call-off', at: DateTime.fromISO(`${a.day}T07:30`, { zone }).toJSDate(), reason: 'weather', note: a.note }];
+    if (a.state !== 'finished') return [];
     return [
       { ...base, type: 'start', at: a.started_at, engine_hours: a.engine_hours_start },
       { ...base, type: 'finish', at: a.finished_at, engine_hours: a.engine_hours_end, acres: a.acres_done },
@@ -287,67 +273,15 @@ export const seedDemoFleetCrew: DemoStep = async (tx, { farmId, users }) => {
       .update({ engine_hours: meter[m.key], hours_at_last_service: round(lastService, 1) });
   }
 
-  // Tomorrow: Milo harrows North Section, mentored by Tomas who seeds beside him, then Tomas seeds
-  // Tamarack Flats; Ada sprays Slough Quarter (called off for wind earlier in the season).
-  const tomorrow = today.plus({ days: 1 }).toISODate()!;
-  const north = byName('North Section');
-  await tx('assignments').insert([
-    {
+  // The planned days ahead: the owner has laid out the next days with work (not yet published).
+  for (const day of year.plannedDays) {
+    await tx('board_days').insert({ farm_id: farmId, day, version: 1 });
+    await tx('board_changes').insert({
       farm_id: farmId,
-      day: tomorrow,
-      field_id: north.id,
-      operation: 'harrowing',
-      operator_id: person('milo'),
-      mentor_id: person('tomas'),
-      machine_id: machineId['4wd1'],
-      implement_id: implementId.harrow,
-      run_order: 1,
-      acres_planned: round(north.acres * (1 - NORTH_HARROWED), 4),
-      note: 'Stay on the south half until Tomas has the drill going',
-    },
-    {
-      farm_id: farmId,
-      day: tomorrow,
-      field_id: north.id,
-      operation: 'seeding',
-      operator_id: person('tomas'),
-      machine_id: machineId['4wd2'],
-      implement_id: implementId.drill,
-      run_order: 1,
-      acres_planned: 200,
-      note: 'Check the seed depth after the first round',
-    },
-    {
-      farm_id: farmId,
-      day: tomorrow,
-      field_id: byName('Tamarack Flats').id,
-      operation: 'seeding',
-      operator_id: person('tomas'),
-      machine_id: machineId['4wd2'],
-      implement_id: implementId.drill,
-      run_order: 2,
-      acres_planned: 80,
-      note: null,
-    },
-    {
-      farm_id: farmId,
-      day: tomorrow,
-      field_id: byName('Slough Quarter').id,
-      operation: 'spraying',
-      operator_id: person('ada'),
-      machine_id: machineId.sprayer,
-      implement_id: implementId.boom,
-      run_order: 1,
-      acres_planned: byName('Slough Quarter').acres,
-      note: 'Only if the wind is between 3 and 8 mph',
-    },
-  ]);
-  await tx('board_days').insert({ farm_id: farmId, day: tomorrow, version: 1 });
-  await tx('board_changes').insert({
-    farm_id: farmId,
-    day: tomorrow,
-    version: 1,
-    by_user_id: users['ingrid@tamarack-ridge.example'],
-    summary: 'Planned the day',
-  });
+      day,
+      version: 1,
+      by_user_id: users['ingrid@tamarack-ridge.example'],
+      summary: 'Planned the day',
+    });
+  }
 };

@@ -2,10 +2,15 @@ import type { Knex } from 'knex';
 import { seedDemoFields } from './02_demo_fields';
 import { seedDemoFleetCrew } from './03_demo_fleet_crew';
 
-/** What each demo step gets: the new farm and the demo people's user ids by e-mail. */
+/**
+ * What each demo step gets: the new farm, the demo people's user ids by e-mail, and the instant the
+ * demo is loaded as of (the real clock unless a test says otherwise; its day is counted in the farm's
+ * time zone).
+ */
 export interface DemoContext {
   farmId: number;
   users: Record<string, number>;
+  now?: Date;
 }
 
 export type DemoStep = (tx: Knex.Transaction, ctx: DemoContext) => Promise<void>;
