@@ -9,6 +9,8 @@ export interface DbPlanRow {
   field_name: string;
   operation: Operation;
   implement_id: number | null;
+  implement_name: string | null;
+  implement_width_m: number | null;
   width_m: number;
   headland_passes: number;
   heading_deg: number | null;
@@ -38,8 +40,15 @@ export interface PlanWrite {
   updated_by: number;
 }
 
+// The implement's width comes along so a plan worked at another width can say so beside it.
 const plans = (db: Tx, farmId: number) =>
-  db('pass_plans as p').join('fields as f', 'f.id', 'p.field_id').where('p.farm_id', farmId).select('p.*', 'f.name as field_name');
+  db('pass_plans as p')
+    .join('fields as f', 'f.id', 'p.field_id')
+    .leftJoin('implements as i', function () {
+      this.on('i.id', 'p.implement_id').andOn('i.farm_id', 'p.farm_id');
+    })
+    .where('p.farm_id', farmId)
+    .select('p.*', 'f.name as field_name', 'i.name as implement_name', 'i.width_m as implement_width_m');
 
 export async function listPlanRows(db: Tx, farmId: number, fieldId?: number): Promise<DbPlanRow[]> {
   const q = plans(db, farmId).orderBy(['f.name', 'p.operation']);

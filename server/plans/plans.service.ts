@@ -41,6 +41,7 @@ function inputOf(s: Settings, operation: Operation | undefined): Omit<PlanInput,
     widthM: s.widthM,
     headlandPasses: s.headlandPasses,
     headingDeg: s.headingDeg,
+    edgeMarginPct: s.edgeMarginPct,
     speedMph: s.speedMph,
     efficiency: s.efficiency,
     turnSeconds: s.turnSeconds,
@@ -73,6 +74,8 @@ const toSaved = (r: repo.DbPlanRow): SavedPlan => ({
   fieldName: r.field_name,
   operation: r.operation,
   implementId: r.implement_id,
+  implementName: r.implement_name,
+  implementWidthM: r.implement_width_m === null ? null : Number(r.implement_width_m),
   widthM: r.width_m,
   headlandPasses: r.headland_passes,
   headingDeg: r.heading_deg,
@@ -105,6 +108,7 @@ export async function getPlan(
     widthM: saved.widthM,
     headlandPasses: saved.headlandPasses,
     headingDeg: saved.headingDeg ?? saved.summary.headingDeg,
+    edgeMarginPct: saved.summary.edgeMarginPct,
     speedMph: saved.speedMph,
     efficiency: saved.efficiency,
     turnSeconds: saved.turnSeconds,
@@ -121,12 +125,14 @@ export async function savePlan(
   operation: Operation,
   s: Settings,
 ): Promise<SavedPlan & { result: PlanResult }> {
+  // The implement is checked before the plan is computed: a refusal costs no compute, and names
+  // the form's field so the form can mark it.
+  if (s.implementId && !(await getImplement(deps.db, farmId, s.implementId)))
+    throw new AppError(422, 'bad_implement', 'That implement is not in this farm’s fleet', {
+      implementId: 'Choose an implement of this farm’s fleet',
+    });
   const { field, hazards } = await fieldInput(deps, farmId, fieldId);
   const result = await computePlan(deps, { ...inputOf(s, operation), boundary: field.boundary, hazards, fieldName: field.name });
-  if (s.implementId) {
-    if (!(await getImplement(deps.db, farmId, s.implementId)))
-      throw new AppError(422, 'bad_implement', 'That implement is not in this farm’s fleet');
-  }
   await repo.upsertPlan(deps.db, {
     farm_id: farmId,
     field_id: fieldId,

@@ -4,7 +4,7 @@ import { projectionForField } from '../geo/local-projection';
 import { MAX_PASSES } from '../limits';
 import { roundTo } from '../round';
 import { HOUR_S, m2ToAcres, mphToKmh, mphToMps, mToFt } from '../units';
-import { bestHeading, turnsOf } from './auto-heading';
+import { chooseHeading, longStraightEdges, turnsOf, type HeadingChoice } from './auto-heading';
 import { effectiveCapacityAcPerH, effectiveCapacityHaPerH } from './field-capacity';
 import { feet, fieldName } from './format';
 import { difference, hazardZones, offset, readJsts, writePolygonal } from './jsts-ops';
@@ -35,6 +35,9 @@ const WARN_ACRES = 0.01;
  *
  * Hours = (pass length + headland laps) ÷ speed + turns × turn time. Field efficiency is not
  * applied to it (turn time is already counted); `capacityHours` gives the AEN-73 rule-of-thumb twin.
+ * Auto heading takes the least of these hours, preferring a heading along a long straight edge of
+ * the field within `edgeMarginPct` (see chooseHeading); the best few headings come back as
+ * `headingCandidates`.
  *
  * @param input field, implement and way of working (see PlanInput)
  * @returns numbers and lon/lat geometries for the map
@@ -80,7 +83,29 @@ export function planPasses(input: PlanInput): PlanResult {
   const clipper = createPassClipper(region, w);
 
   const speedMps = mphToMps(p.speedMph);
-  const heading = p.heading === 'auto' ? bestHeading(clipper, region, speedMps, p.turnSeconds).headingDeg : p.heading;
+  const headlandLengthM = headlandLapsM(fieldJ.getLength(), interiorJ.getLength(), p.headlandPasses);
+  // The headings weighed for auto are offered to the owner whatever the heading in use, so a
+  // heading chosen by hand can be compared with them; with a hand-set heading a scan that cannot
+  // be done (every heading over budget) only leaves the list empty.
+  const weigh = (): HeadingChoice =>
+    chooseHeading(clipper, region, longStraightEdges(boundaryXY), {
+      speedMps,
+      turnSeconds: p.turnSeconds,
+      fixedDistanceM: headlandLengthM,
+      widthM: w,
+      coverage: p.coverage,
+      edgeMarginPct: p.edgeMarginPct,
+    });
+  let choice: HeadingChoice | null;
+  if (p.heading === 'auto') choice = weigh();
+  else {
+    try {
+      choice = weigh();
+    } catch {
+      choice = null;
+    }
+  }
+  const heading = p.heading === 'auto' ? choice!.chosen.headingDeg : p.heading;
   let clipped = clipper.clip(heading);
   const warnings: string[] = [];
   if (p.coverage === 'full') {
@@ -92,8 +117,6 @@ export function planPasses(input: PlanInput): PlanResult {
       `No pass fits in ${field} at heading ${roundTo(heading, 1)}°: what is left to work is narrower than half the working width (${feet(w / 2)})`,
     );
   const cover = swathCoverage(region, clipped, w);
-
-  const headlandLengthM = headlandLapsM(fieldJ.getLength(), interiorJ.getLength(), p.headlandPasses);
 
   const interiorM2 = interiorJ.getArea() * scale;
   const workM2 = regionAreaM2(region) * scale;
@@ -136,6 +159,8 @@ export function planPasses(input: PlanInput): PlanResult {
     unworkedAcres,
     overlapAcres,
     headingDeg: heading,
+    headingCandidates: choice?.candidates ?? [],
+    edgeMarginPct: p.edgeMarginPct,
     passCount: c.passCount,
     segmentCount: c.segmentCount,
     turns,

@@ -1,6 +1,7 @@
 import type { FeatureCollection, MultiPolygon, Polygon } from 'geojson';
 import { assertBoundary } from '../geo/boundary-check';
 import { MAX_HAZARD_VERTICES } from '../limits';
+import { DEFAULT_EDGE_MARGIN_PCT, MAX_EDGE_MARGIN_PCT } from './auto-heading';
 import { DEFAULT_TURN_SECONDS, implementDefaults, IMPLEMENT_DEFAULTS } from './implement-defaults';
 import { fieldName } from './format';
 import type { PlanInput } from './types';
@@ -13,6 +14,7 @@ export interface ResolvedPlanInput {
   widthM: number;
   headlandPasses: number;
   heading: number | 'auto';
+  edgeMarginPct: number;
   speedMph: number;
   efficiency: number;
   turnSeconds: number;
@@ -60,7 +62,7 @@ function checkHazards(hazards: unknown, field: string): FeatureCollection | unde
 
 /**
  * Checks a plan input and fills in its defaults; throws an Error a farmer can act on when a value is
- * wrong. Defaults: 2 headland passes, heading 'auto', speed and efficiency from the implement kind
+ * wrong. Defaults: 2 headland passes, heading 'auto' with a 3 % edge margin, speed and efficiency from the implement kind
  * (else 5 mph and 0.75), 20 s per turn (common practice, no published source), 'gaps-ok'.
  *
  * @param input the plan input as received
@@ -80,6 +82,9 @@ export function resolvePlanInput(input: PlanInput): ResolvedPlanInput {
     const hint = finite(heading) && heading >= 180 && heading < 360 ? `; ${heading}° drives the same lines as ${heading - 180}°` : '';
     throw new Error(`The heading must be 'auto' or from 0° up to (not including) 180° (got ${String(heading)})${hint}`);
   }
+  const edgeMarginPct = input.edgeMarginPct ?? DEFAULT_EDGE_MARGIN_PCT;
+  if (!finite(edgeMarginPct) || edgeMarginPct < 0 || edgeMarginPct > MAX_EDGE_MARGIN_PCT)
+    throw new Error(`The margin for keeping the passes along an edge must be 0 to ${MAX_EDGE_MARGIN_PCT} % (got ${String(edgeMarginPct)})`);
   if (input.implementKind !== undefined && !(input.implementKind in IMPLEMENT_DEFAULTS))
     throw new Error(`Unknown implement kind '${String(input.implementKind)}'; use one of ${Object.keys(IMPLEMENT_DEFAULTS).join(', ')}`);
   const defaults = implementDefaults(input.implementKind);
@@ -102,6 +107,7 @@ export function resolvePlanInput(input: PlanInput): ResolvedPlanInput {
     widthM,
     headlandPasses,
     heading,
+    edgeMarginPct,
     speedMph,
     efficiency,
     turnSeconds,

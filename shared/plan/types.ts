@@ -1,4 +1,5 @@
 import type { FeatureCollection, LineString, MultiPolygon, Polygon } from 'geojson';
+import type { HeadingCandidate } from './auto-heading';
 import type { ImplementKind } from './implement-defaults';
 
 /** What to plan: one field, one implement, one way of working it. */
@@ -13,8 +14,14 @@ export interface PlanInput {
   widthM: number;
   /** Laps around the edge before the passes; integer ≥ 0, default 2. */
   headlandPasses?: number;
-  /** Degrees clockwise from true north, 0 ≤ h < 180, or 'auto' (fewest turns); default 'auto'. */
+  /** Degrees clockwise from true north, 0 ≤ h < 180, or 'auto' (least field time); default 'auto'. */
   headingDeg?: number | 'auto';
+  /**
+   * Auto heading takes a heading along one of the field's long straight edges when its field time
+   * is at most this many per cent above the fastest heading's; 0 to 25, default 3 (common practice:
+   * passes along the fence line; no published source).
+   */
+  edgeMarginPct?: number;
   /** Implement kind; gives default speed and field efficiency. */
   implementKind?: ImplementKind;
   /** Working speed, mph; default from the implement kind, else 5. */
@@ -47,6 +54,13 @@ export interface PlanResult {
   unworkedAcres: number;
   overlapAcres: number;
   headingDeg: number;
+  /**
+   * The best few headings by field time (the one auto chooses first), each with its hours, passes
+   * and turns, so the owner can pick another; empty when no heading could be weighed.
+   */
+  headingCandidates: HeadingCandidate[];
+  /** The margin auto heading used to prefer a heading along a long straight edge, per cent. */
+  edgeMarginPct: number;
   passCount: number;
   segmentCount: number;
   turns: number;

@@ -1,22 +1,35 @@
 import { z } from 'zod';
 import { OPERATIONS } from '../operations';
+import { MAX_EDGE_MARGIN_PCT } from '../plan/auto-heading';
 import { IMPLEMENT_DEFAULTS, type ImplementKind } from '../plan/implement-defaults';
 import type { PlanResult } from '../plan/types';
 import { dbId, dbIdNumber } from './common';
 import { geometry } from './fields';
+
+/** The heading box's rule, in the words the form shows under it. */
+export const HEADING_RANGE = 'Enter a heading from 0 to 179°';
+const EDGE_MARGIN_RANGE = `The margin for passes along an edge is 0 to ${MAX_EDGE_MARGIN_PCT} %`;
 
 const kinds = Object.keys(IMPLEMENT_DEFAULTS) as [ImplementKind, ...ImplementKind[]];
 
 /** The settings of a pass plan, as the Pass plan screen sends them. Widths in metres. */
 export const planSettings = z.object({
   widthM: z.number().positive('The working width must be greater than zero').max(100, 'The working width is at most 100 m (328 ft)'),
-  headlandPasses: z.number().int('Headland passes are a whole number').min(0).max(50).optional(),
-  headingDeg: z
-    .union([z.literal('auto'), z.number().min(0, 'The heading is from 0° to 179°').lt(180, 'The heading is from 0° to 179°')])
+  headlandPasses: z
+    .number()
+    .int('Headland passes are a whole number')
+    .min(0, 'Headland passes are 0 to 50')
+    .max(50, 'Headland passes are 0 to 50')
     .optional(),
-  speedMph: z.number().positive().max(60).optional(),
-  efficiency: z.number().gt(0).max(1, 'Field efficiency is a fraction up to 1 (e.g. 0.75)').optional(),
-  turnSeconds: z.number().min(0).max(600).optional(),
+  headingDeg: z.union([z.literal('auto'), z.number().min(0, HEADING_RANGE).lt(180, HEADING_RANGE)], { message: HEADING_RANGE }).optional(),
+  edgeMarginPct: z.number().min(0, EDGE_MARGIN_RANGE).max(MAX_EDGE_MARGIN_PCT, EDGE_MARGIN_RANGE).optional(),
+  speedMph: z.number().positive('The speed must be above zero').max(60, 'The speed is at most 60 mph (97 km/h)').optional(),
+  efficiency: z
+    .number()
+    .gt(0, 'Field efficiency is above 0 and at most 100 %')
+    .max(1, 'Field efficiency is above 0 and at most 100 %')
+    .optional(),
+  turnSeconds: z.number().min(0, 'A turn takes 0 to 600 seconds').max(600, 'A turn takes 0 to 600 seconds').optional(),
   coverage: z.enum(['gaps-ok', 'full']).optional(),
   implementKind: z.enum(kinds).optional(),
   implementId: dbIdNumber.nullable().optional(),
@@ -50,9 +63,12 @@ export interface SavedPlan {
   fieldName: string;
   operation: (typeof OPERATIONS)[number];
   implementId: number | null;
+  /** The chosen implement's name and working width, m (null without one); the plan's width may differ. */
+  implementName: string | null;
+  implementWidthM: number | null;
   widthM: number;
   headlandPasses: number;
-  /** null: auto (the heading with the fewest turns). */
+  /** null: auto (the heading with the least field time, along an edge when nearly as fast). */
   headingDeg: number | null;
   coverage: 'gaps-ok' | 'full';
   speedMph: number;
