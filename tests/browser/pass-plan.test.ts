@@ -56,9 +56,19 @@ describe('the Pass plan screen in a real browser', () => {
     await page.goto(link());
     await page.getByRole('heading', { level: 1, name: 'Pass plan' }).waitFor();
     await page.getByLabel('Working width (ft)').fill('60');
-    await page.getByRole('switch', { name: 'Auto (fewest turns)' }).waitFor();
-    if (await page.getByRole('switch', { name: 'Auto (fewest turns)' }).isChecked()) {
-      await page.getByRole('switch', { name: 'Auto (fewest turns)' }).click();
+    // The demo harrow works 84 ft: planning it at 60 ft is a visible warning beside the width.
+    await page.getByText('84 ft heavy harrow works 84 ft; this plan uses 60 ft.').waitFor();
+    await screenshot(page, 'pass-plan-width-warning');
+    // Auto offers its best headings with their time, passes and turns; the first is along an edge.
+    const offered = page.getByRole('table', { name: 'Best headings' });
+    await offered.waitFor();
+    expect(await offered.locator('tbody tr').count()).toBeGreaterThanOrEqual(2);
+    expect(await offered.locator('tbody tr').first().innerText()).toMatch(/along an edge/);
+    await offered.scrollIntoViewIfNeeded();
+    await screenshot(page, 'pass-plan-heading-candidates');
+    await page.getByRole('switch', { name: 'Auto (least field time)' }).waitFor();
+    if (await page.getByRole('switch', { name: 'Auto (least field time)' }).isChecked()) {
+      await page.getByRole('switch', { name: 'Auto (least field time)' }).click();
     }
 
     await page.getByLabel('Heading (°)').fill('45');
@@ -85,6 +95,14 @@ describe('the Pass plan screen in a real browser', () => {
     await page.getByRole('link', { name: /Download passes \(GeoJSON\)/ }).waitFor();
     expect(await seriousViolations(page)).toEqual([]);
     await screenshot(page, 'pass-plan-owner');
+
+    // A heading outside 0–179 is marked where it is typed, Save is off, and no internal name shows.
+    await page.getByLabel('Heading (°)').fill('200');
+    await page.getByText('Enter a heading from 0 to 179°').first().waitFor();
+    expect(await page.getByRole('button', { name: 'Save plan' }).isDisabled()).toBe(true);
+    expect(await page.locator('body').innerText()).not.toMatch(/headingDeg|widthM/);
+    await screenshot(page, 'pass-plan-heading-invalid');
+    await page.getByLabel('Heading (°)').fill('0');
 
     // A width the planner refuses shows its message, not NaN, and the map is kept, marked out of date.
     await page.getByLabel('Working width (ft)').fill('5000');

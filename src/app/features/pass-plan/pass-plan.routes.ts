@@ -1,4 +1,5 @@
 import type { Routes } from '@angular/router';
+import { unsavedChangesGuard } from '../../shared/forms/unsaved-changes.guard';
 import { providePlanWorker } from './provide-plan-worker';
 
 export const PASS_PLAN_ROUTES: Routes = [
@@ -6,6 +7,7 @@ export const PASS_PLAN_ROUTES: Routes = [
     path: '',
     title: 'Pass plan · Furlong',
     providers: [providePlanWorker()],
+    canDeactivate: [unsavedChangesGuard],
     loadComponent: () => import('./pass-plan-page/pass-plan-page').then((m) => m.PassPlanPage),
   },
 ];

@@ -1,6 +1,18 @@
 import type { Implement } from '@shared/schemas/fleet';
 import { FIELD, savedPlan } from './plan-fixtures';
-import { type PlanSettings, defaultSettings, sameAsSaved, settingsBody, settingsFromSaved, toPlanInput } from './plan-settings';
+import { planPreviewBody } from '@shared/schemas/plans';
+import { placeServerErrors } from '../../shared/forms/field-labels';
+import { ApiError } from '../../core/http/api-error';
+import {
+  PASS_PLAN_FIELDS,
+  type PlanSettings,
+  defaultSettings,
+  sameAsSaved,
+  settingsBody,
+  settingsFromSaved,
+  settingsProblems,
+  toPlanInput,
+} from './plan-settings';
 
 const HARROW: Implement = {
   id: 4,
@@ -25,6 +37,7 @@ const US: PlanSettings = {
   efficiencyPct: 85,
   turnSeconds: 20,
   coverage: 'gaps-ok',
+  edgeMarginPct: 3,
 };
 
 describe('plan settings', () => {
@@ -100,5 +113,36 @@ describe('plan settings', () => {
     expect(sameAsSaved({ ...s, autoHeading: false }, saved, 'us')).toBe(false);
     expect(sameAsSaved({ ...s, width: 80 }, saved, 'us')).toBe(false);
     expect(sameAsSaved({ ...s, width: null }, saved, 'us')).toBe(false);
+  });
+
+  it('when the API body has a key, then the form maps it to a box and its label (so a refusal never shows the key)', () => {
+    for (const key of Object.keys(planPreviewBody.shape)) {
+      expect(PASS_PLAN_FIELDS[key]?.label).toMatch(/^[A-Z][a-z ]+$/);
+    }
+  });
+
+  it('when the server names keys, then the boxes get the messages and the sentence names the labels only', () => {
+    const err = new ApiError(400, 'invalid_input', 'Check the form: widthM: too wide', {
+      widthM: 'Too wide',
+      headingDeg: 'Enter a heading from 0 to 179°',
+    });
+    const placed = placeServerErrors(err, PASS_PLAN_FIELDS);
+    expect(placed.byControl).toEqual({ width: 'Too wide', heading: 'Enter a heading from 0 to 179°' });
+    expect(placed.message).toBe('Check Working width and Heading.');
+    const unknown = placeServerErrors(
+      new ApiError(400, 'invalid_input', 'Check the form: colour: no', { colour: 'No such thing' }),
+      PASS_PLAN_FIELDS,
+    );
+    expect(unknown).toEqual({ byControl: {}, message: 'No such thing' });
+  });
+
+  it('when the heading typed is outside 0 to 179, then the heading box says so, in plain words', () => {
+    expect(settingsProblems({ ...US, headingDeg: 180 }, 'us').byControl).toEqual({ heading: 'Enter a heading from 0 to 179°' });
+    expect(settingsProblems({ ...US, headingDeg: -1 }, 'us').message).toBe('Check Heading: Enter a heading from 0 to 179°');
+    expect(settingsProblems({ ...US, autoHeading: true, headingDeg: 400 }, 'us').byControl).toEqual({});
+    expect(settingsProblems({ ...US, width: null }, 'metric')).toEqual({
+      byControl: { width: 'Enter the working width in metres' },
+      message: 'Fill in Working width.',
+    });
   });
 });

@@ -3,7 +3,9 @@ import { DEFAULT_TURN_SECONDS, implementDefaults, type ImplementKind } from '@sh
 import type { PlanInput } from '@shared/plan/types';
 import type { UnitSystem } from '@shared/schemas/auth';
 import type { Implement } from '@shared/schemas/fleet';
-import type { SavedPlan } from '@shared/schemas/plans';
+import { DEFAULT_EDGE_MARGIN_PCT } from '@shared/plan/auto-heading';
+import { HEADING_RANGE, planSettings, type SavedPlan } from '@shared/schemas/plans';
+import { type FormFields, type PlacedProblems, schemaProblems } from '../../shared/forms/field-labels';
 import { roundTo } from '@shared/round';
 import { ftToM, mphToKmh, mToFt } from '@shared/units';
 
@@ -18,7 +20,7 @@ export interface PlanSettings {
   /** Working width, ft (US) or m (metric). */
   width: number | null;
   headlandPasses: number | null;
-  /** True: the planner picks the heading with the fewest turns. */
+  /** True: the planner picks the heading with the least field time (along an edge when nearly as fast). */
   autoHeading: boolean;
   /** Degrees clockwise from true north, 0–179, used when autoHeading is off. */
   headingDeg: number;
@@ -28,6 +30,8 @@ export interface PlanSettings {
   efficiencyPct: number | null;
   turnSeconds: number | null;
   coverage: CoverageRule;
+  /** Auto heading keeps the passes along a long edge when at most this many per cent slower. */
+  edgeMarginPct: number | null;
 }
 
 /** The body of `PUT /api/plans/:fieldId/:operation` (planSettings in shared/schemas/plans.ts). */
@@ -41,7 +45,30 @@ export interface PlanSettingsBody {
   coverage: CoverageRule;
   implementKind: ImplementKind;
   implementId: number | null;
+  edgeMarginPct: number;
 }
+
+/**
+ * Each key of the plan's API body (preview and save) and the box it is typed in, by its label: a
+ * refusal names the box, never the key. The spec checks every key of the schemas is here.
+ */
+export const PASS_PLAN_FIELDS: FormFields = {
+  widthM: { control: 'width', label: 'Working width' },
+  headlandPasses: { control: 'headlandPasses', label: 'Headland passes' },
+  headingDeg: { control: 'heading', label: 'Heading' },
+  edgeMarginPct: { control: 'edgeMargin', label: 'Keep passes along an edge' },
+  speedMph: { control: 'speed', label: 'Speed' },
+  efficiency: { control: 'efficiency', label: 'Field efficiency' },
+  turnSeconds: { control: 'turnSeconds', label: 'Seconds per turn' },
+  coverage: { control: 'coverage', label: 'Coverage' },
+  implementKind: { control: 'implementKind', label: 'Implement kind' },
+  implementId: { control: 'implement', label: 'Implement' },
+  fieldId: { control: 'field', label: 'Field' },
+  boundary: { control: 'field', label: 'Field' },
+  hazards: { control: 'field', label: 'Field' },
+  fieldName: { control: 'field', label: 'Field' },
+  operation: { control: 'operation', label: 'Operation' },
+};
 
 export const DEFAULT_HEADLAND_PASSES = 2;
 
@@ -77,6 +104,7 @@ export function defaultSettings(operation: Operation, fleet: readonly Implement[
     ...kindDefaults(kind, system),
     turnSeconds: DEFAULT_TURN_SECONDS,
     coverage: info.coverage,
+    edgeMarginPct: DEFAULT_EDGE_MARGIN_PCT,
   };
 }
 
@@ -94,6 +122,8 @@ export function settingsFromSaved(saved: SavedPlan, fleet: readonly Implement[],
     efficiencyPct: roundTo(saved.efficiency * 100, 1),
     turnSeconds: saved.turnSeconds,
     coverage: saved.coverage,
+    // Plans saved before the margin existed used the default.
+    edgeMarginPct: saved.summary.edgeMarginPct ?? DEFAULT_EDGE_MARGIN_PCT,
   };
 }
 
@@ -120,7 +150,47 @@ export function settingsBody(s: PlanSettings, system: UnitSystem): PlanSettingsB
     coverage: s.coverage,
     implementKind: s.implementKind,
     implementId: s.implementId,
+    edgeMarginPct: required(s.edgeMarginPct, 'the margin for passes along an edge in per cent'),
   };
+}
+
+/** The message for an empty box, by control (the schema cannot see an empty box: it is no number). */
+const EMPTY: Record<string, (system: UnitSystem) => string> = {
+  width: (u) => `Enter the working width in ${u === 'metric' ? 'metres' : 'feet'}`,
+  headlandPasses: () => 'Enter the headland passes (0 for none)',
+  heading: () => HEADING_RANGE,
+  speed: (u) => `Enter the speed in ${u === 'metric' ? 'km/h' : 'mph'}`,
+  efficiency: () => 'Enter the field efficiency in per cent',
+  turnSeconds: () => 'Enter the seconds per turn',
+  edgeMargin: () => 'Enter the margin in per cent (3 is usual)',
+};
+const isEmpty = (v: number | null): boolean => v === null || !Number.isFinite(v);
+
+/**
+ * The form's problems by box, as it is typed: empty boxes, then the shared schema's checks on the
+ * body (the same the server makes), each under its box, with one sentence naming the boxes.
+ *
+ * @example settingsProblems({ …, autoHeading: false, headingDeg: 200 }, 'us').byControl.heading // 'Enter a heading from 0 to 179°'
+ */
+export function settingsProblems(s: PlanSettings, system: UnitSystem): PlacedProblems {
+  const empty: Record<string, number | null> = {
+    width: s.width,
+    headlandPasses: s.headlandPasses,
+    heading: s.autoHeading ? 0 : s.headingDeg,
+    speed: s.speed,
+    efficiency: s.efficiencyPct,
+    turnSeconds: s.turnSeconds,
+    edgeMargin: s.edgeMarginPct,
+  };
+  const missing = Object.entries(empty).filter(([, v]) => isEmpty(v));
+  if (missing.length) {
+    const byControl = Object.fromEntries(missing.map(([c]) => [c, EMPTY[c](system)]));
+    const labels = Object.values(PASS_PLAN_FIELDS)
+      .filter((f, i, all) => f.control in byControl && all.findIndex((g) => g.control === f.control) === i)
+      .map((f) => f.label);
+    return { byControl, message: `Fill in ${labels.join(', ')}.` };
+  }
+  return schemaProblems(planSettings, settingsBody(s, system), PASS_PLAN_FIELDS);
 }
 
 /** What the planner needs for one field, from the form; throws like {@link settingsBody}. */
@@ -146,6 +216,7 @@ export function sameAsSaved(s: PlanSettings, saved: SavedPlan, system: UnitSyste
       close(b.efficiency, saved.efficiency) &&
       close(b.turnSeconds, saved.turnSeconds) &&
       b.coverage === saved.coverage &&
+      (b.headingDeg !== 'auto' || close(b.edgeMarginPct, saved.summary.edgeMarginPct ?? DEFAULT_EDGE_MARGIN_PCT)) &&
       (b.implementId ?? null) === (saved.implementId ?? null)
     );
   } catch {

@@ -15,11 +15,16 @@ describe('summaryRows', () => {
     expect(rows['turns'].value).toBe('30');
     // 27,200 m ÷ 1,609.344 m per mile = 16.9 mi.
     expect(rows['distance'].value).toBe('16.9 mi');
-    expect(rows['hours'].value).toBe('2.8 h');
-    expect(rows['hours'].note).toContain('capacity rule 3.1 h');
-    expect(rows['hours'].note).toContain('7.0 mph');
+    expect(rows['hours']).toMatchObject({ label: 'Hours: driving and turns', value: '2.8 h' });
+    expect(rows['hours'].note).toBe('driving every pass and headland lap at 7.0 mph, plus 20 s for each of the 30 turns; no stops');
+    expect(rows['capacityHours']).toMatchObject({ label: 'Hours: rule of thumb', value: '3.1 h' });
+    expect(rows['capacityHours'].note).toContain('width × speed × field efficiency 85 %');
+    // The published source sits in the tooltip, not in the words on the card.
+    expect(rows['capacityHours'].note).not.toMatch(/AEN|Kentucky|GRDC/);
+    expect(rows['capacityHours'].source).toContain('AEN-73, University of Kentucky (1991)');
     expect(rows['capacity']).toMatchObject({ label: 'Acres per hour', value: '51.5 ac/h' });
-    expect(rows['capacity'].note).toContain('÷ 8.25 (AEN-73)');
+    expect(rows['capacity'].note).toBe('width (ft) × speed (mph) × field efficiency ÷ 8.25');
+    expect(rows['capacity'].source).toContain('AEN-73');
     expect(rows['heading']).toMatchObject({ value: '90°', note: 'degrees clockwise from north' });
   });
 
@@ -29,8 +34,9 @@ describe('summaryRows', () => {
     expect(rows['field'].value).toBe('64.6 ha');
     expect(rows['distance'].value).toBe('27.2 km');
     expect(rows['capacity']).toMatchObject({ label: 'Hectares per hour', value: '20.8 ha/h' });
-    expect(rows['capacity'].note).toContain('÷ 10 (GRDC)');
-    expect(rows['heading'].note).toBe('chosen for the fewest turns');
+    expect(rows['capacity'].note).toBe('speed (km/h) × width (m) × field efficiency ÷ 10');
+    expect(rows['capacity'].source).toContain('GRDC');
+    expect(rows['heading'].note).toBe('chosen for the least field time, along an edge when nearly as fast');
   });
 
   it('when no skip is allowed, then the overlap shows instead of the unworked area', () => {

@@ -9,9 +9,18 @@ export interface SummaryRow {
   key: string;
   label: string;
   value: string;
-  /** Smaller text under the value: how it was worked out. */
+  /** Smaller text under the value: how it was worked out, in plain words. */
   note?: string;
+  /** Where the rule comes from (a published source), for a tooltip beside the note, not the text. */
+  source?: string;
 }
+
+/** The published source of the width × speed × efficiency rule, in both unit systems. */
+export const CAPACITY_SOURCE = {
+  us: 'Effective field capacity, acres per hour = width (ft) × speed (mph) × field efficiency ÷ 8.25: Hancock, Swetnam and Benson, "Calculating Farm Machinery Field Capacities", AEN-73, University of Kentucky (1991).',
+  metric:
+    'Effective field capacity, hectares per hour = speed (km/h) × width (m) × field efficiency ÷ 10: GRDC (Grains Research and Development Corporation, Australia).',
+} as const;
 
 const oneDecimal = new Intl.NumberFormat('en-US', { minimumFractionDigits: 1, maximumFractionDigits: 1 });
 const whole = new Intl.NumberFormat('en-US', { maximumFractionDigits: 0 });
@@ -36,7 +45,7 @@ export function formatSpeed(mph: number, system: UnitSystem): string {
  * The figures of a plan as the summary card shows them, in the farm's units. Anything that is not
  * a finite number shows as "—", never as NaN.
  *
- * @param autoHeading whether the planner chose the heading (fewest turns)
+ * @param autoHeading whether the planner chose the heading (least field time)
  */
 export function summaryRows(r: PlanResult, system: UnitSystem, autoHeading: boolean): SummaryRow[] {
   const area = (acres: number) => formatArea(acres, system);
@@ -70,28 +79,37 @@ export function summaryRows(r: PlanResult, system: UnitSystem, autoHeading: bool
     },
     {
       key: 'hours',
-      label: 'Hours',
+      label: 'Hours: driving and turns',
       value: `${dec(r.hours)} h`,
-      note: `driving at ${formatSpeed(r.speedMph, system)} plus ${int(r.turnSeconds)} s per turn; capacity rule ${dec(r.capacityHours)} h`,
+      note: `driving every pass and headland lap at ${formatSpeed(r.speedMph, system)}, plus ${int(r.turnSeconds)} s for each of the ${int(r.turns)} turns; no stops`,
+    },
+    {
+      key: 'capacityHours',
+      label: 'Hours: rule of thumb',
+      value: `${dec(r.capacityHours)} h`,
+      note: `the field's area ÷ (width × speed × field efficiency ${int(r.efficiency * 100)} %); the efficiency allows for turns, overlap and stops to fill or unload`,
+      source: CAPACITY_SOURCE[system],
     },
     metric
       ? {
           key: 'capacity',
           label: 'Hectares per hour',
           value: `${dec(r.capacityHaPerHour)} ha/h`,
-          note: 'effective field capacity = speed (km/h) × width (m) × field efficiency ÷ 10 (GRDC)',
+          note: 'speed (km/h) × width (m) × field efficiency ÷ 10',
+          source: CAPACITY_SOURCE.metric,
         }
       : {
           key: 'capacity',
           label: 'Acres per hour',
           value: `${dec(r.capacityAcresPerHour)} ac/h`,
-          note: 'effective field capacity = width (ft) × speed (mph) × field efficiency ÷ 8.25 (AEN-73)',
+          note: 'width (ft) × speed (mph) × field efficiency ÷ 8.25',
+          source: CAPACITY_SOURCE.us,
         },
     {
       key: 'heading',
       label: 'Heading',
       value: ok(r.headingDeg) ? `${int(r.headingDeg)}°` : '—',
-      note: autoHeading ? 'chosen for the fewest turns' : 'degrees clockwise from north',
+      note: autoHeading ? 'chosen for the least field time, along an edge when nearly as fast' : 'degrees clockwise from north',
     },
   ];
 }

@@ -186,20 +186,58 @@ describe('PassPlanPage', () => {
     expect(page.querySelector('.save-state')?.textContent?.trim()).toBe('Saved.');
   });
 
-  it('when the server refuses the save, then its message shows and the settings stay', async () => {
+  it('when the server refuses a box, then the message names it by its label, marks it, and no internal name shows', async () => {
+    await open('owner', 'none');
+    type('Working width (ft)', '84');
+    await fixture.whenStable();
+    (page.querySelector('.save-bar button') as HTMLButtonElement).click();
+    http.expectOne('/api/plans/7/harrowing').flush(
+      {
+        error: {
+          code: 'invalid_input',
+          message: 'Check the form: widthM: The working width is at most 100 m (328 ft)',
+          fields: { widthM: 'The working width is at most 100 m (328 ft)' },
+        },
+      },
+      { status: 400, statusText: 'Bad Request' },
+    );
+    await fixture.whenStable();
+    expect(page.querySelector('.save-bar [role="alert"]')?.textContent?.trim()).toBe(
+      'Check Working width: The working width is at most 100 m (328 ft)',
+    );
+    const width = page.querySelector('input[name="width"]') as HTMLInputElement;
+    expect(width.value).toBe('84');
+    expect(width.getAttribute('aria-invalid')).toBe('true');
+    expect(page.textContent).not.toMatch(/widthM|headingDeg/);
+    await new Promise((resolve) => setTimeout(resolve, 0));
+    expect(document.activeElement).toBe(width);
+  });
+
+  it('when a box holds a value the server would refuse, then it is marked as typed and Save is off', async () => {
     await open('owner', 'none');
     type('Working width (ft)', '400');
     await fixture.whenStable();
-    (page.querySelector('.save-bar button') as HTMLButtonElement).click();
-    http
-      .expectOne('/api/plans/7/harrowing')
-      .flush(
-        { error: { code: 'invalid_input', message: 'The working width is at most 100 m (328 ft)' } },
-        { status: 400, statusText: 'Bad Request' },
-      );
+    const save = page.querySelector('.save-bar button') as HTMLButtonElement;
+    expect(save.disabled).toBe(true);
+    expect(page.querySelector('.save-bar .blocked')?.textContent?.trim()).toBe(
+      'Check Working width: The working width is at most 100 m (328 ft)',
+    );
+    expect((page.querySelector('input[name="width"]') as HTMLInputElement).getAttribute('aria-invalid')).toBe('true');
+    type('Working width (ft)', '84');
     await fixture.whenStable();
-    expect(page.querySelector('.save-bar [role="alert"]')?.textContent).toContain('The working width is at most 100 m (328 ft)');
-    expect((page.querySelector('input[name="width"]') as HTMLInputElement).value).toBe('400');
+    expect(save.disabled).toBe(false);
+    expect(page.querySelector('.save-bar .blocked')).toBeNull();
+  });
+
+  it('when the owner changed a setting and has not saved, then leaving the page asks first', async () => {
+    await open('owner', 'saved');
+    expect(fixture.componentInstance.hasUnsavedChanges()).toBe(false);
+    type('Headland passes', '3');
+    await fixture.whenStable();
+    expect(fixture.componentInstance.hasUnsavedChanges()).toBe(true);
+    type('Headland passes', '2');
+    await fixture.whenStable();
+    expect(fixture.componentInstance.hasUnsavedChanges()).toBe(false);
   });
 
   it('when the owner picks another operation, then the address changes to it', async () => {

@@ -1,5 +1,18 @@
 import { httpResource } from '@angular/common/http';
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  ElementRef,
+  HostListener,
+  Injector,
+  afterNextRender,
+  computed,
+  effect,
+  inject,
+  input,
+  signal,
+  untracked,
+} from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatExpansionModule } from '@angular/material/expansion';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -14,6 +27,8 @@ import type { Implement } from '@shared/schemas/fleet';
 import type { SavedPlan } from '@shared/schemas/plans';
 import type * as L from 'leaflet';
 import { AuthStore } from '../../../core/auth/auth-store';
+import { placeServerErrors, problemMatcher, scrollToFirstProblem } from '../../../shared/forms/field-labels';
+import type { HasUnsavedChanges } from '../../../shared/forms/unsaved-changes.guard';
 import { ApiError, messageOf } from '../../../core/http/api-error';
 import { FieldMap } from '../../../shared/map/field-map/field-map';
 import { HazardLegend } from '../../../shared/map/hazard-legend/hazard-legend';
@@ -36,12 +51,14 @@ import { COVERAGE_TEXT, PlanForm } from '../plan-form/plan-form';
 import { passLabels, planLayers } from '../plan-layers';
 import { PlanLegend } from '../plan-legend/plan-legend';
 import {
+  PASS_PLAN_FIELDS,
   type PlanSettings,
   defaultSettings,
   implementsFor,
   sameAsSaved,
   settingsBody,
   settingsFromSaved,
+  settingsProblems,
   toPlanInput,
 } from '../plan-settings';
 import { PlanSummary } from '../plan-summary/plan-summary';
@@ -77,7 +94,9 @@ const positiveId = (v: string | undefined): number | null => {
   templateUrl: './pass-plan-page.html',
   styleUrl: './pass-plan-page.scss',
 })
-export class PassPlanPage {
+export class PassPlanPage implements HasUnsavedChanges {
+  private readonly host = inject<ElementRef<HTMLElement>>(ElementRef);
+  private readonly injector = inject(Injector);
   private readonly api = inject(PassPlanApi);
   private readonly planner = inject(LivePlanner);
   private readonly router = inject(Router);
@@ -151,6 +170,26 @@ export class PassPlanPage {
   private settingsKey: string | null = null;
   protected readonly saving = signal(false);
   protected readonly saveError = signal<string | null>(null);
+  /** The person changed a setting since the form was filled or saved. */
+  private readonly edited = signal(false);
+  /** The server's last refusal, by box; cleared by the next change. */
+  private readonly serverProblems = signal<Record<string, string>>({});
+  /** What the form says is wrong as it is typed (the shared schema's own checks). */
+  private readonly typed = computed(() => {
+    const s = this.settings();
+    return s ? settingsProblems(s, this.system()) : { byControl: {}, message: null };
+  });
+  protected readonly problems = computed(() => ({ ...this.typed().byControl, ...this.serverProblems() }));
+  /** Why Save is off, naming the boxes by their labels; null when the form can be saved. */
+  protected readonly blocked = computed(() => this.typed().message);
+  protected readonly pickerMatcher = {
+    field: problemMatcher(() => this.serverProblems()['field']),
+    operation: problemMatcher(() => this.serverProblems()['operation']),
+  };
+  protected readonly savedImplement = computed(() => {
+    const p = this.saved();
+    return p?.implementName && p.implementWidthM ? { name: p.implementName, widthM: p.implementWidthM } : null;
+  });
 
   /** What the map and the card show: the live plan for the owner, the saved plan for everyone else. */
   protected readonly view = computed(() => {
@@ -200,6 +239,8 @@ export class PassPlanPage {
       untracked(() => {
         this.planner.reset();
         this.saveError.set(null);
+        this.serverProblems.set({});
+        this.edited.set(false);
         this.settings.set(saved && op ? settingsFromSaved(saved, fleet, system) : defaultSettings(op as Operation, fleet, system));
       });
     });
@@ -242,6 +283,24 @@ export class PassPlanPage {
   protected changeSettings(s: PlanSettings): void {
     this.settings.set(s);
     this.saveError.set(null);
+    this.serverProblems.set({});
+    this.edited.set(true);
+  }
+
+  /** For the leave-page guard: the owner changed settings that are not saved. */
+  hasUnsavedChanges(): boolean {
+    return this.isOwner() && this.edited() && this.unsaved();
+  }
+
+  /** Closing or reloading the tab with unsaved changes: the browser asks in its own words. */
+  @HostListener('window:beforeunload', ['$event'])
+  protected beforeUnload(event: BeforeUnloadEvent): void {
+    if (this.hasUnsavedChanges()) event.preventDefault();
+  }
+
+  /** After the boxes are marked, brings the first one in error into view. */
+  private showFirstProblem(): void {
+    afterNextRender(() => scrollToFirstProblem(this.host.nativeElement), { injector: this.injector });
   }
 
   protected save(): void {
@@ -249,6 +308,10 @@ export class PassPlanPage {
     const op = this.op();
     const s = this.settings();
     if (!id || !op || !s || this.saving()) return;
+    if (this.blocked()) {
+      this.showFirstProblem();
+      return;
+    }
     let body;
     try {
       body = settingsBody(s, this.system());
@@ -261,6 +324,7 @@ export class PassPlanPage {
     this.api.save(id, op, body).subscribe({
       next: (saved) => {
         this.saving.set(false);
+        this.edited.set(false);
         this.savedRes.set(saved);
         this.savedList.reload();
         this.snackBar.open(`Pass plan saved for ${saved.fieldName}, ${OPERATION_INFO[op].label.toLowerCase()}.`, 'Close', {
@@ -269,7 +333,10 @@ export class PassPlanPage {
       },
       error: (err: unknown) => {
         this.saving.set(false);
-        this.saveError.set(messageOf(err));
+        const placed = placeServerErrors(err, PASS_PLAN_FIELDS);
+        this.serverProblems.set(placed.byControl);
+        this.saveError.set(placed.message);
+        this.showFirstProblem();
       },
     });
   }

@@ -27,6 +27,7 @@ const SETTINGS: PlanSettings = {
   efficiencyPct: 70,
   turnSeconds: 30,
   coverage: 'gaps-ok',
+  edgeMarginPct: 3,
 };
 
 describe('PlanForm', () => {
@@ -53,13 +54,14 @@ describe('PlanForm', () => {
   it('when Auto is on, then the heading boxes are off and show the heading the planner chose', async () => {
     await fixture.whenStable();
     expect(input('heading').disabled).toBe(true);
-    expect(input('heading').value).toBe('87');
+    // Auto may run along an edge that is not a whole degree: the box shows it to 0.1°.
+    expect(input('heading').value).toBe('87.4');
   });
 
   it('when Auto is switched off, then the heading starts from the one Auto chose', async () => {
     (form.querySelector('mat-slide-toggle button') as HTMLButtonElement).click();
     await fixture.whenStable();
-    expect(changes.at(-1)).toMatchObject({ autoHeading: false, headingDeg: 87 });
+    expect(changes.at(-1)).toMatchObject({ autoHeading: false, headingDeg: 87.4 });
   });
 
   it('when the slider moves, then the heading follows while dragging', async () => {
@@ -98,6 +100,60 @@ describe('PlanForm', () => {
     const rows = Object.fromEntries(
       [...form.querySelectorAll('dt')].map((dt) => [dt.textContent?.trim(), dt.nextElementSibling?.textContent?.trim()]),
     );
-    expect(rows).toMatchObject({ 'Working width': '60 ft', Heading: '87° (auto, fewest turns)', Coverage: 'Gaps allowed', Speed: '8 mph' });
+    expect(rows).toMatchObject({
+      'Working width': '60 ft',
+      Heading: '87.4° (auto: least field time, along an edge when nearly as fast)',
+      Coverage: 'Gaps allowed',
+      Speed: '8 mph',
+    });
+  });
+
+  it('when the width typed is not the chosen implement width, then a warning says both', async () => {
+    fixture.componentRef.setInput('implements', [HARROW]);
+    fixture.componentRef.setInput('settings', { ...SETTINGS, implementId: 4, width: 60 });
+    await fixture.whenStable();
+    // 25.6032 m = 84 ft (1 ft = 0.3048 m exactly).
+    expect(form.querySelector('.width-warning')?.textContent).toContain('84 ft heavy harrow works 84 ft; this plan uses 60 ft.');
+    fixture.componentRef.setInput('settings', { ...SETTINGS, implementId: 4, width: 84 });
+    await fixture.whenStable();
+    expect(form.querySelector('.width-warning')).toBeNull();
+  });
+
+  it('when a saved plan is read-only and its width is not its implement width, then both show', async () => {
+    fixture.componentRef.setInput('readonly', true);
+    fixture.componentRef.setInput('settings', { ...SETTINGS, implementId: 4, width: 60 });
+    fixture.componentRef.setInput('savedImplement', { name: 'Borrowed harrow', widthM: 21.336 });
+    await fixture.whenStable();
+    const width = [...form.querySelectorAll('dt')].find((dt) => dt.textContent?.trim() === 'Working width')?.nextElementSibling;
+    expect(width?.textContent).toContain('60 ft');
+    expect(width?.textContent).toContain('Borrowed harrow works 70 ft; this plan uses 60 ft.');
+  });
+
+  it('when a problem is given for the heading, then the heading box is marked with it as typed', async () => {
+    fixture.componentRef.setInput('settings', { ...SETTINGS, autoHeading: false, headingDeg: 200 });
+    fixture.componentRef.setInput('problems', { heading: 'Enter a heading from 0 to 179°' });
+    await fixture.whenStable();
+    expect(input('heading').getAttribute('aria-invalid')).toBe('true');
+    expect(form.querySelector('.heading mat-error')?.textContent?.trim()).toBe('Enter a heading from 0 to 179°');
+    expect(input('width').getAttribute('aria-invalid')).toBe('false');
+  });
+
+  it('when the best headings are offered, then each shows its time, passes and turns, and Use takes it', async () => {
+    fixture.componentRef.setInput('headingUsed', 90);
+    fixture.componentRef.setInput('candidates', [
+      { headingDeg: 90, passCount: 84, segmentCount: 113, turns: 112, passLengthM: 1, hours: 17.952, alongEdge: true },
+      { headingDeg: 80.5377, passCount: 97, segmentCount: 111, turns: 110, passLengthM: 1, hours: 17.901, alongEdge: false },
+    ]);
+    await fixture.whenStable();
+    const rows = [...form.querySelectorAll('table.candidates tbody tr')].map((tr) =>
+      [...tr.querySelectorAll('th, td')].map((c) => c.textContent?.replace(/\s+/g, ' ').trim()),
+    );
+    expect(rows).toEqual([
+      ['90°, along an edge, auto', '18.0 h', '84', '112', 'In use'],
+      ['80.5°', '17.9 h', '97', '110', 'Use'],
+    ]);
+    (form.querySelector('button[aria-label="Use heading 80.5°"]') as HTMLButtonElement).click();
+    await fixture.whenStable();
+    expect(changes.at(-1)).toMatchObject({ autoHeading: false, headingDeg: 80.5 });
   });
 });

@@ -7,6 +7,11 @@ import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import { MatSlideToggleModule } from '@angular/material/slide-toggle';
 import { MatSliderModule } from '@angular/material/slider';
+import { MatIconModule } from '@angular/material/icon';
+import type { ErrorStateMatcher } from '@angular/material/core';
+import { DEFAULT_EDGE_MARGIN_PCT, type HeadingCandidate } from '@shared/plan/auto-heading';
+import { roundTo } from '@shared/round';
+import { problemMatcher } from '../../../shared/forms/field-labels';
 import { LIMIT_TEXT } from '@shared/limits';
 import { OPERATION_INFO, type CoverageRule, type Operation } from '@shared/operations';
 import { COMMON_PRACTICE, DEFAULT_TURN_SECONDS, implementDefaults, type ImplementKind } from '@shared/plan/implement-defaults';
@@ -32,6 +37,7 @@ export const COVERAGE_TEXT: Record<CoverageRule, { label: string; hint: string }
     MatButtonModule,
     MatExpansionModule,
     MatFormFieldModule,
+    MatIconModule,
     MatInputModule,
     MatSelectModule,
     MatSlideToggleModule,
@@ -49,8 +55,49 @@ export class PlanForm {
   readonly readonly = input(false);
   /** The heading the planner used last (shown while Auto is on). */
   readonly headingUsed = input<number | null>(null);
+  /** The best headings the planner weighed, the one auto picks first (empty: none yet). */
+  readonly candidates = input<readonly HeadingCandidate[]>([]);
+  /** Problems by box (typed or from the server), shown under each box as it is typed. */
+  readonly problems = input<Readonly<Record<string, string>>>({});
+  /** The saved plan's implement, for when the fleet cannot be read (operators) or it left the fleet. */
+  readonly savedImplement = input<{ name: string; widthM: number } | null>(null);
+
+  private readonly matchers = new Map<string, ErrorStateMatcher>();
+  /** Marks a box while it has a problem (one matcher per box, kept so the input does not churn). */
+  protected matcher(control: string): ErrorStateMatcher {
+    let m = this.matchers.get(control);
+    if (!m) {
+      m = problemMatcher(() => this.problems()[control]);
+      this.matchers.set(control, m);
+    }
+    return m;
+  }
+  /**
+   * The chosen implement works at another width than the plan: said beside the width, since every
+   * pass, acre and hour below is for the plan's width.
+   */
+  protected readonly widthWarning = computed(() => {
+    const s = this.settings();
+    const fleet = this.implements().find((i) => i.id === s.implementId);
+    const implement = fleet ? { name: fleet.name, widthM: fleet.widthM } : s.implementId !== null ? this.savedImplement() : null;
+    if (!implement || s.width === null || !Number.isFinite(s.width)) return null;
+    const own = widthFromMetres(implement.widthM, this.system());
+    // Widths are shown to 0.1 ft or 1 cm: anything closer is the same width.
+    if (Math.abs(own - s.width) < (this.system() === 'metric' ? 0.005 : 0.05)) return null;
+    const unit = this.lengthUnit();
+    return `${implement.name} works ${own} ${unit}; this plan uses ${s.width} ${unit}. Passes, acres and hours are for ${s.width} ${unit}.`;
+  });
+  protected readonly offered = computed(() =>
+    this.candidates().map((c, i) => ({
+      ...c,
+      shown: roundTo(c.headingDeg, 1),
+      auto: i === 0,
+      inUse: this.headingUsed() !== null && Math.abs(c.headingDeg - this.headingUsed()!) < 1e-6,
+    })),
+  );
 
   protected readonly coverageText = COVERAGE_TEXT;
+  protected readonly commonPractice = COMMON_PRACTICE;
   /** The planner's budgets, in plain words. */
   protected readonly planLimits = LIMIT_TEXT.plan;
   protected readonly coverageRules = Object.keys(COVERAGE_TEXT) as CoverageRule[];
@@ -74,7 +121,7 @@ export class PlanForm {
   });
   protected readonly shownHeading = computed(() => {
     const s = this.settings();
-    return s.autoHeading ? Math.round(this.headingUsed() ?? s.headingDeg) % 180 : s.headingDeg;
+    return s.autoHeading ? roundTo(this.headingUsed() ?? s.headingDeg, 1) % 180 : s.headingDeg;
   });
 
   protected patch(change: Partial<PlanSettings>): void {
@@ -109,7 +156,22 @@ export class PlanForm {
     if (Number.isFinite(value)) this.patch({ headingDeg: value });
   }
 
+  /** Takes one of the offered headings: the first is auto's own choice, so it keeps Auto on. */
+  protected useHeading(index: number): void {
+    const c = this.candidates()[index];
+    if (!c) return;
+    this.patch(index === 0 ? { autoHeading: true } : { autoHeading: false, headingDeg: roundTo(c.headingDeg, 1) });
+  }
+
+  protected hours(h: number): string {
+    return Number.isFinite(h) ? `${h.toFixed(1)} h` : '—';
+  }
+
   protected useDefaults(): void {
-    this.patch({ ...kindDefaults(this.settings().implementKind, this.system()), turnSeconds: DEFAULT_TURN_SECONDS });
+    this.patch({
+      ...kindDefaults(this.settings().implementKind, this.system()),
+      turnSeconds: DEFAULT_TURN_SECONDS,
+      edgeMarginPct: DEFAULT_EDGE_MARGIN_PCT,
+    });
   }
 }

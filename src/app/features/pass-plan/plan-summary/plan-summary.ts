@@ -1,5 +1,6 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
+import { MatTooltipModule } from '@angular/material/tooltip';
 import type { PlanResult } from '@shared/plan/types';
 import type { UnitSystem } from '@shared/schemas/auth';
 import { summaryRows } from '../plan-summary-rows';
@@ -11,7 +12,7 @@ import { summaryRows } from '../plan-summary-rows';
 @Component({
   selector: 'app-plan-summary',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [MatIconModule],
+  imports: [MatIconModule, MatTooltipModule],
   templateUrl: './plan-summary.html',
   styleUrl: './plan-summary.scss',
 })
