@@ -27,6 +27,7 @@ import { jobLogRoutes, runSheetRoutes } from './run-sheet/run-sheet.routes';
 import { seasonRoutes } from './season/season.routes';
 import { openapiRoutes } from './openapi/openapi.routes';
 import { projectRoot } from './paths';
+import { weatherRoutes } from './weather/weather.routes';
 
 export interface CreateAppOptions extends Omit<AppDeps, 'compute'> {
   /** Defaults to the process's shared compute pool. */
@@ -92,6 +93,7 @@ export function createApp(options: CreateAppOptions): Express {
   mount('/season', (r) => seasonRoutes(r, deps));
   mount('', (r) => openapiRoutes(r, deps));
   api.use(apiNotFound);
+  mount('/weather', (r) => weatherRoutes(r, deps));
   app.use('/api', api);
 
   serveApp(app, deps.staticDir ?? path.join(projectRoot, 'dist', 'furlong', 'browser'));

@@ -18,6 +18,12 @@ const schema = z
     SMTP_URL: z.string().url().optional(),
     MAIL_FROM: z.string().default('Furlong <furlong@localhost>'),
     FAKE_SMTP_PORT: z.coerce.number().int().min(0).max(65535).default(2525),
+    /** The forecast service's endpoint (https://api.open-meteo.com/v1/forecast). Unset: a local fake forecast server answers. */
+    WEATHER_URL: z.string().url('WEATHER_URL must be an http(s) URL such as https://api.open-meteo.com/v1/forecast').optional(),
+    /** Port of the local fake forecast server when WEATHER_URL is unset (0: any free port). */
+    FAKE_WEATHER_PORT: z.coerce.number().int().min(0).max(65535).default(0),
+    /** The local fake's scenario: calm, windy-afternoon, rain-tomorrow, cold-morning or calm-clear-evening. */
+    FAKE_WEATHER_SCENARIO: z.string().default('calm'),
     /** Optional map background: a tile URL template and its attribution. No tiles by default. */
     MAP_TILE_URL: z.string().optional(),
     MAP_TILE_ATTRIBUTION: z.string().optional(),
@@ -49,6 +55,10 @@ export interface Config {
   smtpUrl: string | null;
   mailFrom: string;
   fakeSmtpPort: number;
+  /** Null: the local fake forecast server (on `fakeWeatherPort`). */
+  weatherUrl: string | null;
+  fakeWeatherPort: number;
+  fakeWeatherScenario: string;
   mapTileUrl: string | null;
   mapTileAttribution: string | null;
   trustProxy: boolean;
@@ -78,6 +88,9 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     smtpUrl: c.SMTP_URL ?? null,
     mailFrom: c.MAIL_FROM,
     fakeSmtpPort: c.FAKE_SMTP_PORT,
+    weatherUrl: c.WEATHER_URL ?? null,
+    fakeWeatherPort: c.FAKE_WEATHER_PORT,
+    fakeWeatherScenario: c.FAKE_WEATHER_SCENARIO,
     mapTileUrl: c.MAP_TILE_URL ?? null,
     mapTileAttribution: c.MAP_TILE_ATTRIBUTION ?? null,
     trustProxy: c.TRUST_PROXY === '1',

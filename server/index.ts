@@ -12,12 +12,14 @@ import { FakeMailServer } from './mail/fake-smtp';
 import { MailWorker } from './mail/mail-worker';
 import { createTransport } from './mail/transport';
 import { projectRoot } from './paths';
+import { FakeForecastServer, isScenario } from './weather/fake-forecast';
+import { WeatherWorker } from './weather/weather-worker';
 
 // One process, or (WEB_CONCURRENCY > 1) a primary that forks that many server processes sharing
 // the port (node:cluster). The primary serves no requests: it runs the local fake mail server,
 // keeps the sign-in rate limits for all processes (so N processes do not allow N times the
 // attempts), and starts a process again if one ends unexpectedly. The background job workers
-// (mail) run in the first server process only.
+// (mail, weather) run in the first server process only.
 
 /** Set once the configuration is read; before that, failures go to stderr as plain text. */
 let logger: Logger | null = null;
@@ -45,11 +47,29 @@ async function startFakeMail(config: Config): Promise<FakeMailServer | null> {
   return fakeMail;
 }
 
+/** Starts the local fake forecast server when no forecast service is configured. */
+async function startFakeWeather(config: Config, log: Logger): Promise<FakeForecastServer | null> {
+  if (config.weatherUrl) return null;
+  const fake = new FakeForecastServer();
+  if (isScenario(config.fakeWeatherScenario)) fake.scenario = config.fakeWeatherScenario;
+  await fake.start(config.fakeWeatherPort);
+  log.info({ port: fake.port, scenario: fake.scenario }, 'local fake forecast server started (WEATHER_URL is unset)');
+  return fake;
+}
+
+/** The forecast endpoint: WEATHER_URL, or the local fake's on FAKE_WEATHER_PORT. */
+const weatherUrlOf = (config: Config, fake: FakeForecastServer | null): string =>
+  config.weatherUrl ?? `http://127.0.0.1:${fake?.port ?? config.fakeWeatherPort}/v1/forecast`;
+
 async function primary(config: Config, log: Logger): Promise<void> {
   log.info({ env: config.env, logLevel: config.logLevel, processes: config.webConcurrency }, 'starting');
   new ClusterMemoryStorePrimary().init();
   const fakeMail = await startFakeMail(config);
-  const env = { FAKE_SMTP_PORT: String(fakeMail?.port ?? config.fakeSmtpPort) };
+  const fakeWeather = await startFakeWeather(config, log);
+  const env = {
+    FAKE_SMTP_PORT: String(fakeMail?.port ?? config.fakeSmtpPort),
+    FAKE_WEATHER_PORT: String(fakeWeather?.port ?? config.fakeWeatherPort),
+  };
   let stopping = false;
   let listening = 0;
   const restarts: number[] = [];
@@ -93,6 +113,7 @@ async function primary(config: Config, log: Logger): Promise<void> {
       ),
     );
     await fakeMail?.stop().catch(() => undefined);
+    await fakeWeather?.stop().catch(() => undefined);
     log.info({ exitCode: code }, 'stopped');
     process.exit(code);
   };
@@ -106,9 +127,11 @@ async function serve(config: Config, log: Logger, { background, single }: { back
   const db = createDb(config.databaseUrl);
   const sessions = createSessionStore(config.databaseUrl);
   const fakeMail = single ? await startFakeMail(config) : null;
+  const fakeWeather = single ? await startFakeWeather(config, log) : null;
 
   let boss: PgBoss | null = null;
   let mail: MailWorker | null = null;
+  let weather: WeatherWorker | null = null;
   if (background) {
     // pg-boss's own upkeep: expiring jobs whose worker died, archiving, deleting old ones.
     // Failed jobs stay 30 days where the owner's list finds them.
@@ -128,6 +151,8 @@ async function serve(config: Config, log: Logger, { background, single }: { back
       logger: log.child({ worker: 'mail' }),
     });
     mail.start();
+    weather = new WeatherWorker(db, { url: weatherUrlOf(config, fakeWeather), logger: log.child({ worker: 'weather' }) });
+    weather.start();
   }
 
   const app = createApp({ config, db, sessions, nudgeMail: () => mail?.nudge(), logger: log });
@@ -152,8 +177,10 @@ async function serve(config: Config, log: Logger, { background, single }: { back
     let code = 0;
     for (const [what, close] of [
       ['the mail worker', async () => mail?.stop()],
+      ['the weather worker', async () => weather?.stop()],
       ['the background job upkeep', async () => boss?.stop({ graceful: false, wait: true })],
       ['the fake mail server', async () => fakeMail?.stop()],
+      ['the fake forecast server', async () => fakeWeather?.stop()],
       ['the sessions pool', () => sessions.close()],
       ['the database pool', () => db.destroy()],
     ] as const) {

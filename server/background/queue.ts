@@ -12,6 +12,12 @@ export const JOB_SCHEMA = 'pgboss';
 export interface JobData {
   /** One e-mail of `mail_outbox` to send. */
   mail: { mailId: number; farmId: number | null; kind: string };
+  /**
+   * Refresh the forecasts of one farm's points that are due (server/weather/weather-worker.ts).
+   * Not `farmId`: the owner's failed-jobs list reads that key for mail; a forecast that cannot be
+   * had shows as stale weather instead.
+   */
+  weather: { farm: number };
 }
 export type QueueName = keyof JobData;
 
@@ -29,6 +35,16 @@ export const QUEUE_POLICY: Record<QueueName, PgBoss.Queue> = {
     retryBackoff: true,
     expireInSeconds: 120,
     retentionDays: 30,
+  },
+  // Weather: the service's own failures are handled by the worker (the forecast is marked stale
+  // and tried again next round); only a database failure fails the job, tried twice more.
+  weather: {
+    name: 'weather',
+    retryLimit: 2,
+    retryDelay: 30,
+    retryBackoff: true,
+    expireInSeconds: 300,
+    retentionDays: 1,
   },
 };
 

@@ -36,6 +36,7 @@ import { implementBody, implementPatchBody, machineBody, machinePatchBody, skill
 import { planListQuery, planParams, planPreviewBody, planSettings } from '../../shared/schemas/plans';
 import { eventBody, logPatchBody, problemBody, runSheetQuery } from '../../shared/schemas/run-sheet';
 import { seasonExportParams, seasonIndex, seasonParams, seasonSummary } from '../../shared/schemas/season';
+import { fieldForecast, weatherFieldParams, weatherLimitsAnswer, weatherLimitsBody } from '../../shared/schemas/weather';
 
 export interface ResponseContract {
   status: number;
@@ -399,3 +400,19 @@ export const CONTRACT: Record<string, RouteContract> = {
     responses: [{ status: 200, description: 'The reference page.', contentType: 'text/html' }],
   },
 };
+  // Weather
+  'GET /api/weather/fields/:fieldId': {
+    summary: "Gives a field's hourly forecast with go, caution or no-go per operation, its age and whether it is stale.",
+    params: weatherFieldParams,
+    responses: [json('The forecast (no hours, marked stale, before the first one arrives).', fieldForecast)],
+  },
+  'GET /api/weather/limits': {
+    summary: "Gives the farm's weather limits per operation, the defaults and each default's source.",
+    responses: [json('The limits.', weatherLimitsAnswer)],
+  },
+  'PUT /api/weather/limits': {
+    summary: "Sets the farm's weather limits per operation.",
+    body: weatherLimitsBody,
+    responses: [json('The limits after the change.', weatherLimitsAnswer)],
+  },
+

@@ -3,8 +3,8 @@ import { z } from 'zod';
 /** A background job that failed for good (a dead letter), as the owner's list shows it. */
 export const failedJob = z.object({
   id: z.string().uuid(),
-  /** The queue: today only `mail`. */
-  queue: z.enum(['mail']),
+  /** The queue (server/background/queue.ts). Weather jobs carry no `farmId`, so the list shows mail only. */
+  queue: z.enum(['mail', 'weather']),
   /** What the job was for, in words: "Work order e-mail". */
   what: z.string(),
   /** For mail: the address and subject. */

@@ -9,6 +9,7 @@ import { createLogger } from '../../server/logging/logger';
 import { FakeMailServer } from '../../server/mail/fake-smtp';
 import { MailWorker } from '../../server/mail/mail-worker';
 import { createTransport } from '../../server/mail/transport';
+import { FakeForecastServer } from '../../server/weather/fake-forecast';
 import { testDatabaseUrl } from './env';
 
 export interface TestApp {
@@ -17,6 +18,8 @@ export interface TestApp {
   config: Config;
   mail: FakeMailServer;
   worker: MailWorker;
+  /** The in-process fake forecast server; `config.weatherUrl` is its address. */
+  weather: FakeForecastServer;
   sessions: SessionStore;
   /** Everything the app logged (its error handler logs only failures it did not expect). */
   logged: unknown[];
@@ -37,11 +40,14 @@ export async function startTestApp(
 ): Promise<TestApp> {
   const mail = new FakeMailServer();
   const port = await mail.start(0);
+  const weather = new FakeForecastServer();
+  await weather.start(0);
   const config = loadConfig({
     NODE_ENV: 'test',
     DATABASE_URL: testDatabaseUrl(),
     SESSION_SECRET: TEST_SECRET,
     PUBLIC_URL: 'http://127.0.0.1:3999',
+    WEATHER_URL: weather.url,
     ...overrides,
   });
   const db = createDb(config.databaseUrl, { min: 0, max: 5 });
@@ -66,12 +72,14 @@ export async function startTestApp(
     config,
     mail,
     worker,
+    weather,
     sessions,
     logged,
     flushMail: () => worker.drain(),
     close: async () => {
       await worker.stop();
       await mail.stop();
+      await weather.stop();
       await sessions.close();
       await db.destroy();
     },

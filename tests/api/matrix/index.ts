@@ -6,6 +6,7 @@ import { openapi } from './openapi';
 import { plans } from './plans';
 import { season } from './season';
 import type { Case } from './types';
+import { weather } from './weather';
 
-export const MATRIX: Record<string, Case> = { ...foundation, ...fields, ...plans, ...board, ...season, ...openapi };
+export const MATRIX: Record<string, Case> = { ...foundation, ...fields, ...plans, ...board, ...season, ...weather, ...openapi };
 export type { Who } from './types';

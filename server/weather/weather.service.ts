@@ -1,0 +1,218 @@
+// Forecasts: refreshing a farm's points from the forecast service (background only), and the
+// field's forecast with its verdicts for the screens (database only: no request waits on the service).
+import { DateTime } from 'luxon';
+import type { UnitSystem } from '../../shared/schemas/auth';
+import type { FieldForecast, ForecastHour, WeatherLimitsAnswer } from '../../shared/schemas/weather';
+import { yearIn } from '../../shared/calendar';
+import { roundTo } from '../../shared/round';
+import { boundaryCentre, gridCellOf, type GridCell } from '../../shared/weather/grid';
+import { DEFAULT_LIMITS, LIMIT_SOURCES, seedCropOf, WEATHER_OPERATIONS, type WeatherLimits } from '../../shared/weather/limits';
+import { judgeHour, type WeatherHour } from '../../shared/weather/rules';
+import { deltaTC } from '../../shared/weather/wet-bulb';
+import type { Db, Tx } from '../db/knex';
+import { AppError } from '../http/errors';
+import { logMessage } from '../http/errors';
+import { silentLogger, type Logger } from '../logging/logger';
+import { fetchForecasts, ForecastError, MAX_POINTS_PER_REQUEST, type PointForecast } from './forecast.client';
+import {
+  cropOf,
+  ensurePoints,
+  fieldBoundaries,
+  fieldBoundary,
+  forecastHours,
+  latestForecast,
+  markFailed,
+  pointOfCell,
+  saveLimits,
+  storedLimits,
+  storeForecasts,
+  type WeatherPointRow,
+} from './weather.repository';
+
+/** A point is refreshed at most this often (after a good forecast). */
+export const REFRESH_EVERY_MS = 3_600_000;
+/** After a failure, the service is asked again for that point no sooner than this. */
+export const RETRY_AFTER_MS = 10 * 60_000;
+/** A forecast older than this is shown as stale even when no refresh failed (the worker is behind). */
+export const STALE_AFTER_MS = 2 * 3_600_000;
+
+export interface RefreshOptions {
+  /** The forecast endpoint (config.weatherUrl, or the local fake's). */
+  url: string;
+  now?: Date;
+  timeoutMs?: number;
+  logger?: Logger;
+}
+
+export interface RefreshOutcome {
+  /** The farm's points (cells with fields). */
+  points: number;
+  /** Points that got a new forecast. */
+  refreshed: number;
+  /** Points whose refresh failed (their last forecast stays, stale). */
+  failed: number;
+  /** Why, when some failed. */
+  error?: string;
+}
+
+/** The cells of the farm's fields, each once. */
+function cellsOf(fields: { boundary: { type: string; coordinates: unknown } }[]): GridCell[] {
+  const cells = new Map<string, GridCell>();
+  for (const f of fields) {
+    const centre = boundaryCentre(f.boundary);
+    if (!centre) continue;
+    const cell = gridCellOf(centre[1], centre[0]);
+    cells.set(`${cell.latIndex},${cell.lonIndex}`, cell);
+  }
+  return [...cells.values()];
+}
+
+const isDue = (p: WeatherPointRow, now: number): boolean =>
+  (!p.last_success_at || p.last_success_at.getTime() <= now - REFRESH_EVERY_MS) &&
+  (!p.last_attempt_at || p.last_attempt_at.getTime() <= now - RETRY_AFTER_MS);
+
+/**
+ * Refreshes the farm's points that are due: one request per hundred points, with no transaction
+ * open while the service is asked; each request's good answer is stored in one transaction, and a
+ * failed or bad one is logged and refused (its points keep their last forecast, marked failed).
+ */
+export async function refreshFarmWeather(db: Db, farmId: number, options: RefreshOptions): Promise<RefreshOutcome> {
+  const now = options.now ?? new Date();
+  const log = options.logger ?? silentLogger();
+  const points = await ensurePoints(db, farmId, cellsOf(await fieldBoundaries(db, farmId)));
+  const due = points.filter((p) => isDue(p, now.getTime()));
+  const outcome: RefreshOutcome = { points: points.length, refreshed: 0, failed: 0 };
+  for (let i = 0; i < due.length; i += MAX_POINTS_PER_REQUEST) {
+    const batch = due.slice(i, i + MAX_POINTS_PER_REQUEST);
+    let forecasts: PointForecast[];
+    try {
+      forecasts = await fetchForecasts(options.url, batch, { timeoutMs: options.timeoutMs });
+    } catch (err) {
+      const reason = err instanceof ForecastError ? err.message : `the forecast could not be read (${logMessage(err)})`;
+      log.warn(
+        { farmId, points: batch.length, kind: err instanceof ForecastError ? err.kind : 'other', error: reason },
+        'forecast refused',
+      );
+      await markFailed(
+        db,
+        batch.map((p) => p.id),
+        now,
+        reason,
+      );
+      outcome.failed += batch.length;
+      outcome.error = reason;
+      continue;
+    }
+    await db.transaction((tx) =>
+      storeForecasts(
+        tx,
+        farmId,
+        batch.map((point, k) => ({ point, forecast: forecasts[k] })),
+        now,
+      ),
+    );
+    outcome.refreshed += batch.length;
+  }
+  if (due.length) log.info({ farmId, ...outcome }, 'forecasts refreshed');
+  return outcome;
+}
+
+/** The farm's limits: the owner's, with the defaults for anything not set (a key added later). */
+export async function farmLimits(db: Tx, farmId: number): Promise<WeatherLimits> {
+  const stored = (await storedLimits(db, farmId)) ?? {};
+  const merged = {} as Record<string, unknown>;
+  for (const op of WEATHER_OPERATIONS) {
+    const mine = (stored[op] ?? {}) as Record<string, unknown>;
+    const base = DEFAULT_LIMITS[op] as unknown as Record<string, unknown>;
+    merged[op] = { ...base, ...mine };
+  }
+  const seeding = merged.seeding as WeatherLimits['seeding'];
+  seeding.soilMinC = { ...DEFAULT_LIMITS.seeding.soilMinC, ...(stored.seeding?.soilMinC ?? {}) };
+  return merged as unknown as WeatherLimits;
+}
+
+export async function limitsAnswer(db: Tx, farmId: number): Promise<WeatherLimitsAnswer> {
+  return { limits: await farmLimits(db, farmId), defaults: DEFAULT_LIMITS, sources: LIMIT_SOURCES as WeatherLimitsAnswer['sources'] };
+}
+
+export async function changeLimits(db: Tx, farmId: number, limits: WeatherLimits): Promise<WeatherLimitsAnswer> {
+  await saveLimits(db, farmId, limits);
+  return limitsAnswer(db, farmId);
+}
+
+const r2 = (n: number | null): number | null => (n === null ? null : roundTo(n, 2));
+const kmh = (ms: number | null): number | null => (ms === null ? null : roundTo(ms * 3.6, 2));
+
+/**
+ * A field's forecast as the screens show it: every hour of the newest stored forecast of the
+ * field's point, with Delta T and each operation's verdict, times in the farm's zone. Never asks
+ * the service: without a stored forecast it answers no hours, marked stale.
+ */
+export async function fieldForecast(
+  db: Db,
+  who: { farmId: number; timeZone: string; units: UnitSystem },
+  fieldId: number,
+  now = new Date(),
+): Promise<FieldForecast> {
+  const field = await fieldBoundary(db, who.farmId, fieldId);
+  if (!field) throw new AppError(404, 'not_found', 'That field was not found on this farm');
+  const centre = boundaryCentre(field.boundary);
+  if (!centre) throw new AppError(422, 'no_boundary', 'This field has no boundary to place its forecast');
+  const cell = gridCellOf(centre[1], centre[0]);
+  const point = await pointOfCell(db, who.farmId, cell.latIndex, cell.lonIndex);
+  const forecast = point ? await latestForecast(db, point.id) : undefined;
+  const base = { fieldId, point: { latitude: cell.latitude, longitude: cell.longitude } };
+  const crop = seedCropOf(await cropOf(db, who.farmId, fieldId, yearIn(who.timeZone, now)));
+  if (!forecast || !point) {
+    return {
+      ...base,
+      issuedAt: null,
+      fetchedAt: null,
+      ageMinutes: null,
+      stale: true,
+      staleReason: point?.last_error
+        ? `No forecast yet: ${point.last_error}`
+        : 'No forecast yet: it is fetched in the background within a few minutes of adding a field',
+      seedingCrop: crop,
+      hours: [],
+    };
+  }
+  const ageMs = now.getTime() - forecast.fetched_at.getTime();
+  const failedSince = !!point.last_failure_at && point.last_failure_at.getTime() > forecast.fetched_at.getTime();
+  const ageWords = ageMs < 3_600_000 ? `${Math.max(0, Math.round(ageMs / 60_000))} min` : `${roundTo(ageMs / 3_600_000, 1)} h`;
+  const staleReason = failedSince
+    ? `Forecast from ${ageWords} ago: the last refresh failed (${point.last_error ?? 'no reason given'})`
+    : ageMs > STALE_AFTER_MS
+      ? `Forecast from ${ageWords} ago: no newer forecast has arrived`
+      : null;
+  const rows = await forecastHours(db, forecast.id);
+  const hours: WeatherHour[] = rows.map((h) => ({
+    time: DateTime.fromJSDate(h.time, { zone: who.timeZone }).toISO({ suppressMilliseconds: true })!,
+    temperatureC: r2(h.temperature_c),
+    relativeHumidityPct: r2(h.relative_humidity_pct),
+    dewPointC: r2(h.dew_point_c),
+    precipitationMm: r2(h.precipitation_mm),
+    precipitationProbabilityPct: r2(h.precipitation_probability_pct),
+    windSpeedKmh: kmh(h.wind_speed_ms),
+    windGustKmh: kmh(h.wind_gust_ms),
+    windDirectionDeg: r2(h.wind_direction_deg),
+    cloudCoverPct: r2(h.cloud_cover_pct),
+    soilTemperatureC: r2(h.soil_temperature_c),
+  }));
+  const limits = await farmLimits(db, who.farmId);
+  const judged: ForecastHour[] = hours.map((h, i) => ({
+    ...h,
+    deltaTC: h.temperatureC === null || h.relativeHumidityPct === null ? null : roundTo(deltaTC(h.temperatureC, h.relativeHumidityPct), 2),
+    verdicts: judgeHour(hours, i, limits, who.units, crop),
+  }));
+  return {
+    ...base,
+    issuedAt: forecast.issued_at.toISOString(),
+    fetchedAt: forecast.fetched_at.toISOString(),
+    ageMinutes: Math.max(0, Math.floor(ageMs / 60_000)),
+    stale: staleReason !== null,
+    staleReason,
+    seedingCrop: crop,
+    hours: judged,
+  };
+}
