@@ -34,5 +34,7 @@ export interface DbWorkOrderRow {
   content_hash: string;
   mail_id: number | null;
   board_version: number;
+  /** What the order said of each job (work-order.content.ts `orderMarks`); null when published before it was kept. */
+  jobs: Array<{ id: number; at: string; body: string }> | null;
   published_at: Date;
 }

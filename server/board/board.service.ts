@@ -4,6 +4,7 @@
 import { OPERATION_INFO, type Operation } from '../../shared/operations';
 import {
   brokenCardRules,
+  settledMentor,
   type AssignmentCreate,
   type AssignmentPatch,
   type Board,
@@ -20,6 +21,7 @@ import type { DbAssignmentRow } from '../jobs/jobs.rows';
 import { bumpDay, changesSince, lockDay } from './board-days.repository';
 import { readBoard } from './board.read';
 import { formatMinutes, parseTime } from './clock';
+import { skillOf } from './day.repository';
 import { resolveRefs } from './references';
 
 interface Change {
@@ -111,7 +113,7 @@ export async function createAssignment(deps: AppDeps, by: SessionPrincipal, inpu
   let savedId = 0;
   const board = await save(deps, by, input.date, input.version, [], async (tx) => {
     const refs = await resolveRefs(tx, by.farmId, { ...input, mentorId: input.mentorId ?? null });
-    keepsCardRules(input);
+    keepsCardRules({ ...input, operatorSkill: await skillOf(tx, by.farmId, input.operatorId, input.operation) });
     const start = minutesOf(input.startTime ?? null);
     const end = minutesOf(input.endTime ?? null);
     savedId = await repo.insertAssignment(tx, by.farmId, {
@@ -164,16 +166,19 @@ export async function updateAssignment(deps: AppDeps, by: SessionPrincipal, id: 
     }
     const refs = await resolveRefs(tx, by.farmId, patch);
     const operatorId = patch.operatorId ?? a.operator_id;
-    const mentorId = patch.mentorId === undefined ? a.mentor_id : patch.mentorId;
+    const operation = patch.operation ?? a.operation;
+    // Only a planned card's people can change (above); a started one keeps its mentor as it is.
+    const operatorSkill = a.state === 'planned' ? await skillOf(tx, by.farmId, operatorId, operation) : undefined;
+    // A mentor the owner did not name this time stays only while the operator needs one.
+    const mentorId = patch.mentorId === undefined ? settledMentor({ operatorId, mentorId: a.mentor_id, operatorSkill }) : patch.mentorId;
     const startTime = patch.startTime === undefined ? timeOf(a.start_min) : patch.startTime;
     const endTime = patch.endTime === undefined ? timeOf(a.end_min) : patch.endTime;
-    keepsCardRules({ operatorId, mentorId, startTime, endTime });
+    keepsCardRules({ operatorId, mentorId, startTime, endTime, operatorSkill });
     const start = patch.startTime === undefined ? a.start_min : minutesOf(patch.startTime);
     const end = patch.endTime === undefined ? a.end_min : minutesOf(patch.endTime);
     const day = patch.date ?? a.day;
     const fieldChanged = (patch.fieldId && patch.fieldId !== a.field_id) || (patch.operation && patch.operation !== a.operation);
     const field = refs.field ?? (await resolveRefs(tx, by.farmId, { fieldId: a.field_id })).field!;
-    const operation = patch.operation ?? a.operation;
     await repo.updateAssignment(tx, id, {
       day,
       field_id: field.id,
@@ -192,6 +197,7 @@ export async function updateAssignment(deps: AppDeps, by: SessionPrincipal, id: 
       await placeInColumn(tx, by.farmId, { id, day, operator_id: operatorId }, patch.order);
       if (moved) await renumberColumn(tx, by.farmId, a.day, a.operator_id);
     }
+    if (mentorId !== a.mentor_id && patch.mentorId === undefined) keys.push('mentorId');
     const what = [...new Set(keys.map((k) => WORDS[k]))].join(', ');
     return { summary: `Changed ${field.name} ${opLabel(operation)} (${what})`, assignmentIds: [id] };
   });
@@ -239,7 +245,10 @@ export async function reorderBoard(deps: AppDeps, by: SessionPrincipal, day: str
         if (c.state !== 'planned')
           throw new AppError(409, 'job_started', 'A job that has started stays with its operator; call it off and add a new one instead');
         touched.add(c.operator_id);
-        await repo.updateAssignment(tx, id, { operator_id: col.membershipId });
+        // Moved to someone who works alone (or to the mentor themself): the mentor goes with the need.
+        const operatorSkill = await skillOf(tx, by.farmId, col.membershipId, c.operation);
+        const mentorId = settledMentor({ operatorId: col.membershipId, mentorId: c.mentor_id, operatorSkill });
+        await repo.updateAssignment(tx, id, { operator_id: col.membershipId, mentor_id: mentorId });
         moves++;
       }
       const rest = (await repo.columnOf(tx, by.farmId, day, col.membershipId))

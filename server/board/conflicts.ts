@@ -2,7 +2,8 @@
 // an implement that cannot do the job, a learner alone) block publishing; soft ones warn.
 // Weather limits are not checked yet: Furlong has no weather data.
 import { OPERATION_INFO, type Operation } from '../../shared/operations';
-import type { BoardAssignment, Conflict } from '../../shared/schemas/board';
+import { roundTo } from '../../shared/round';
+import { mayMentor, worksAlone, type BoardAssignment, type Conflict } from '../../shared/schemas/board';
 import type { SkillLevel } from '../../shared/schemas/fleet';
 import { coveredHours } from '../jobs/hours';
 import { isFinishedForSeason } from '../jobs/progress';
@@ -10,9 +11,11 @@ import { formatMinutes } from './clock';
 
 export interface ConflictCard {
   a: BoardAssignment;
-  /** Effective start and end, minutes after midnight. */
+  /** Effective start and end, minutes after midnight (server/board/schedule.ts). */
   start: number;
   end: number;
+  /** The window the owner set, or null. */
+  window: { start: number; end: number } | null;
   implementOperations: readonly Operation[];
   /** Why the machine cannot take the implement, or null. */
   cannotPull: string | null;
@@ -86,6 +89,17 @@ function doubleBookings(cards: ConflictCard[]): Conflict[] {
   return out;
 }
 
+/**
+ * What to say of a card whose planned hours do not fit the window the owner set, naming both; null
+ * when they fit. The board's warning and the work order say the same.
+ */
+export function windowWarning(c: Pick<ConflictCard, 'a' | 'window'>): string | null {
+  if (c.a.fitsWindow || !c.window) return null;
+  const h = (n: number) => `${roundTo(n, 1)} h`;
+  const { start, end } = c.window;
+  return `Planned ${h(c.a.planHours)} does not fit ${formatMinutes(start)}–${formatMinutes(end)} (${h((end - start) / 60)})`;
+}
+
 function equipment(c: ConflictCard): Conflict[] {
   const out: Conflict[] = [];
   const op = OPERATION_INFO[c.a.operation].label.toLowerCase();
@@ -111,12 +125,12 @@ function mentoring(c: ConflictCard, skills: Skills): Conflict[] {
   const op = c.a.operation;
   const label = OPERATION_INFO[op].label.toLowerCase();
   const own = skills.get(c.a.operator.membershipId)?.[op];
-  if (own === 'qualified' || own === 'mentor') return [];
+  if (worksAlone(own)) return [];
   const who = `${c.a.operator.name} is ${own === 'learning' ? `learning ${label}` : `not trained for ${label}`}`;
   const mentor = c.a.mentor;
   let message: string | null = null;
   if (!mentor || mentor.membershipId === c.a.operator.membershipId) message = `${who} and has no mentor on ${c.a.field.name}`;
-  else if (skills.get(mentor.membershipId)?.[op] !== 'mentor') message = `${who}; ${mentor.name} is not a mentor for ${label}`;
+  else if (!mayMentor(skills.get(mentor.membershipId)?.[op])) message = `${who}; ${mentor.name} is not a mentor for ${label}`;
   return message ? [{ code: 'learner_without_mentor', severity: 'hard', message, assignmentIds: [c.a.id] }] : [];
 }
 
@@ -134,6 +148,13 @@ export function findConflicts(cards: readonly ConflictCard[], skills: Skills, da
       message: `${c.a.field.name} is already finished for ${op} this season`,
       assignmentIds: [c.a.id],
     });
+  }
+  for (const c of open) {
+    const warning = windowWarning(c);
+    if (warning) {
+      const op = OPERATION_INFO[c.a.operation].label.toLowerCase();
+      out.push({ code: 'window_too_short', severity: 'soft', message: `${warning}: ${c.a.field.name} ${op}`, assignmentIds: [c.a.id] });
+    }
   }
   for (const p of hoursByPerson(active).values()) {
     if (p.hours > dayHoursLimit) {

@@ -11,7 +11,7 @@ import { whyCannotPull } from '../fleet/can-pull';
 import { serviceDue } from '../fleet/service-due';
 import { acresDone, viewsOfDay } from '../jobs/assignments.repository';
 import type { AssignmentView } from '../jobs/jobs.rows';
-import { acresToDo, seasonOf } from '../jobs/progress';
+import { acresToDo, cardAcresLeft, seasonOf } from '../jobs/progress';
 import { getDay } from './board-days.repository';
 import type { DbBoardDayRow, DbPassPlanRow } from './board.rows';
 import { formatMinutes } from './clock';
@@ -56,8 +56,12 @@ function toAssignment(v: AssignmentView, done: number, plan: DbPassPlanRow | und
     endTime: '',
     acresPlanned: roundTo(v.acres_planned),
     acresToDo: acresToDo(v, done),
+    acresLeft: cardAcresLeft(v.field_acres, done),
     planHours: hours.hours,
     planSource: hours.source,
+    // Set from the schedule below.
+    bookedHours: 0,
+    fitsWindow: true,
     note: v.note,
     problemCount: v.problem_count,
     log: {
@@ -106,10 +110,13 @@ export async function loadDay(db: Tx, farmId: number, day: string): Promise<DayC
     const t = times.get(a.id)!;
     a.startTime = formatMinutes(t.start);
     a.endTime = formatMinutes(t.end);
+    a.bookedHours = roundTo((t.end - t.start) / 60);
+    a.fitsWindow = t.fits;
     return {
       a,
       start: t.start,
       end: t.end,
+      window: t.window,
       implementOperations: v.implement_operations,
       cannotPull: whyCannotPull(
         { id: v.machine_id, name: v.machine_name, kind: v.machine_kind, powerHp: v.machine_power_hp },

@@ -1,5 +1,7 @@
 // What a board day reads besides its jobs: the saved pass plans and hazards of its fields, and the
 // farm's people (who may be given field work).
+import type { Operation } from '../../shared/operations';
+import type { SkillLevel } from '../../shared/schemas/fleet';
 import type { Tx } from '../db/knex';
 import type { DbHazardRow } from '../fields/fields.repository';
 import type { DbPassPlanRow } from './board.rows';
@@ -33,3 +35,9 @@ export const assignablePerson = (db: Tx, farmId: number, membershipId: number): 
 /** The hazards of the given fields, in the order they were marked. */
 export const hazardsOfFields = (db: Tx, farmId: number, fieldIds: number[]): Promise<DbHazardRow[]> =>
   fieldIds.length ? db<DbHazardRow>('hazards').where({ farm_id: farmId }).whereIn('field_id', fieldIds).orderBy('id') : Promise.resolve([]);
+
+/** A person's skill for an operation, or null when they have none. */
+export async function skillOf(db: Tx, farmId: number, membershipId: number, operation: Operation): Promise<SkillLevel | null> {
+  const row = await db('crew_skills').where({ farm_id: farmId, membership_id: membershipId, operation }).first('level');
+  return (row?.level as SkillLevel | undefined) ?? null;
+}

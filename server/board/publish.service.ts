@@ -57,6 +57,7 @@ export async function publishBoard(deps: AppDeps, by: SessionPrincipal, day: str
         membership_id: p.membershipId,
         kind: p.kind,
         content_hash: p.hash,
+        jobs: p.marks,
         mail_id: mailId,
         board_version: locked.version,
       });

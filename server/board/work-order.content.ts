@@ -5,6 +5,7 @@ import { DateTime } from 'luxon';
 import { OPERATION_INFO, type Operation } from '../../shared/operations';
 import { HAZARD_LABELS, type HazardKind } from '../../shared/schemas/fields';
 import { mToFt } from '../../shared/units';
+import { windowWarning, type ConflictCard } from './conflicts';
 import type { DayContext } from './day-context';
 import { planKey } from './day-context';
 import { roundTo } from '../../shared/round';
@@ -22,9 +23,14 @@ export interface OrderJob {
   role: 'operator' | 'mentor';
   field: string;
   operation: string;
+  /** The window the owner set when the work does not fit it; else the job's effective times. */
   start: string;
   end: string;
   acresPlanned: number;
+  /** The hours the work takes (the board's planned hours). */
+  hours: number;
+  /** Set when those hours do not fit the window: the board's warning, word for word. */
+  doesNotFit: string | null;
   machine: string;
   implement: string;
   widthFt: number;
@@ -50,25 +56,33 @@ const num = (v: unknown): number | null => (typeof v === 'number' && Number.isFi
 export const dateLabel = (day: string): string => DateTime.fromISO(day).setLocale('en-US').toFormat('cccc, LLLL d, yyyy');
 
 /** The person's jobs that day (as operator or mentor), in time order; called-off jobs are left out. */
-export function orderContent(ctx: DayContext, person: { membershipId: number; name: string }, publicUrl: string): OrderContent {
-  const mine = ctx.cards
+export function jobsOf(ctx: DayContext, person: { membershipId: number }): ConflictCard[] {
+  return ctx.cards
     .filter(
       (c) =>
         c.a.state !== 'called-off' &&
         (c.a.operator.membershipId === person.membershipId || c.a.mentor?.membershipId === person.membershipId),
     )
     .sort((x, y) => x.start - y.start || x.a.order - y.a.order || x.a.id - y.a.id);
+}
+
+/** The person's order: their jobs (see `jobsOf`, in that order), the operations' cautions and the link. */
+export function orderContent(ctx: DayContext, person: { membershipId: number; name: string }, publicUrl: string): OrderContent {
   const operations = new Set<Operation>();
-  const jobs = mine.map(({ a }): OrderJob => {
+  const jobs = jobsOf(ctx, person).map((card): OrderJob => {
+    const { a } = card;
     operations.add(a.operation);
     const plan = ctx.passPlans.get(planKey(a.field.id, a.operation));
+    const doesNotFit = windowWarning(card);
     return {
       role: a.operator.membershipId === person.membershipId ? 'operator' : 'mentor',
       field: a.field.name,
       operation: OPERATION_INFO[a.operation].label,
       start: a.startTime,
-      end: a.endTime,
+      end: doesNotFit && a.plannedEnd ? a.plannedEnd : a.endTime,
       acresPlanned: a.acresPlanned,
+      hours: a.planHours,
+      doesNotFit,
       machine: a.machine.name,
       implement: a.implement.name,
       widthFt: roundTo(mToFt(a.implement.widthM), 1),
@@ -107,6 +121,24 @@ export function orderContent(ctx: DayContext, person: { membershipId: number; na
 /** SHA-256 of the order's content: equal hashes mean the same order. */
 export const hashOrder = (content: OrderContent | { withdrawn: string }): string =>
   createHash('sha256').update(JSON.stringify(content)).digest('hex');
+
+/** What a published order said of one job: enough to tell later whether it moved or changed. */
+export interface OrderJobMark {
+  id: number;
+  /** Its times and place among the person's jobs. */
+  at: string;
+  /** SHA-256 of the rest of what the order said of it. */
+  body: string;
+}
+
+/** One mark per job of an order, in the order's order (`jobs` of `orderContent` for the same person). */
+export function orderMarks(cards: readonly ConflictCard[], jobs: readonly OrderJob[]): OrderJobMark[] {
+  return jobs.map(({ start, end, ...rest }, i) => ({
+    id: cards[i].a.id,
+    at: `${start}–${end} #${i + 1}`,
+    body: createHash('sha256').update(JSON.stringify(rest)).digest('hex'),
+  }));
+}
 
 /** The people who get an order that day: everyone on a live job as operator or mentor. */
 export function peopleWithJobs(ctx: DayContext): Array<{ membershipId: number; name: string }> {

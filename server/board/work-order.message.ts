@@ -18,7 +18,8 @@ const planLine = (p: NonNullable<OrderJob['passPlan']>) =>
 
 function jobText(j: OrderJob, i: number): string {
   const lines = [
-    `${i + 1}. ${j.field}: ${j.operation}, ${j.start}–${j.end}, ${j.acresPlanned} ac`,
+    `${i + 1}. ${j.field}: ${j.operation}, ${j.start}–${j.end}, ${j.acresPlanned} ac, ${j.hours} h planned`,
+    j.doesNotFit ? `   Warning: ${j.doesNotFit}. Ask the owner before you start.` : null,
     j.role === 'mentor' ? `   You mentor ${j.operator} on this job.` : j.mentor ? `   Mentor: ${j.mentor}` : null,
     `   Machine: ${j.machine}`,
     `   Implement: ${j.implement} (${j.widthFt} ft)`,
@@ -32,8 +33,9 @@ function jobText(j: OrderJob, i: number): string {
 function jobHtml(j: OrderJob): string {
   const row = (k: string, v: string) =>
     `<tr><th style="text-align:left;padding-right:8px;vertical-align:top">${esc(k)}</th><td>${v}</td></tr>`;
-  return `<li style="margin-bottom:12px"><strong>${esc(j.field)}</strong>: ${esc(j.operation)}, ${esc(j.start)}–${esc(j.end)}, ${j.acresPlanned} ac
+  return `<li style="margin-bottom:12px"><strong>${esc(j.field)}</strong>: ${esc(j.operation)}, ${esc(j.start)}–${esc(j.end)}, ${j.acresPlanned} ac, ${j.hours} h planned
 <table style="font-size:14px">${[
+    j.doesNotFit ? row('Warning', `${esc(j.doesNotFit)}. Ask the owner before you start.`) : '',
     j.role === 'mentor' ? row('Mentoring', esc(j.operator)) : j.mentor ? row('Mentor', esc(j.mentor)) : '',
     row('Machine', esc(j.machine)),
     row('Implement', `${esc(j.implement)} (${j.widthFt} ft)`),

@@ -1,6 +1,6 @@
-import type { WorkOrderState } from '../../shared/schemas/board';
+import type { OrderChanges, WorkOrderState } from '../../shared/schemas/board';
 import type { DayContext } from './day-context';
-import { hashOrder, orderContent, peopleWithJobs, type OrderContent } from './work-order.content';
+import { hashOrder, jobsOf, orderContent, orderMarks, peopleWithJobs, type OrderContent, type OrderJobMark } from './work-order.content';
 import type { WorkOrderWithMail } from './work-orders.repository';
 
 export interface OrderPlan {
@@ -10,6 +10,8 @@ export interface OrderPlan {
   kind: 'order' | 'withdrawn';
   hash: string;
   content: OrderContent | null;
+  /** Per job of `content`, what is kept to tell later what changed (empty for a withdrawal). */
+  marks: OrderJobMark[];
   last: WorkOrderWithMail | undefined;
   /** Differs from what was last published (or was never published). */
   changed: boolean;
@@ -26,6 +28,7 @@ export function planOrders(ctx: DayContext, published: WorkOrderWithMail[], publ
   const withJobs = peopleWithJobs(ctx);
   const plans: OrderPlan[] = withJobs.map((p) => {
     const content = orderContent(ctx, p, publicUrl);
+    const marks = orderMarks(jobsOf(ctx, p), content.jobs);
     const hash = hashOrder(content);
     const prev = last.get(p.membershipId);
     return {
@@ -34,6 +37,7 @@ export function planOrders(ctx: DayContext, published: WorkOrderWithMail[], publ
       kind: 'order',
       hash,
       content,
+      marks,
       last: prev,
       changed: !prev || prev.content_hash !== hash,
     };
@@ -49,11 +53,32 @@ export function planOrders(ctx: DayContext, published: WorkOrderWithMail[], publ
       kind: 'withdrawn',
       hash,
       content: null,
+      marks: [],
       last: prev,
       changed: prev.content_hash !== hash,
     });
   }
   return plans.sort((a, b) => a.name.localeCompare(b.name));
+}
+
+/**
+ * What changed in a person's jobs between the order last published and the order now: jobs new to
+ * it, at another time or place in the day, otherwise different (one that is both counts as
+ * edited), and gone. Null when the published order kept no marks (published before they were kept).
+ */
+export function changesBetween(published: readonly OrderJobMark[] | null, now: readonly OrderJobMark[]): OrderChanges | null {
+  if (!published) return null;
+  const before = new Map(published.map((m) => [m.id, m]));
+  const out: OrderChanges = { added: 0, moved: 0, edited: 0, removed: 0 };
+  for (const m of now) {
+    const was = before.get(m.id);
+    if (!was) out.added++;
+    else if (was.body !== m.body) out.edited++;
+    else if (was.at !== m.at) out.moved++;
+  }
+  const still = new Set(now.map((m) => m.id));
+  out.removed = published.filter((m) => !still.has(m.id)).length;
+  return out;
 }
 
 export const toOrderState = (p: OrderPlan): WorkOrderState => ({
@@ -62,5 +87,6 @@ export const toOrderState = (p: OrderPlan): WorkOrderState => ({
   status: p.last ? (p.last.mail_status ?? 'none') : 'none',
   sentAt: p.last?.sent_at?.toISOString() ?? null,
   changedSincePublish: !!p.last && p.changed,
+  changes: p.last && p.changed ? changesBetween(p.last.jobs, p.marks) : null,
   kind: p.last?.kind ?? null,
 });

@@ -15,11 +15,17 @@ export const ordersOfDay = (db: Tx, farmId: number, day: string): Promise<WorkOr
     .select('w.*', 'o.status as mail_status', 'o.sent_at');
 
 export async function saveOrder(db: Tx, row: Omit<DbWorkOrderRow, 'published_at'>): Promise<void> {
-  await db('work_orders').insert(row).onConflict(['farm_id', 'day', 'membership_id']).merge({
-    kind: row.kind,
-    content_hash: row.content_hash,
-    mail_id: row.mail_id,
-    board_version: row.board_version,
-    published_at: db.fn.now(),
-  });
+  // jsonb from an array must be sent as JSON text: the driver would send a PostgreSQL array.
+  const jobs = row.jobs && JSON.stringify(row.jobs);
+  await db('work_orders')
+    .insert({ ...row, jobs })
+    .onConflict(['farm_id', 'day', 'membership_id'])
+    .merge({
+      kind: row.kind,
+      content_hash: row.content_hash,
+      jobs,
+      mail_id: row.mail_id,
+      board_version: row.board_version,
+      published_at: db.fn.now(),
+    });
 }

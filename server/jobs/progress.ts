@@ -35,6 +35,13 @@ export function acresToDo(job: { field_acres: number; state: AssignmentState; ac
   return Math.max(0, roundTo(job.field_acres - (doneThisSeason - own)));
 }
 
+/**
+ * A card's acres left, as the board shows it (to 0.01 ac): what is left of the field after every
+ * job finished this season for that operation, the card's own included when it is finished
+ * (a card that did 185.5 of 200 ac leaves 14.5 ac).
+ */
+export const cardAcresLeft = (fieldAcres: number, doneThisSeason: number): number => roundTo(acresLeft(fieldAcres, doneThisSeason));
+
 /** Default acres for a new card: what is left of the field (to 0.0001 ac), or the whole field when it is finished. */
 export function defaultAcresPlanned(fieldAcres: number, doneThisSeason: number): number {
   const left = fieldAcres - doneThisSeason;

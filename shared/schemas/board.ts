@@ -5,7 +5,7 @@ import { z } from 'zod';
 import { OPERATIONS, type Operation } from '../operations';
 import type { ImplementKind } from '../plan/implement-defaults';
 import { DB_INT_MAX, dbIdNumber, isoDate } from './common';
-import type { MachineKind } from './fleet';
+import type { MachineKind, SkillLevel } from './fleet';
 import { jobNote as note, type AssignmentLog, type AssignmentState, type PersonRef } from './jobs';
 
 /** A board day's first job starts here when no times are set (minutes after midnight). */
@@ -24,13 +24,32 @@ export interface CardFacts {
   endTime?: string | null;
   operatorId?: number | null;
   mentorId?: number | null;
+  /** The operator's skill for the card's operation (null: none); undefined when not looked up. */
+  operatorSkill?: SkillLevel | null;
 }
+
+/** Someone who works an operation alone: qualified for it, or a mentor for it. */
+export const worksAlone = (skill: SkillLevel | null | undefined): boolean => skill === 'qualified' || skill === 'mentor';
+
+/** Someone who may mentor a learner in an operation. */
+export const mayMentor = (skill: SkillLevel | null | undefined): boolean => skill === 'mentor';
 
 /** When both times are set, the end comes after the start ('HH:MM' of equal width compares as text). */
 export const endAfterStart = (c: CardFacts): boolean => !(c.startTime && c.endTime) || c.endTime > c.startTime;
 
 /** A mentor, when there is one, is someone other than the operator. */
 export const mentorIsNotOperator = (c: CardFacts): boolean => !c.mentorId || c.mentorId !== c.operatorId;
+
+/** A mentor, when there is one, is for an operator who needs one: someone who works alone has none. */
+export const mentorOnlyForLearner = (c: CardFacts): boolean => !c.mentorId || c.operatorSkill === undefined || !worksAlone(c.operatorSkill);
+
+/**
+ * The mentor a card keeps when its operator (or operation) changes and the owner did not name one:
+ * none when the new operator works alone or is the mentor themself, so a learner's card moved to
+ * someone qualified carries no stale mentor (and no error about one).
+ */
+export const settledMentor = (c: CardFacts): number | null =>
+  !c.mentorId || !mentorIsNotOperator(c) || !mentorOnlyForLearner(c) ? null : c.mentorId;
 
 export interface CardRule {
   field: 'mentorId' | 'endTime';
@@ -48,6 +67,12 @@ export interface CardRule {
  */
 export const CARD_RULES: readonly CardRule[] = [
   { field: 'mentorId', holds: mentorIsNotOperator, message: 'The mentor must be someone other than the operator', hint: 'Someone else' },
+  {
+    field: 'mentorId',
+    holds: mentorOnlyForLearner,
+    message: 'The operator is qualified for this operation and works without a mentor',
+    hint: 'No mentor needed',
+  },
   { field: 'endTime', holds: endAfterStart, message: 'The end time must be after the start time', hint: 'Must be after the start time' },
 ];
 
@@ -138,9 +163,19 @@ export interface BoardAssignment {
   acresPlanned: number;
   /** Field acres less the acres other jobs finished for this operation this season, ≥ 0. */
   acresToDo: number;
+  /** Field acres still to do after every job finished this season, this one included, ≥ 0. */
+  acresLeft: number;
+  /** Hours the work takes. */
   planHours: number;
   /** `pass-plan`: the saved pass plan's hours (scaled to the acres planned); `estimate`: acres ÷ effective field capacity. */
   planSource: 'pass-plan' | 'estimate';
+  /**
+   * Hours the card holds its people, from `startTime` to `endTime`: the longer of `planHours` and
+   * the window the owner set (server/board/schedule.ts). The column's total and the day limit count these.
+   */
+  bookedHours: number;
+  /** False when the window the owner set is shorter than `planHours` (a `window_too_short` warning). */
+  fitsWindow: boolean;
   note: string | null;
   problemCount: number;
   log: AssignmentLog;
@@ -156,6 +191,7 @@ export interface Conflict {
     | 'learner_without_mentor'
     | 'field_finished'
     | 'over_day_hours'
+    | 'window_too_short'
     | 'service_overdue';
   severity: 'hard' | 'soft';
   message: string;
@@ -175,8 +211,20 @@ export interface WorkOrderState {
   sentAt: string | null;
   /** The order as it would be mailed now differs from the one last published. */
   changedSincePublish: boolean;
+  /**
+   * What changed since publishing, in jobs: new to the order, at another time or place in the day,
+   * otherwise different, gone. Null when never published, or published before this was kept.
+   */
+  changes: OrderChanges | null;
   /** `withdrawn`: the person had jobs when last published and now has none. */
   kind: 'order' | 'withdrawn' | null;
+}
+
+export interface OrderChanges {
+  added: number;
+  moved: number;
+  edited: number;
+  removed: number;
 }
 
 export interface Board {

@@ -1,5 +1,5 @@
 import type { Conflict } from '@shared/schemas/board';
-import { applyOrder, boardColumns, conflictsByCard, orderAfterMove } from './board-columns';
+import { applyOrder, boardColumns, changesText, conflictsByCard, orderAfterMove } from './board-columns';
 import { ADA, CREW, MILO, TOMAS, board, card } from './testing/board-fixtures';
 
 describe('boardColumns', () => {
@@ -27,6 +27,15 @@ describe('boardColumns', () => {
     expect(tomas.overLimit).toBe(false);
   });
 
+  it('when a card does not fit its window, then the column counts the hours it books (its planned hours), not the window', () => {
+    const b = board([
+      card(1, TOMAS, 1, { planHours: 28.5, bookedHours: 28.5, plannedStart: '08:00', plannedEnd: '12:00', fitsWindow: false }),
+    ]);
+    const tomas = boardColumns(b, CREW)[0];
+    expect(tomas.plannedHours).toBe(28.5);
+    expect(tomas.overLimit).toBe(true);
+  });
+
   it('when the server sends hours (mentoring counted, overlaps once), then its figure wins and the day limit is checked', () => {
     const b = board([card(1, TOMAS, 1, { planHours: 2 })], { operators: [{ ...TOMAS, plannedHours: 11.5 }], dayHoursLimit: 10 });
     const tomas = boardColumns(b, CREW)[0];
@@ -42,7 +51,9 @@ describe('boardColumns', () => {
   });
 
   it('when work orders were published, then each column carries its own order state', () => {
-    const b = board([], { orders: [{ ...ADA, status: 'sent', sentAt: '2031-05-14T19:00:00Z', changedSincePublish: true, kind: 'order' }] });
+    const b = board([], {
+      orders: [{ ...ADA, status: 'sent', sentAt: '2031-05-14T19:00:00Z', changedSincePublish: true, changes: null, kind: 'order' }],
+    });
     const cols = boardColumns(b, CREW);
     expect(cols.find((c) => c.membershipId === ADA.membershipId)!.order).toMatchObject({ status: 'sent', changedSincePublish: true });
     expect(cols[0].order).toBeNull();
@@ -112,5 +123,27 @@ describe('conflictsByCard', () => {
     const map = conflictsByCard(board([card(1, TOMAS, 1), card(2, TOMAS, 2)], { conflicts: [soft, hard] }));
     expect(map.get(2)!.map((c) => c.message)).toEqual(['Twice', 'Long day']);
     expect(map.get(1)!.map((c) => c.message)).toEqual(['Long day']);
+  });
+});
+
+describe('changesText', () => {
+  const order = { ...ADA, status: 'sent' as const, sentAt: '2031-05-14T19:00:00Z', kind: 'order' as const };
+
+  it('when jobs were added and moved since publishing, then the column says how many of each', () => {
+    expect(changesText({ ...order, changedSincePublish: true, changes: { added: 1, moved: 1, edited: 0, removed: 0 } })).toBe(
+      'Since publishing: 1 added, 1 moved',
+    );
+    expect(changesText({ ...order, changedSincePublish: true, changes: { added: 0, moved: 0, edited: 2, removed: 1 } })).toBe(
+      'Since publishing: 2 edited, 1 removed',
+    );
+  });
+
+  it('when what changed is not known, then it says only that it changed; unchanged, nothing', () => {
+    expect(changesText({ ...order, changedSincePublish: true, changes: null })).toBe('Changed since publishing');
+    expect(changesText({ ...order, changedSincePublish: true, changes: { added: 0, moved: 0, edited: 0, removed: 0 } })).toBe(
+      'Changed since publishing',
+    );
+    expect(changesText({ ...order, changedSincePublish: false, changes: null })).toBeNull();
+    expect(changesText(null)).toBeNull();
   });
 });

@@ -1,6 +1,6 @@
 // How the work board is laid out: one column per person who can run a machine, their cards in
 // running order, and what a drag (or a keyboard move) sends to the order endpoint.
-import type { Board, BoardAssignment, BoardOrder, WorkOrderState } from '@shared/schemas/board';
+import type { Board, BoardAssignment, BoardOrder, OrderChanges, WorkOrderState } from '@shared/schemas/board';
 import { roundTo } from '@shared/round';
 import type { CrewMember } from '@shared/schemas/fleet';
 
@@ -26,7 +26,8 @@ const byRunningOrder = (a: BoardAssignment, b: BoardAssignment) => a.order - b.o
 /**
  * The board's columns: every operator and owner of the crew (operators first), then anyone else
  * the board names, each with their cards in running order. Called-off cards stay in the column but
- * add no hours.
+ * add no hours. A card adds the hours it books (the server's one rule: the longer of its planned
+ * hours and its window), never only its window.
  */
 export function boardColumns(board: Board, crew: readonly CrewMember[]): BoardColumn[] {
   const people = new Map<number, string>();
@@ -39,7 +40,7 @@ export function boardColumns(board: Board, crew: readonly CrewMember[]): BoardCo
   return [...people].map(([membershipId, name]) => {
     const cards = board.assignments.filter((a) => a.operator.membershipId === membershipId).sort(byRunningOrder);
     const fromServer = board.operators.find((o) => o.membershipId === membershipId)?.plannedHours;
-    const plannedHours = roundTo(fromServer ?? cards.filter((a) => a.state !== 'called-off').reduce((sum, a) => sum + a.planHours, 0));
+    const plannedHours = roundTo(fromServer ?? cards.filter((a) => a.state !== 'called-off').reduce((sum, a) => sum + a.bookedHours, 0));
     return {
       membershipId,
       name,
@@ -99,6 +100,24 @@ export function applyOrder(board: Board, columns: OrderColumns, names: ReadonlyM
       return { ...a, operator, order: place.order };
     }),
   };
+}
+
+const CHANGE_WORDS: ReadonlyArray<[keyof OrderChanges, string]> = [
+  ['added', 'added'],
+  ['moved', 'moved'],
+  ['edited', 'edited'],
+  ['removed', 'removed'],
+];
+
+/**
+ * What a column says of an order that changed since it was published: "Since publishing: 1 added,
+ * 1 moved"; "Changed since publishing" when what changed is not known (an order published before
+ * the jobs were kept, or a change outside the jobs, such as the cautions); null when unchanged.
+ */
+export function changesText(order: WorkOrderState | null): string | null {
+  if (!order?.changedSincePublish) return null;
+  const parts = CHANGE_WORDS.filter(([k]) => (order.changes?.[k] ?? 0) > 0).map(([k, word]) => `${order.changes![k]} ${word}`);
+  return parts.length ? `Since publishing: ${parts.join(', ')}` : 'Changed since publishing';
 }
 
 /** Conflicts by card id, hard ones first. */

@@ -47,6 +47,19 @@ export class AssignmentCard {
   protected readonly stateLabel = computed(() => STATE_LABELS[this.assignment().state]);
   protected readonly hours = computed(() => hoursText(this.assignment().planHours));
   protected readonly source = computed(() => (this.assignment().planSource === 'pass-plan' ? 'from pass plan' : 'estimate'));
+  /**
+   * The times as the owner set them when the work does not fit them (the warning below says by how
+   * much); otherwise the card's effective times.
+   */
+  protected readonly times = computed(() => {
+    const a = this.assignment();
+    return `${a.startTime}–${!a.fitsWindow && a.plannedEnd ? a.plannedEnd : a.endTime}`;
+  });
+  /** A window longer than the work books the person for all of it: said, so the column's hours add up. */
+  protected readonly booked = computed(() => {
+    const a = this.assignment();
+    return a.fitsWindow && hoursText(a.bookedHours) !== hoursText(a.planHours) ? `${hoursText(a.bookedHours)} booked` : null;
+  });
   protected readonly timesSet = computed(() => this.assignment().plannedStart !== null || this.assignment().plannedEnd !== null);
   protected readonly hard = computed(() => this.conflicts().filter((c) => c.severity === 'hard'));
   protected readonly soft = computed(() => this.conflicts().filter((c) => c.severity === 'soft'));

@@ -6,7 +6,7 @@ import { MAT_DIALOG_DATA, MatDialogRef } from '@angular/material/dialog';
 import type { Board } from '@shared/schemas/board';
 import { AuthStore } from '../../../core/auth/auth-store';
 import { errorInterceptor } from '../../../core/http/error.interceptor';
-import { CREW, IMPLEMENTS, MACHINES, MILO, TOMAS, board, card } from '../testing/board-fixtures';
+import { ADA, CREW, IMPLEMENTS, MACHINES, MILO, TOMAS, board, card } from '../testing/board-fixtures';
 import { AssignmentForm, type AssignmentFormData, canWork, changesFrom } from './assignment-form';
 
 describe('AssignmentForm', () => {
@@ -84,6 +84,45 @@ describe('AssignmentForm', () => {
     expect(fixture.nativeElement.textContent).toContain('Milo Sorensen is learning harrowing: choose a mentor');
     expect(await options('Mentor')).toEqual(['No mentor', 'Tomas Reyes']);
     expect(await options('Operator')).toContain('Milo Sorensen (learning)');
+  });
+
+  it("when a learner's card is given to a qualified operator, then the mentor is cleared, none is offered and the form says why", async () => {
+    open({ assignment: card(3, MILO, 1, { mentor: TOMAS }) });
+    await fixture.whenStable();
+    expect(fixture.componentInstance['form'].getRawValue().mentorId).toBe(TOMAS.membershipId);
+    form().patchValue({ operatorId: TOMAS.membershipId, operation: 'seeding' });
+    form().patchValue({ operation: 'harrowing' });
+    await fixture.whenStable();
+    expect(fixture.componentInstance['form'].getRawValue().mentorId).toBeNull();
+    expect(fixture.nativeElement.textContent).toContain('Tomas Reyes is qualified for harrowing: no mentor needed.');
+    expect(await options('Mentor')).toEqual(['No mentor']);
+    submit();
+    const req = http.expectOne('/api/assignments/3');
+    // Only what changed: the operator, and the mentor no longer needed.
+    expect(req.request.body).toEqual({ version: 4, operatorId: TOMAS.membershipId, mentorId: null });
+    req.flush(board([card(3, TOMAS, 1)], { version: 5 }));
+    await fixture.whenStable();
+    expect(fixture.nativeElement.querySelector('mat-error')).toBeNull();
+  });
+
+  it('when the mentor was made the operator, then the form refuses it before sending, and moving the card on clears the stale error', async () => {
+    open({ assignment: card(3, MILO, 1, { mentor: TOMAS }) });
+    await fixture.whenStable();
+    // Made the mentor the operator by hand: the shared rule refuses it before sending.
+    form().patchValue({ mentorId: TOMAS.membershipId });
+    fixture.componentInstance['form'].controls.operatorId.setValue(TOMAS.membershipId, { emitEvent: false });
+    submit();
+    await fixture.whenStable();
+    expect(fixture.nativeElement.textContent).toContain('The mentor must be someone other than the operator');
+    http.expectNone('/api/assignments/3');
+    // To Ada, not trained for harrowing: the mentor is still needed and kept. Back to the mentor: dropped, and the error goes.
+    form().patchValue({ operatorId: ADA.membershipId });
+    await fixture.whenStable();
+    expect(fixture.componentInstance['form'].getRawValue().mentorId).toBe(TOMAS.membershipId);
+    form().patchValue({ operatorId: TOMAS.membershipId });
+    await fixture.whenStable();
+    expect(fixture.componentInstance['form'].getRawValue().mentorId).toBeNull();
+    expect(fixture.nativeElement.textContent).not.toContain('The mentor must be someone other than the operator');
   });
 
   it('when a new card is saved, then it posts the board version and the whole card, and closes with the board', async () => {

@@ -11,7 +11,10 @@ import { roundTo } from '@shared/round';
 import {
   CARD_RULES,
   brokenCardRules,
+  mayMentor,
   mentorIsNotOperator,
+  settledMentor,
+  worksAlone,
   type AssignmentCreate,
   type AssignmentPatch,
   type Board,
@@ -122,25 +125,48 @@ export class AssignmentForm {
     const implement = this.data.implements.find((i) => i.id === this.value().implementId);
     return implement ? this.data.machines.filter((m) => canWork(m, implement)) : this.data.machines;
   });
-  protected readonly needsMentor = computed(() => {
+  /** What the mentor field says of the operator: whether they need a mentor for the operation. */
+  protected readonly mentorHint = computed(() => {
     const op = this.operation();
     const operator = this.data.crew.find((c) => c.membershipId === this.value().operatorId);
     if (!op || !operator) return null;
     const level = operator.skills[op];
-    if (level === 'qualified' || level === 'mentor') return null;
     const label = OPERATION_INFO[op].label.toLowerCase();
+    if (worksAlone(level)) return `${operator.name} is qualified for ${label}: no mentor needed.`;
     return level === 'learning'
       ? `${operator.name} is learning ${label}: choose a mentor who works the same field that day.`
       : `${operator.name} is not trained for ${label}: choose a mentor.`;
   });
+  /** Only people who may mentor the operation, never the operator, and nobody when the operator works alone. */
   protected readonly mentorOptions = computed(() => {
     const op = this.operation();
     if (!op) return [];
     const operatorId = this.value().operatorId;
-    return this.data.crew.filter((c) => c.skills[op] === 'mentor' && mentorIsNotOperator({ operatorId, mentorId: c.membershipId }));
+    if (worksAlone(this.skillOf(operatorId, op))) return [];
+    return this.data.crew.filter((c) => mayMentor(c.skills[op]) && mentorIsNotOperator({ operatorId, mentorId: c.membershipId }));
   });
 
+  private skillOf(membershipId: number | null | undefined, op: Operation | null | undefined): SkillLevel | null {
+    return (op && this.data.crew.find((c) => c.membershipId === membershipId)?.skills[op]) || null;
+  }
+
+  /**
+   * After the operator or the operation changed: the mentor stays only while the operator needs one
+   * (the same rule as the server's, shared/schemas/board.ts) and while they may mentor the
+   * operation, so no stale mentor, or error about one, is left behind.
+   */
+  private settleMentor(operatorId: number | null, op: Operation | null): void {
+    const mentor = this.form.controls.mentorId;
+    const kept = settledMentor({ operatorId, mentorId: mentor.value, operatorSkill: this.skillOf(operatorId, op) });
+    const next = kept !== null && op && !mayMentor(this.skillOf(kept, op)) ? null : kept;
+    if (next !== mentor.value) mentor.setValue(next);
+    // A rule error on the mentor belonged to the card as it was.
+    if (mentor.hasError('rule') || mentor.hasError('server')) mentor.updateValueAndValidity();
+  }
+
   constructor() {
+    this.form.controls.operatorId.valueChanges.subscribe((id) => this.settleMentor(id, this.form.controls.operation.value));
+    this.form.controls.operation.valueChanges.subscribe((op) => this.settleMentor(this.form.controls.operatorId.value, op));
     // Acres planned belong to a field: another field starts from what is left of it.
     this.form.controls.fieldId.valueChanges.subscribe(() => this.form.controls.acresPlanned.setValue(null));
     this.form.controls.operation.valueChanges.subscribe((op) => {
@@ -165,7 +191,15 @@ export class AssignmentForm {
     // The same rules between a card's fields as the server's (shared/schemas/board.ts); a rule
     // broken at the last try is looked at afresh, whichever field was changed since.
     for (const { field } of CARD_RULES) if (this.form.controls[field].hasError('rule')) this.form.controls[field].updateValueAndValidity();
-    for (const rule of brokenCardRules(this.form.getRawValue())) this.form.controls[rule.field].setErrors({ rule: rule.message });
+    const raw = this.form.getRawValue();
+    const facts = { ...raw, operatorSkill: this.skillOf(raw.operatorId, raw.operation) };
+    const marked = new Set<string>();
+    for (const rule of brokenCardRules(facts)) {
+      // The first rule a field breaks is the one it shows, as the server would answer.
+      if (marked.has(rule.field)) continue;
+      marked.add(rule.field);
+      this.form.controls[rule.field].setErrors({ rule: rule.message });
+    }
     if (this.form.invalid) {
       this.form.markAllAsTouched();
       return;

@@ -208,7 +208,7 @@ describe('BoardPage', () => {
       board: board([card(1, TOMAS, 1), card(4, ADA, 1)], {
         version: 5,
         publishedAt: '2031-05-14T19:00:00Z',
-        orders: [{ ...TOMAS, status: 'queued', sentAt: null, changedSincePublish: false, kind: 'order' }],
+        orders: [{ ...TOMAS, status: 'queued', sentAt: null, changedSincePublish: false, changes: null, kind: 'order' }],
       }),
     };
     req.flush(result);

@@ -26,6 +26,7 @@ import {
   type OrderColumns,
   applyOrder,
   boardColumns,
+  changesText,
   conflictsByCard,
   orderAfterMove,
 } from '../board-columns';
@@ -116,6 +117,7 @@ export class BoardPage {
   protected readonly stale = signal<StaleNotice | null>(null);
 
   protected readonly hoursText = hoursText;
+  protected readonly changesText = changesText;
   protected readonly stamp = stampTime;
   protected readonly limit = computed(() => this.current()?.dayHoursLimit ?? 0);
 

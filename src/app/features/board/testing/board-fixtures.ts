@@ -114,8 +114,12 @@ export function card(
     endTime: '09:00',
     acresPlanned: 160,
     acresToDo: 160,
+    acresLeft: over.acresLeft ?? over.acresToDo ?? 160,
     planHours: 2,
     planSource: 'estimate',
+    // Without a window the card books its planned hours.
+    bookedHours: over.bookedHours ?? over.planHours ?? 2,
+    fitsWindow: true,
     note: null,
     problemCount: 0,
     log: {
@@ -171,6 +175,7 @@ export function job(over: Partial<RunSheetItem> = {}): RunSheetItem {
     passPlan: null,
     cautions: ['Look up before folding the implement.', "Furlong's plans are aids."],
     events: [],
+    worked: { engineHours: null, clockHours: null },
     ...over,
   };
 }
