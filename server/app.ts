@@ -24,6 +24,7 @@ import { assignmentRoutes, boardRoutes } from './board/board.routes';
 import { crewRoutes } from './crew/crew.routes';
 import { fleetRoutes } from './fleet/fleet.routes';
 import { jobLogRoutes, runSheetRoutes } from './run-sheet/run-sheet.routes';
+import { reportRoutes } from './reports/reports.routes';
 import { seasonRoutes } from './season/season.routes';
 import { openapiRoutes } from './openapi/openapi.routes';
 import { projectRoot } from './paths';
@@ -90,6 +91,7 @@ export function createApp(options: CreateAppOptions): Express {
   mount('/assignments', (r) => assignmentRoutes(r, deps));
   mount('/assignments', (r) => jobLogRoutes(r, deps));
   mount('/run-sheet', (r) => runSheetRoutes(r, deps));
+  mount('/reports', (r) => reportRoutes(r, deps));
   mount('/season', (r) => seasonRoutes(r, deps));
   mount('', (r) => openapiRoutes(r, deps));
   api.use(apiNotFound);

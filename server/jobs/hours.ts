@@ -53,3 +53,14 @@ export function coveredHours(intervals: ReadonlyArray<readonly [number, number]>
  * lack one).
  */
 export const ENGINE_HOURS_SQL = 'case when engine_hours_end >= engine_hours_start then engine_hours_end - engine_hours_start end';
+
+/**
+ * Engine hours a job ran: the meter at the finish less the meter at the start, the same rule as
+ * `ENGINE_HOURS_SQL`; null when a reading is missing or runs backwards. The meter reads to a tenth
+ * of an hour, so the difference is rounded to a tenth (2789.4 − 2781 is 8.4, not 8.3999…).
+ *
+ * @example engineHoursRun(2781, 2789.4) // 8.4
+ */
+export function engineHoursRun(start: number | null, end: number | null): number | null {
+  return start != null && end != null && end >= start ? roundTo(end - start, 1) : null;
+}

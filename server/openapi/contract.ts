@@ -372,9 +372,23 @@ export const CONTRACT: Record<string, RouteContract> = {
     responses: [json('The job after the change.', 'RunSheetItem')],
   },
   'GET /api/run-sheet': {
-    summary: "Gives a person's jobs for a day, in order.",
+    summary: "Gives a person's jobs for a day, in order; without a day, their next day with work.",
     query: runSheetQuery,
     responses: [json('The run sheet.', 'RunSheet')],
+  },
+  'GET /api/reports': {
+    summary: 'Lists the open reports from the field and the machines a breakdown has put down.',
+    responses: [json('The open reports.', 'FieldReports')],
+  },
+  'POST /api/reports/:id/confirm': {
+    summary: 'Confirms a report from the field (a reported hazard becomes confirmed).',
+    params: idParam,
+    responses: [json('The report.', 'FieldReport')],
+  },
+  'POST /api/reports/:id/dismiss': {
+    summary: 'Dismisses a report from the field.',
+    params: idParam,
+    responses: [json('The report.', 'FieldReport')],
   },
 
   // Season

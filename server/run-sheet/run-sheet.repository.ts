@@ -15,3 +15,25 @@ export async function fieldName(db: Tx, farmId: number, fieldId: number): Promis
   const row = await db('fields').where({ farm_id: farmId, id: fieldId }).first('name');
   return row.name;
 }
+
+/**
+ * The day a person's run sheet opens on: today when they have a job today (in any state: a day
+ * already worked is still their day), else the first later day whose board is published and holds
+ * a job of theirs (as operator or mentor) that is not called off; null when there is none.
+ */
+export async function nextDayWithWork(db: Tx, farmId: number, personId: number, today: string): Promise<string | null> {
+  const row = await db('assignments as a')
+    .leftJoin('board_days as d', (j) => j.on('d.farm_id', 'a.farm_id').andOn('d.day', 'a.day'))
+    .where('a.farm_id', farmId)
+    .andWhere((q) => {
+      q.where('a.operator_id', personId).orWhere('a.mentor_id', personId);
+    })
+    .andWhere((q) => {
+      q.where('a.day', today).orWhere((later) => {
+        later.where('a.day', '>', today).whereNotNull('d.published_at').whereNot('a.state', 'called-off');
+      });
+    })
+    .min<{ day: string | null }>({ day: 'a.day' })
+    .first();
+  return row?.day ?? null;
+}

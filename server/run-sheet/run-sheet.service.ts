@@ -1,7 +1,8 @@
 // An operator's own day: each job they run or mentor, in time order, with the field's map and
 // hazards, the saved pass plan, the machine and implement, the cautions and the log so far.
 import { OPERATION_INFO } from '../../shared/operations';
-import type { RunSheet, RunSheetItem } from '../../shared/schemas/run-sheet';
+import { dayIn } from '../../shared/calendar';
+import type { RunSheet, RunSheetItem, RunSheetOpened } from '../../shared/schemas/run-sheet';
 import type { AppDeps } from '../app-deps';
 import type { ConflictCard } from '../board/conflicts';
 import { loadDay, planKey, type DayContext } from '../board/day-context';
@@ -11,7 +12,8 @@ import { forbidden, notFound } from '../http/errors';
 import type { SessionPrincipal } from '../http/session-user';
 import { getAssignment } from '../jobs/assignments.repository';
 import { eventsOfJobs } from '../jobs/events.repository';
-import { boundariesOf } from './run-sheet.repository';
+import { engineHoursRun } from '../jobs/hours';
+import { boundariesOf, nextDayWithWork } from './run-sheet.repository';
 
 async function itemsOf(db: Tx, ctx: DayContext, cards: ConflictCard[], personId: number): Promise<RunSheetItem[]> {
   const ids = cards.map((c) => c.a.id);
@@ -46,6 +48,9 @@ async function itemsOf(db: Tx, ctx: DayContext, cards: ConflictCard[], personId:
         : null,
       cautions: OPERATION_INFO[a.operation].cautions,
       events: events.get(a.id) ?? [],
+      // Engine hours come from the meter, never from the clock: an operator who taps Start and
+      // Finish at the end of the day still ran the engine for the hours the meter shows.
+      worked: { engineHours: engineHoursRun(a.log.engineHoursStart, a.log.engineHoursEnd), clockHours: a.log.hoursWorked },
     };
   });
 }
@@ -55,15 +60,35 @@ const mine = (ctx: DayContext, personId: number) =>
     .filter((c) => c.a.operator.membershipId === personId || c.a.mentor?.membershipId === personId)
     .sort((x, y) => x.start - y.start || x.a.order - y.a.order || x.a.id - y.a.id);
 
-/** An operator sees only their own sheet; an owner may look at anyone's. */
-export async function readRunSheet(deps: AppDeps, by: SessionPrincipal, date: string, membershipId?: number): Promise<RunSheet> {
+/**
+ * An operator sees only their own sheet; an owner may look at anyone's. Without a date, the sheet
+ * opens on the person's next day with work (today at the farm, else the first published day after),
+ * and says which it chose.
+ */
+export async function readRunSheet(
+  deps: AppDeps,
+  by: SessionPrincipal,
+  asked: string | undefined,
+  membershipId?: number,
+): Promise<RunSheet> {
   const personId = membershipId ?? by.membershipId;
   if (personId !== by.membershipId && by.role !== 'owner') throw forbidden('You can open only your own run sheet');
+  const today = dayIn(by.timeZone);
+  let date: string;
+  let opened: RunSheetOpened = 'asked';
+  if (asked) date = asked;
+  else {
+    const next = await nextDayWithWork(deps.db, by.farmId, personId, today);
+    opened = next === null ? 'no-work-ahead' : next === today ? 'today' : 'next-day-with-work';
+    date = next ?? today;
+  }
   const ctx = await loadDay(deps.db, by.farmId, date);
   const person = ctx.people.find((p) => p.membership_id === personId);
   if (!person) throw notFound('That person');
   return {
     date,
+    today,
+    opened,
     person: { membershipId: personId, name: person.name },
     assignments: await itemsOf(deps.db, ctx, mine(ctx, personId), personId),
   };

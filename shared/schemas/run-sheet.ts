@@ -1,6 +1,7 @@
 // The run sheet: an operator's day, and what they (or the owner) log on a job.
 import type { FeatureCollection, MultiPolygon, Polygon } from 'geojson';
 import { z } from 'zod';
+import type { Operation } from '../operations';
 import type { BoardAssignment } from './board';
 import { dbId, isoDate } from './common';
 import { HAZARD_KINDS } from './fields';
@@ -58,7 +59,8 @@ export const problemBody = z
   .refine((v) => !v.geometry || v.kind === 'hazard', { message: 'Only a hazard report carries a place on the map', path: ['geometry'] });
 export type ProblemInput = z.infer<typeof problemBody>;
 
-export const runSheetQuery = z.object({ date: isoDate, membershipId: dbId.optional() });
+/** Without a date, the sheet opens on the person's next day with work (see `RunSheet.opened`). */
+export const runSheetQuery = z.object({ date: isoDate.optional(), membershipId: dbId.optional() });
 
 export interface PassPlanOnSheet {
   implementId: number | null;
@@ -81,10 +83,52 @@ export interface RunSheetItem extends Omit<BoardAssignment, 'field' | 'machine'>
   passPlan: PassPlanOnSheet | null;
   cautions: readonly string[];
   events: AssignmentEvent[];
+  /**
+   * What the job took, in two separate measures: `engineHours` is the meter at the finish less the
+   * meter at the start (null until both are logged); `clockHours` is the time from start to finish
+   * less pauses, as the taps were logged (null until finished).
+   */
+  worked: { engineHours: number | null; clockHours: number | null };
 }
+
+/**
+ * Why the sheet shows its day: `asked` (a date was given), `today` (work today), `next-day-with-work`
+ * (none today: the first published day after with work for the person), `no-work-ahead` (none today
+ * nor on any published day after: today, empty).
+ */
+export const RUN_SHEET_OPENED = ['asked', 'today', 'next-day-with-work', 'no-work-ahead'] as const;
+export type RunSheetOpened = (typeof RUN_SHEET_OPENED)[number];
 
 export interface RunSheet {
   date: string;
+  /** Today at the farm (its time zone). */
+  today: string;
+  opened: RunSheetOpened;
   person: PersonRef;
   assignments: RunSheetItem[];
+}
+
+/** A problem, breakdown or new hazard reported from a run sheet, waiting for the owner. */
+export interface FieldReport {
+  /** The report's entry in the job's log. */
+  id: number;
+  kind: (typeof PROBLEM_KINDS)[number];
+  note: string | null;
+  at: string;
+  by: string | null;
+  review: 'open' | 'confirmed' | 'dismissed';
+  job: { id: number; date: string; operation: Operation; state: string };
+  field: { id: number; name: string };
+  machine: { id: number; name: string };
+  hazardId: number | null;
+}
+
+export interface FieldReports {
+  /** Open reports, newest first. */
+  reports: FieldReport[];
+  /**
+   * Machines with an open breakdown report: the board flags them (a breakdown is "down" until the
+   * owner confirms it is dealt with or dismisses it).
+   */
+  machinesDown: Array<{ machineId: number; name: string; reportId: number; since: string }>;
 }

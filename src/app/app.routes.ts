@@ -74,6 +74,12 @@ export const routes: Routes = [
         canActivate: [roleGuard(['owner', 'viewer'])],
         loadChildren: () => import('./features/season/season.routes').then((m) => m.SEASON_ROUTES),
       },
+      {
+        path: 'reports',
+        title: 'Reports from the field · Furlong',
+        canActivate: [roleGuard(['owner'])],
+        loadComponent: () => import('./features/reports/reports-page/reports-page').then((m) => m.ReportsPage),
+      },
       // Later screens add their lazy route here and switch their entry on in nav-items.ts.
     ],
   },

@@ -24,6 +24,22 @@ let dayOffset = Math.floor(Math.random() * 3000);
 /** A day of its own (version 0, no board row yet), so one matrix call never makes another stale. */
 const freshDay = () => new Date(Date.UTC(2031, 0, 1) + dayOffset++ * 86_400_000).toISOString().slice(0, 10);
 
+/** An open report from the field on a spare job of the farm. */
+async function openReport(c: Ctx): Promise<number> {
+  const [e] = await c.t
+    .db('assignment_events')
+    .insert({
+      farm_id: c.farm.id,
+      assignment_id: await spareJob(c),
+      type: 'problem',
+      reason: 'other',
+      note: 'Gate left open',
+      review: 'open',
+    })
+    .returning('id');
+  return e.id;
+}
+
 /** A harrowing job for the farm's operator on a fresh day; `finished` gives it a logged finish. */
 async function spareJob(c: Ctx, finished = false): Promise<number> {
   const db = c.t.db;
@@ -113,5 +129,14 @@ export const board: Record<string, Case> = {
   'GET /api/run-sheet': {
     path: () => '/api/run-sheet?date=2031-01-01',
     expect: { anon: 401, owner: 200, operator: 200, viewer: 403, other: 200 },
+  },
+  'GET /api/reports': { expect: ownerOnly(200) },
+  'POST /api/reports/:id/confirm': {
+    path: async (c) => `/api/reports/${await openReport(c)}/confirm`,
+    expect: ownerOnly(200, 404),
+  },
+  'POST /api/reports/:id/dismiss': {
+    path: async (c) => `/api/reports/${await openReport(c)}/dismiss`,
+    expect: ownerOnly(200, 404),
   },
 };

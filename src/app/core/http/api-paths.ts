@@ -60,6 +60,10 @@ export const API = {
   runSheet: (date: string, membershipId: number | null = null) =>
     `/api/run-sheet?date=${date}${membershipId === null ? '' : `&membershipId=${membershipId}`}`,
 
+  /** Reports from the field (owner): the open list, and confirm or dismiss one. */
+  reports: '/api/reports',
+  reportReview: (id: number, action: 'confirm' | 'dismiss') => `/api/reports/${id}/${action}`,
+
   seasons: '/api/season',
   seasonSummary: (year: number) => `/api/season/${year}/summary`,
   seasonCsv: (year: number, table: SeasonTable) => `/api/season/${year}/export/${table}.csv`,

@@ -4,8 +4,12 @@ import type { EventInput, ProblemInput, RunSheetItem } from '@shared/schemas/run
 import { type Observable } from 'rxjs';
 import { API } from '../../core/http/api-paths';
 
-/** A day's run sheet: the signed-in person's, or (for the owner) another member's. */
-export const runSheetUrl = API.runSheet;
+/**
+ * A day's run sheet: the signed-in person's, or (for the owner) another member's. Without a day the
+ * server picks the person's next day with work and says which it picked.
+ */
+export const runSheetUrl = (date: string | null, membershipId: number | null = null): string =>
+  date ? API.runSheet(date, membershipId) : `/api/run-sheet${membershipId === null ? '' : `?membershipId=${membershipId}`}`;
 
 /** What an operator logs on a job; each call answers with the job as it now is. Reads use httpResource on runSheetUrl. */
 @Injectable({ providedIn: 'root' })

@@ -29,6 +29,9 @@ describe('Shell', () => {
     TestBed.inject(AuthStore).signedInAs(me(role));
     fixture = TestBed.createComponent(Shell);
     page = fixture.nativeElement as HTMLElement;
+    fixture.detectChanges();
+    // The owner's bar asks for the open reports from the field; answer with none unless a test says otherwise.
+    for (const req of TestBed.inject(HttpTestingController).match('/api/reports')) req.flush({ reports: [], machinesDown: [] });
     await fixture.whenStable();
   }
 

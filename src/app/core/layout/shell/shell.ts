@@ -10,6 +10,7 @@ import { Router, RouterLink, RouterLinkActive, RouterOutlet } from '@angular/rou
 import { map } from 'rxjs';
 import { AuthStore } from '../../auth/auth-store';
 import { navItemsFor } from '../nav-items';
+import { ReportsBell } from '../reports-bell/reports-bell';
 import { ThemeStore } from '../theme';
 
 /** Below this width the navigation slides over the page behind a menu button. */
@@ -18,7 +19,17 @@ export const HANDSET_QUERY = '(max-width: 959.98px)';
 @Component({
   selector: 'app-shell',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [MatButtonModule, MatIconModule, MatListModule, MatSidenavModule, MatToolbarModule, RouterLink, RouterLinkActive, RouterOutlet],
+  imports: [
+    MatButtonModule,
+    MatIconModule,
+    MatListModule,
+    MatSidenavModule,
+    MatToolbarModule,
+    ReportsBell,
+    RouterLink,
+    RouterLinkActive,
+    RouterOutlet,
+  ],
   templateUrl: './shell.html',
   styleUrl: './shell.scss',
 })
@@ -37,6 +48,7 @@ export class Shell {
   protected readonly user = this.auth.user;
   protected readonly farm = this.auth.farm;
   protected readonly role = this.auth.role;
+  protected readonly isOwner = this.auth.isOwner;
   protected readonly navItems = computed(() => navItemsFor(this.auth.role()));
   protected readonly themeLabel = computed(() => (this.theme.isDark() ? 'Switch to light theme' : 'Switch to dark theme'));
 

@@ -17,8 +17,8 @@ describe('FinishDialog', () => {
   const close = jest.fn();
   const at = '2031-05-15T15:30:00.000Z';
 
-  function open(units: UnitSystem, item = job({ state: 'underway', acresPlanned: 150 })): void {
-    const data: JobDialogData = { item: { ...item, log: { ...item.log, engineHoursStart: 4211 } }, at };
+  function open(units: UnitSystem, item = job({ state: 'underway', acresPlanned: 150 }), startReading = 4211): void {
+    const data: JobDialogData = { item: { ...item, log: { ...item.log, engineHoursStart: startReading } }, at };
     TestBed.configureTestingModule({
       imports: [FinishDialog],
       providers: [
@@ -106,5 +106,14 @@ describe('FinishDialog', () => {
     await fixture.whenStable();
     http.expectNone('/api/assignments/7/events');
     expect(el.textContent).toContain('Enter the area done');
+  });
+
+  it('when the end reading is typed, then the hint says the engine hours the job ran (end less start)', async () => {
+    open('us', job({ state: 'underway' }), 2781);
+    inputs()[1].value = '2789.4';
+    inputs()[1].dispatchEvent(new Event('input'));
+    await fixture.whenStable();
+    // 2789.4 − 2781 = 8.4 (the worked example).
+    expect(el.querySelector('[data-hint="engine-hours"]')?.textContent).toContain('8.4 engine hours on this job');
   });
 });

@@ -1,4 +1,5 @@
 import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
@@ -46,6 +47,14 @@ export class FinishDialog {
       Validators.max(200_000),
     ]),
     note: new FormControl('', { nonNullable: true, validators: [Validators.maxLength(1000)] }),
+  });
+  private readonly endReading = toSignal(this.form.controls.engineHours.valueChanges, { initialValue: this.defaults.engineHours });
+  /** The engine hours this job ran as typed: the end reading less the start reading (what the log will show). */
+  protected readonly meterHint = computed(() => {
+    const start = this.data.item.log.engineHoursStart!;
+    const end = this.endReading();
+    if (typeof end !== 'number' || end < start) return `At the start: ${start} h`;
+    return `At the start: ${start} h · ${roundTo(end - start, 1)} engine hours on this job`;
   });
   private readonly submission = new FormSubmission(this.form, (err, form) => sendFailure(err, 'Finish', form));
   protected readonly busy = this.submission.busy;

@@ -9,7 +9,7 @@ import { errorInterceptor } from '../../../core/http/error.interceptor';
 import { FieldMap } from '../../../shared/map/field-map/field-map';
 import { FieldMapStub } from '../../../shared/map/field-map/field-map-stub';
 import { job } from '../../board/testing/board-fixtures';
-import { RunSheetJob } from './run-sheet-job';
+import { RunSheetJob, clockSpan } from './run-sheet-job';
 
 describe('RunSheetJob', () => {
   let fixture: ComponentFixture<RunSheetJob>;
@@ -47,6 +47,7 @@ describe('RunSheetJob', () => {
   });
 
   afterEach(() => {
+    localStorage.clear();
     http.verify();
     document.querySelectorAll('.cdk-overlay-container').forEach((e) => (e.innerHTML = ''));
   });
@@ -163,5 +164,43 @@ describe('RunSheetJob', () => {
     await fixture.whenStable();
     const input = document.querySelector('mat-dialog-container input') as HTMLInputElement;
     expect(input.value).toBe('4210.5');
+  });
+
+  it('when a job started at meter 2781 finishes at 2789.4 a minute later, then the log shows 8.4 engine hours and the clock time apart, never "Worked: 0 h"', async () => {
+    const log = { ...job().log, acresDone: 160, hoursWorked: 0.02, engineHoursStart: 2781, engineHoursEnd: 2789.4 };
+    create(job({ state: 'finished', log, worked: { engineHours: 8.4, clockHours: 0.02 } }));
+    await fixture.whenStable();
+    // 2789.4 − 2781 = 8.4 h: the issue's worked example, by plain subtraction.
+    const total = (name: string) => el.querySelector(`[data-total="${name}"] dd`)?.textContent?.replace(/\s+/g, ' ').trim();
+    expect(total('engine-hours')).toBe('8.4 h meter 2781 → 2789.4 h');
+    // 0.02 h × 60 = 1.2 min, rounded to the minute.
+    expect(total('clock-time')).toBe('1 min start to finish, less pauses');
+    expect(el.textContent).not.toMatch(/Worked: 0 h/);
+  });
+
+  it('when the clock time is hours long, then it reads in hours and minutes', () => {
+    // 3.5 h = 3 h 30 min; 0.004 h = 14.4 s; 2 h exactly (arithmetic).
+    expect([clockSpan(3.5), clockSpan(0.004), clockSpan(2)]).toEqual(['3 h 30 min', 'under a minute', '2 h']);
+  });
+
+  it('when the cautions were shown once today, then the next showing that day folds them, one tap from open again', async () => {
+    create(job());
+    await fixture.whenStable();
+    expect(el.querySelector('.cautions li')?.textContent).toContain('Look up before folding');
+    fixture.destroy();
+    create(job());
+    await fixture.whenStable();
+    expect(el.querySelector('.cautions li')).toBeNull();
+    const fold = el.querySelector('.cautions button.fold') as HTMLButtonElement;
+    expect(fold.getAttribute('aria-expanded')).toBe('false');
+    expect(fold.textContent).toContain('Cautions for harrowing (2)');
+    fold.click();
+    await fixture.whenStable();
+    expect(el.querySelectorAll('.cautions li')).toHaveLength(2);
+    // Another day, or another person on the same phone, reads them open again.
+    fixture.destroy();
+    create(job({ date: '2031-05-16' }));
+    await fixture.whenStable();
+    expect(el.querySelectorAll('.cautions li')).toHaveLength(2);
   });
 });

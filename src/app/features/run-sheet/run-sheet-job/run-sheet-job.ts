@@ -1,4 +1,15 @@
-import { ChangeDetectionStrategy, Component, type Type, computed, inject, input, output, signal } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  type Type,
+  afterRenderEffect,
+  computed,
+  inject,
+  input,
+  linkedSignal,
+  output,
+  signal,
+} from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
@@ -6,6 +17,7 @@ import { OPERATION_INFO } from '@shared/operations';
 import { type AssignmentEvent, type EventType, STATE_LABELS } from '@shared/schemas/jobs';
 import type { RunSheetItem } from '@shared/schemas/run-sheet';
 import { HAZARD_LABELS, type HazardKind } from '@shared/schemas/fields';
+import { AuthStore } from '../../../core/auth/auth-store';
 import { ApiError } from '../../../core/http/api-error';
 import { FieldMap } from '../../../shared/map/field-map/field-map';
 import { HazardSymbol } from '../../../shared/map/hazard-symbol/hazard-symbol';
@@ -15,6 +27,7 @@ import { LengthPipe } from '../../../shared/units/length-pipe';
 import { Units } from '../../../shared/units/units';
 import { clockTime, hoursText } from '../../board/board-day';
 import { CallOffDialog } from '../call-off-dialog/call-off-dialog';
+import { CautionsRead } from '../cautions-read';
 import { FinishDialog } from '../finish-dialog/finish-dialog';
 import { ACTION_ICONS, ACTION_LABELS, actionsFor, canReportProblem } from '../job-actions';
 import { ProblemDialog } from '../problem-dialog/problem-dialog';
@@ -51,6 +64,8 @@ export class RunSheetJob {
   private readonly api = inject(RunSheetApi);
   private readonly dialog = inject(MatDialog);
   private readonly units = inject(Units);
+  private readonly auth = inject(AuthStore);
+  private readonly cautionsRead = inject(CautionsRead);
 
   readonly item = input.required<RunSheetItem>();
   readonly changed = output<RunSheetItem>();
@@ -88,7 +103,28 @@ export class RunSheetJob {
       .map((e) => ({ id: e.id, time: clockTime(e.at), text: eventText(e, (acres) => this.units.area(acres)) })),
   );
 
+  /** Who reads, which day, which operation: the cautions are read once per person, day and operation on this device. */
+  private readonly cautionsKey = computed(() => {
+    const person = this.auth.me()?.membershipId;
+    return person === undefined ? null : { person, day: this.item().date, operation: this.item().operation };
+  });
+  /** Open the first time of the day, folded after (still there, one tap away). */
+  protected readonly cautionsFolded = linkedSignal(() => {
+    const k = this.cautionsKey();
+    return k !== null && this.cautionsRead.has(k.person, k.day, k.operation);
+  });
+
+  constructor() {
+    // Shown open once: from now on this day they start folded. Marked after the render, so the
+    // first showing is never folded by its own mark.
+    afterRenderEffect(() => {
+      const k = this.cautionsKey();
+      if (k && !this.cautionsFolded()) this.cautionsRead.mark(k.person, k.day, k.operation);
+    });
+  }
+
   protected readonly labels = ACTION_LABELS;
+  protected readonly clockSpan = clockSpan;
   protected readonly icons = ACTION_ICONS;
   protected readonly hoursText = hoursText;
   /** The action being sent, so its button (and the others) wait. */
@@ -156,6 +192,19 @@ export class RunSheetJob {
     this.failure.set(null);
     this.send(type, at);
   }
+}
+
+/**
+ * Clock time in hours and minutes ("3 h 30 min", "2 min"): kept apart from engine hours, which the
+ * meter gives, so a job logged at the end of the day never reads as worked for 0 h.
+ */
+export function clockSpan(hours: number): string {
+  const minutes = Math.round(hours * 60);
+  if (minutes < 1) return 'under a minute';
+  const h = Math.floor(minutes / 60);
+  const m = minutes % 60;
+  if (h === 0) return `${m} min`;
+  return m === 0 ? `${h} h` : `${h} h ${m} min`;
 }
 
 /** One line of the job's log in plain words. */

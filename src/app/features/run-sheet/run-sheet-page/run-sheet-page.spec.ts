@@ -48,7 +48,14 @@ describe('RunSheetPage', () => {
 
   afterEach(() => http.verify());
 
-  const sheet = (assignments: RunSheet['assignments']): RunSheet => ({ date: '2031-05-15', person: TOMAS, assignments });
+  const sheet = (assignments: RunSheet['assignments'], over: Partial<RunSheet> = {}): RunSheet => ({
+    date: '2031-05-15',
+    today: '2031-05-15',
+    opened: 'asked',
+    person: TOMAS,
+    assignments,
+    ...over,
+  });
 
   it('when the day is in the address, then that day is asked for and its jobs show in time order under one h1', async () => {
     const harrow = job({ id: 1, role: 'mentor', operator: MILO, startTime: '07:00', field: { ...job().field, name: 'North Section' } });
@@ -79,6 +86,32 @@ describe('RunSheetPage', () => {
     http.expectOne('/api/run-sheet?date=2031-05-15').flush(sheet([]));
     await fixture.whenStable();
     expect(el.textContent).toContain('Nothing on your run sheet for this day.');
+  });
+
+  it('when no day is in the address and there is no work today, then it asks for the next day with work and says which day it shows', async () => {
+    http.expectOne('/api/run-sheet?date=2031-05-15').flush(sheet([]));
+    await fixture.whenStable();
+    fixture.componentRef.setInput('date', undefined);
+    TestBed.tick();
+    const next = job({ id: 9, date: '2031-05-21' });
+    http.expectOne('/api/run-sheet').flush(sheet([next], { date: '2031-05-21', opened: 'next-day-with-work' }));
+    await fixture.whenStable();
+    expect(el.querySelector('.opened-note span')?.textContent?.trim()).toBe(
+      'No work today; showing Wednesday, May 21, the next day with work.',
+    );
+    expect(el.querySelector('.who')?.textContent).toContain('Wednesday, May 21, 2031');
+    expect(el.querySelector('[data-job="9"] app-run-sheet-job')).not.toBeNull();
+    expect(el.textContent).not.toContain('Nothing on your run sheet');
+  });
+
+  it('when no day is in the address and no published day ahead has work, then it says so on today', async () => {
+    http.expectOne('/api/run-sheet?date=2031-05-15').flush(sheet([]));
+    await fixture.whenStable();
+    fixture.componentRef.setInput('date', undefined);
+    TestBed.tick();
+    http.expectOne('/api/run-sheet').flush(sheet([], { opened: 'no-work-ahead' }));
+    await fixture.whenStable();
+    expect(el.querySelector('.opened-note span')?.textContent?.trim()).toBe('No work today, and none on the published days ahead.');
   });
 
   it('when the sheet cannot load, then the server message shows with Try again', async () => {

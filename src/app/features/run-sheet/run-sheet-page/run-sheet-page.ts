@@ -21,6 +21,10 @@ import { runSheetUrl } from '../run-sheet-api';
 import { AuthStore } from '../../../core/auth/auth-store';
 import { API } from '../../../core/http/api-paths';
 
+const SHORT = new Intl.DateTimeFormat('en-US', { weekday: 'long', month: 'long', day: 'numeric' });
+/** "Thursday, April 16": a day of the coming weeks, said the way a person says it. */
+export const shortDay = (day: string): string => SHORT.format(dateOf(day));
+
 const OPEN_FIRST: RunSheetItem['state'][] = ['underway', 'paused', 'planned'];
 
 /** The job to open first: the person's own job that is going, else paused, else next; then one they mentor. */
@@ -64,9 +68,14 @@ export class RunSheetPage {
   /** `?date=YYYY-MM-DD` from the address. */
   readonly date = input<string | undefined>();
 
-  protected readonly day = computed(() => {
+  /** The day in the address, if any; without one the server opens the person's next day with work. */
+  private readonly asked = computed(() => {
     const asked = this.date();
-    return isIsoDay(asked) ? asked : today(this.auth.farm()?.timeZone);
+    return isIsoDay(asked) ? asked : null;
+  });
+  protected readonly day = computed(() => {
+    const shown = this.sheet.hasValue() ? this.sheet.value()?.date : undefined;
+    return this.asked() ?? shown ?? today(this.auth.farm()?.timeZone);
   });
   protected readonly dayDate = computed(() => dateOf(this.day()));
   protected readonly dayLabel = computed(() => longDay(this.day()));
@@ -79,7 +88,16 @@ export class RunSheetPage {
     const id = Number(this.person());
     return this.auth.isOwner() && Number.isInteger(id) && id > 0 && id !== this.auth.me()?.membershipId ? id : null;
   });
-  protected readonly sheet = httpResource<RunSheet>(() => runSheetUrl(this.day(), this.personId()));
+  protected readonly sheet = httpResource<RunSheet>(() => runSheetUrl(this.asked(), this.personId()));
+  /** Why this day shows when the person did not ask for one: "No work today; showing Thursday, April 16, the next day with work". */
+  protected readonly openedNote = computed(() => {
+    const s = this.sheet.hasValue() ? this.sheet.value() : null;
+    if (!s || this.sheet.isLoading()) return null;
+    const whose = this.personId() === null ? '' : ` for ${s.person.name}`;
+    if (s.opened === 'next-day-with-work') return `No work today${whose}; showing ${shortDay(s.date)}, the next day with work.`;
+    if (s.opened === 'no-work-ahead') return `No work today${whose}, and none on the published days ahead.`;
+    return null;
+  });
   private readonly crew = httpResource<CrewMember[]>(() => (this.auth.isOwner() ? API.crew : undefined), { defaultValue: [] });
   /** The people the owner may open a run sheet for: everyone who can be given field work. */
   protected readonly people = computed(() =>
