@@ -27,8 +27,8 @@ import { jobLogRoutes, runSheetRoutes } from './run-sheet/run-sheet.routes';
 import { reportRoutes } from './reports/reports.routes';
 import { seasonRoutes } from './season/season.routes';
 import { openapiRoutes } from './openapi/openapi.routes';
-import { projectRoot } from './paths';
 import { weatherRoutes } from './weather/weather.routes';
+import { projectRoot } from './paths';
 
 export interface CreateAppOptions extends Omit<AppDeps, 'compute'> {
   /** Defaults to the process's shared compute pool. */
@@ -93,9 +93,9 @@ export function createApp(options: CreateAppOptions): Express {
   mount('/run-sheet', (r) => runSheetRoutes(r, deps));
   mount('/reports', (r) => reportRoutes(r, deps));
   mount('/season', (r) => seasonRoutes(r, deps));
+  mount('/weather', (r) => weatherRoutes(r, deps));
   mount('', (r) => openapiRoutes(r, deps));
   api.use(apiNotFound);
-  mount('/weather', (r) => weatherRoutes(r, deps));
   app.use('/api', api);
 
   serveApp(app, deps.staticDir ?? path.join(projectRoot, 'dist', 'furlong', 'browser'));

@@ -404,16 +404,6 @@ export const CONTRACT: Record<string, RouteContract> = {
     responses: [{ status: 200, description: 'The table as CSV.', contentType: 'text/csv' }],
   },
 
-  // This document
-  'GET /api/openapi.json': {
-    summary: 'Gives this API description as an OpenAPI 3.1 document.',
-    responses: [{ status: 200, description: 'The OpenAPI document.', type: 'OpenAPI 3.1 document' }],
-  },
-  'GET /api/docs': {
-    summary: 'Shows this API description as a plain web page.',
-    responses: [{ status: 200, description: 'The reference page.', contentType: 'text/html' }],
-  },
-};
   // Weather
   'GET /api/weather/fields/:fieldId': {
     summary: "Gives a field's hourly forecast with go, caution or no-go per operation, its age and whether it is stale.",
@@ -430,3 +420,13 @@ export const CONTRACT: Record<string, RouteContract> = {
     responses: [json('The limits after the change.', weatherLimitsAnswer)],
   },
 
+  // This document
+  'GET /api/openapi.json': {
+    summary: 'Gives this API description as an OpenAPI 3.1 document.',
+    responses: [{ status: 200, description: 'The OpenAPI document.', type: 'OpenAPI 3.1 document' }],
+  },
+  'GET /api/docs': {
+    summary: 'Shows this API description as a plain web page.',
+    responses: [{ status: 200, description: 'The reference page.', contentType: 'text/html' }],
+  },
+};
