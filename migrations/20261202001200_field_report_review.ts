@@ -12,9 +12,11 @@ export async function up(knex: Knex): Promise<void> {
   await knex.raw(
     "ALTER TABLE assignment_events ADD CONSTRAINT assignment_events_review_check CHECK (review IS NULL OR (type = 'problem' AND review IN ('open','confirmed','dismissed')))",
   );
+  // The index comes before the update: the update fires the deferred farm-revision trigger, and
+  // PostgreSQL refuses CREATE INDEX on a table with trigger events pending in the transaction.
+  await knex.raw("CREATE INDEX assignment_events_open_reports ON assignment_events (farm_id, at DESC) WHERE review = 'open'");
   // Reports made before this change were seen only on the field page: they are open for the owner now.
   await knex('assignment_events').where({ type: 'problem' }).update({ review: 'open' });
-  await knex.raw("CREATE INDEX assignment_events_open_reports ON assignment_events (farm_id, at DESC) WHERE review = 'open'");
 }
 
 export async function down(knex: Knex): Promise<void> {
