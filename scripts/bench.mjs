@@ -8,6 +8,7 @@ const benches = [
   ['server', ['--import', 'tsx', 'scripts/bench-server.ts']],
   ['limits', ['--import', 'tsx', 'scripts/bench-limits.ts']],
   ['request log', ['--import', 'tsx', 'scripts/bench-request-log.ts']],
+  ['weather', ['--import', 'tsx', 'scripts/bench-weather.ts']],
 ];
 const only = process.argv.slice(2);
 

@@ -125,3 +125,63 @@ export const mphToKmh = (mph: number): number => (mph * MILE_M) / 1000;
  * @example milesToM(1) // 1609.344
  */
 export const milesToM = (miles: number): number => miles * MILE_M;
+
+/**
+ * Kilometres per hour to miles per hour (1 mile = 1,609.344 m exactly, so 1 mph = 1.609 344 km/h).
+ * @param kmh speed in kilometres per hour
+ * @returns speed in statute miles per hour
+ * @example kmhToMph(16.09344) // 10
+ */
+export const kmhToMph = (kmh: number): number => (kmh * 1000) / MILE_M;
+
+/** Millimetres in one inch, exact (the international inch: 1 in = 25.4 mm). */
+export const INCH_MM = 25.4;
+
+/**
+ * Millimetres to inches (rain amounts).
+ * @param mm length in millimetres
+ * @returns length in inches
+ * @example mmToIn(25.4) // 1
+ */
+export const mmToIn = (mm: number): number => mm / INCH_MM;
+
+/**
+ * Inches to millimetres (rain amounts).
+ * @param inches length in inches
+ * @returns length in millimetres
+ * @example inToMm(0.5) // 12.7
+ */
+export const inToMm = (inches: number): number => inches * INCH_MM;
+
+/**
+ * A temperature in degrees Celsius to degrees Fahrenheit: t/°F = 1.8 · t/°C + 32.
+ * @param c temperature in °C
+ * @returns temperature in °F
+ * @example cToF(100) // 212
+ */
+export const cToF = (c: number): number => c * 1.8 + 32;
+
+/**
+ * A temperature in degrees Fahrenheit to degrees Celsius: t/°C = (t/°F − 32) / 1.8.
+ * @param f temperature in °F
+ * @returns temperature in °C
+ * @example fToC(41) // 5
+ */
+export const fToC = (f: number): number => (f - 32) / 1.8;
+
+/**
+ * A temperature difference (Delta T, dew-point spread) in kelvins or °C to °F: a degree Fahrenheit
+ * is 1/1.8 of a degree Celsius, with no offset for a difference.
+ * @param c temperature difference in °C
+ * @returns temperature difference in °F
+ * @example cDiffToF(10) // 18
+ */
+export const cDiffToF = (c: number): number => c * 1.8;
+
+/**
+ * A temperature difference in °F to °C (no offset).
+ * @param f temperature difference in °F
+ * @returns temperature difference in °C
+ * @example fDiffToC(18) // 10
+ */
+export const fDiffToC = (f: number): number => f / 1.8;

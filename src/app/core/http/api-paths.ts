@@ -67,4 +67,7 @@ export const API = {
   seasons: '/api/season',
   seasonSummary: (year: number) => `/api/season/${year}/summary`,
   seasonCsv: (year: number, table: SeasonTable) => `/api/season/${year}/export/${table}.csv`,
+
+  /** The farm's weather limits per operation, with the defaults and their sources (read by members, set by the owner). */
+  weatherLimits: '/api/weather/limits',
 } as const;

@@ -4,6 +4,7 @@ import { type ComponentFixture, TestBed } from '@angular/core/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { provideRouter } from '@angular/router';
 import type { Me, Member } from '@shared/schemas/auth';
+import { DEFAULT_LIMITS, LIMIT_SOURCES } from '@shared/weather/limits';
 import { AuthStore } from '../../../core/auth/auth-store';
 import { errorInterceptor } from '../../../core/http/error.interceptor';
 import { MembersPage } from './members-page';
@@ -56,6 +57,8 @@ describe('MembersPage', () => {
       .flush({ id: 1, name: 'Tamarack Ridge Farm', units: 'us', dayHoursLimit: 12, timeZone: 'America/Chicago' });
     // So does the list of failed e-mails (background-jobs.spec.ts tests it).
     httpTesting.expectOne('/api/background/failed').flush({ jobs: [] });
+    // And the weather limits (weather-limits.spec.ts tests them): the defaults, as the server answers.
+    httpTesting.expectOne('/api/weather/limits').flush({ limits: DEFAULT_LIMITS, defaults: DEFAULT_LIMITS, sources: LIMIT_SOURCES });
   });
 
   afterEach(() => {

@@ -17,6 +17,7 @@ import { FarmSettingsForm } from '../farm-settings/farm-settings';
 import { InviteMember } from '../invite-member/invite-member';
 import { MEMBERS_URL, MembersApi } from '../members-api';
 import { ROLE_OPTIONS } from '../role-labels';
+import { WeatherLimitsForm } from '../weather-limits/weather-limits';
 
 /** The owner's page for the farm: its settings, and who belongs to it (invite, change role, remove; history stays). */
 @Component({
@@ -31,6 +32,7 @@ import { ROLE_OPTIONS } from '../role-labels';
     MatProgressBarModule,
     MatSelectModule,
     MatTableModule,
+    WeatherLimitsForm,
   ],
   templateUrl: './members-page.html',
   styleUrl: './members-page.scss',
