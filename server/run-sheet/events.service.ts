@@ -1,6 +1,7 @@
 // The operator's buttons: start, pause, resume, finish, call off. Each is a step of a small state
 // machine, logged as an event; finishing records acres and hours worked in columns the season
-// report adds up, and moves the machine's engine-hour meter forward.
+// report adds up, and moves the machine's engine-hour meter forward. A call-off for weather keeps
+// the stored forecast's hour and reason with its log entry.
 import { OPERATION_INFO } from '../../shared/operations';
 import type { EventInput, RunSheetItem } from '../../shared/schemas/run-sheet';
 import type { AppDeps } from '../app-deps';
@@ -8,19 +9,39 @@ import { lockMachine, raiseMeter } from '../fleet/machines.repository';
 import { AppError } from '../http/errors';
 import type { SessionPrincipal } from '../http/session-user';
 import { checkAcres } from '../jobs/acres-check';
-import { updateAssignment, type AssignmentColumns } from '../jobs/assignments.repository';
+import { getAssignment, updateAssignment, type AssignmentColumns } from '../jobs/assignments.repository';
+import { loadDay } from '../board/day-context';
 import { eventsOfJob, insertEvent } from '../jobs/events.repository';
 import { hoursWorked } from '../jobs/hours';
 import { nextState, pastTense } from '../jobs/state-machine';
 import { backwards } from './engine-hours';
 import { lockJob, touchBoard } from './job-lock';
-import { fieldName } from './run-sheet.repository';
+import { fieldName, saveCallOffWeather } from './run-sheet.repository';
+import { callOffWeather, forecastOrNull } from './run-sheet-weather';
 import { runSheetItem } from './run-sheet.service';
 
 /** A phone's clock may run a little ahead of the server's. */
 const CLOCK_SKEW_MS = 5 * 60_000;
 
+/**
+ * A call-off for weather keeps what the stored forecast says of the job's window. Read before the
+ * transaction (no lock is held while the forecast is judged), from the database only; any failure
+ * leaves the call-off without its forecast note.
+ */
+async function forecastForCallOff(deps: AppDeps, by: SessionPrincipal, id: number) {
+  const row = await getAssignment(deps.db, by.farmId, id);
+  if (!row) return null;
+  const forecast = await forecastOrNull(deps.db, by, row.field_id, deps.logger);
+  if (!forecast?.issuedAt) return null;
+  const ctx = await loadDay(deps.db, by.farmId, row.day);
+  const card = ctx.cards.find((c) => c.a.id === id);
+  if (!card) return null;
+  const job = { id, date: row.day, fieldId: row.field_id, operation: row.operation, window: card.window };
+  return { forecast, job, dayHoursLimit: ctx.farm.dayHoursLimit };
+}
+
 export async function logEvent(deps: AppDeps, by: SessionPrincipal, id: number, input: EventInput): Promise<RunSheetItem> {
+  const weather = input.type === 'call-off' && input.reason === 'weather' ? await forecastForCallOff(deps, by, id) : null;
   await deps.db.transaction(async (tx) => {
     const a = await lockJob(tx, by, id, 'operator');
     const next = nextState(a.state, input.type);
@@ -63,7 +84,7 @@ export async function logEvent(deps: AppDeps, by: SessionPrincipal, id: number, 
     } else if (input.type === 'call-off') {
       cols.call_off_reason = input.reason!;
     }
-    await insertEvent(tx, {
+    const eventId = await insertEvent(tx, {
       farm_id: by.farmId,
       assignment_id: id,
       type: input.type,
@@ -75,9 +96,14 @@ export async function logEvent(deps: AppDeps, by: SessionPrincipal, id: number, 
       hazard_id: null,
       by_user_id: by.id,
     });
+    // Kept only when the job is still on the field and operation the forecast was judged for.
+    if (weather && weather.job.fieldId === a.field_id && weather.job.operation === a.operation) {
+      const note = callOffWeather(weather.forecast, weather.job, at, by.timeZone, weather.dayHoursLimit);
+      if (note) await saveCallOffWeather(tx, eventId, note);
+    }
     await updateAssignment(tx, id, cols);
     const field = await fieldName(tx, by.farmId, a.field_id);
     await touchBoard(tx, by, a, `${by.name} ${pastTense(input.type)} ${field} ${OPERATION_INFO[a.operation].label.toLowerCase()}`);
   });
-  return runSheetItem(deps.db, by.farmId, id);
+  return runSheetItem(deps, by, id);
 }

@@ -53,7 +53,7 @@ export async function editLog(deps: AppDeps, by: SessionPrincipal, id: number, p
     });
     await touchBoard(tx, by, a, `Corrected the log of a finished job (${said.join('; ')})`);
   });
-  return runSheetItem(deps.db, by.farmId, id);
+  return runSheetItem(deps, by, id);
 }
 
 /** Deleting the log puts the job back on the board as planned; its acres leave the season totals. */
@@ -83,5 +83,5 @@ export async function deleteLog(deps: AppDeps, by: SessionPrincipal, id: number)
     });
     await touchBoard(tx, by, a, 'Deleted the log of a finished job; it is planned again');
   });
-  return runSheetItem(deps.db, by.farmId, id);
+  return runSheetItem(deps, by, id);
 }

@@ -54,5 +54,5 @@ export async function reportProblem(deps: AppDeps, by: SessionPrincipal, id: num
     await touchBoard(tx, by, a, summary);
   });
   deps.nudgeMail();
-  return runSheetItem(deps.db, by.farmId, id);
+  return runSheetItem(deps, by, id);
 }

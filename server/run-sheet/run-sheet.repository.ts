@@ -1,5 +1,9 @@
-// What the run sheet reads of fields besides the board day: the boundaries it draws, the name it logs.
+// What the run sheet reads besides the board day: the boundaries it draws, the name it logs, and the
+// forecast notes kept with call-offs for weather.
 import type { MultiPolygon, Polygon } from 'geojson';
+import { DateTime } from 'luxon';
+import type { CallOffWeather } from '../../shared/schemas/run-sheet';
+import type { VerdictLevel } from '../../shared/weather/rules';
 import type { Tx } from '../db/knex';
 
 /** The boundaries of the given fields of a farm, by field id. */
@@ -36,4 +40,44 @@ export async function nextDayWithWork(db: Tx, farmId: number, personId: number, 
     .min<{ day: string | null }>({ day: 'a.day' })
     .first();
   return row?.day ?? null;
+}
+
+/** Keeps what the stored forecast said with a call-off for weather (its log entry). */
+export async function saveCallOffWeather(db: Tx, eventId: number, w: CallOffWeather): Promise<void> {
+  await db('assignment_events')
+    .where({ id: eventId })
+    .update({
+      weather_issued_at: new Date(w.issuedAt),
+      weather_hour: new Date(w.hour),
+      weather_verdict: w.verdict,
+      weather_reason: w.reason,
+    });
+}
+
+/** The forecast notes of the call-offs of some jobs, by log entry id, hours in the farm's zone. */
+export async function callOffWeatherOf(db: Tx, farmId: number, jobIds: number[], timeZone: string): Promise<Map<number, CallOffWeather>> {
+  const rows: Array<{
+    id: number;
+    weather_issued_at: Date;
+    weather_hour: Date;
+    weather_verdict: VerdictLevel | null;
+    weather_reason: string | null;
+  }> = jobIds.length
+    ? await db('assignment_events')
+        .where({ farm_id: farmId, type: 'call-off' })
+        .whereIn('assignment_id', jobIds)
+        .whereNotNull('weather_hour')
+        .select('id', 'weather_issued_at', 'weather_hour', 'weather_verdict', 'weather_reason')
+    : [];
+  return new Map(
+    rows.map((r) => [
+      r.id,
+      {
+        issuedAt: r.weather_issued_at.toISOString(),
+        hour: DateTime.fromJSDate(r.weather_hour, { zone: timeZone }).toISO({ suppressMilliseconds: true })!,
+        verdict: r.weather_verdict,
+        reason: r.weather_reason,
+      },
+    ]),
+  );
 }

@@ -6,20 +6,35 @@ import type { RunSheet, RunSheetItem, RunSheetOpened } from '../../shared/schema
 import type { AppDeps } from '../app-deps';
 import type { ConflictCard } from '../board/conflicts';
 import { loadDay, planKey, type DayContext } from '../board/day-context';
-import type { Tx } from '../db/knex';
+import type { Db } from '../db/knex';
+import type { Logger } from '../logging/logger';
 import { hazardFeature } from '../fields/fields.service';
 import { forbidden, notFound } from '../http/errors';
 import type { SessionPrincipal } from '../http/session-user';
 import { getAssignment } from '../jobs/assignments.repository';
 import { eventsOfJobs } from '../jobs/events.repository';
 import { engineHoursRun } from '../jobs/hours';
-import { boundariesOf, nextDayWithWork } from './run-sheet.repository';
+import { boundariesOf, callOffWeatherOf, nextDayWithWork } from './run-sheet.repository';
+import { weatherOfJobs, type WeatherReader } from './run-sheet-weather';
 
-async function itemsOf(db: Tx, ctx: DayContext, cards: ConflictCard[], personId: number): Promise<RunSheetItem[]> {
+/** Who reads: the farm, its clock and units (for the weather's words), and where failures are logged. */
+interface Reader extends WeatherReader {
+  log?: Logger;
+}
+
+async function itemsOf(db: Db, who: Reader, ctx: DayContext, cards: ConflictCard[], personId: number): Promise<RunSheetItem[]> {
   const ids = cards.map((c) => c.a.id);
   const fieldIds = [...new Set(cards.map((c) => c.a.field.id))];
   const events = await eventsOfJobs(db, ctx.farmId, ids);
+  const notes = await callOffWeatherOf(db, ctx.farmId, ids, who.timeZone);
   const boundaryOf = await boundariesOf(db, ctx.farmId, fieldIds);
+  const weather = await weatherOfJobs(
+    db,
+    who,
+    cards.map((c) => ({ id: c.a.id, date: c.a.date, fieldId: c.a.field.id, operation: c.a.operation, window: c.window })),
+    ctx.farm.dayHoursLimit,
+    who.log,
+  );
   return cards.map(({ a }) => {
     const plan = ctx.passPlans.get(planKey(a.field.id, a.operation));
     const view = ctx.views.get(a.id)!;
@@ -47,13 +62,21 @@ async function itemsOf(db: Tx, ctx: DayContext, cards: ConflictCard[], personId:
           }
         : null,
       cautions: OPERATION_INFO[a.operation].cautions,
-      events: events.get(a.id) ?? [],
+      events: (events.get(a.id) ?? []).map((e) => (e.type === 'call-off' ? { ...e, weather: notes.get(e.id) ?? null } : e)),
+      weather: weather.get(a.id) ?? null,
       // Engine hours come from the meter, never from the clock: an operator who taps Start and
       // Finish at the end of the day still ran the engine for the hours the meter shows.
       worked: { engineHours: engineHoursRun(a.log.engineHoursStart, a.log.engineHoursEnd), clockHours: a.log.hoursWorked },
     };
   });
 }
+
+const readerOf = (deps: AppDeps, by: SessionPrincipal): Reader => ({
+  farmId: by.farmId,
+  timeZone: by.timeZone,
+  units: by.units,
+  log: deps.logger,
+});
 
 const mine = (ctx: DayContext, personId: number) =>
   ctx.cards
@@ -90,15 +113,15 @@ export async function readRunSheet(
     today,
     opened,
     person: { membershipId: personId, name: person.name },
-    assignments: await itemsOf(deps.db, ctx, mine(ctx, personId), personId),
+    assignments: await itemsOf(deps.db, readerOf(deps, by), ctx, mine(ctx, personId), personId),
   };
 }
 
 /** One job as its operator's run sheet shows it (the answer to a logged action). */
-export async function runSheetItem(db: Tx, farmId: number, id: number): Promise<RunSheetItem> {
-  const a = await getAssignment(db, farmId, id);
+export async function runSheetItem(deps: AppDeps, by: SessionPrincipal, id: number): Promise<RunSheetItem> {
+  const a = await getAssignment(deps.db, by.farmId, id);
   if (!a) throw notFound('That job');
-  const ctx = await loadDay(db, farmId, a.day);
+  const ctx = await loadDay(deps.db, by.farmId, a.day);
   const card = ctx.cards.find((c) => c.a.id === id)!;
-  return (await itemsOf(db, ctx, [card], a.operator_id))[0];
+  return (await itemsOf(deps.db, readerOf(deps, by), ctx, [card], a.operator_id))[0];
 }

@@ -2,6 +2,7 @@
 import type { FeatureCollection, MultiPolygon, Polygon } from 'geojson';
 import { z } from 'zod';
 import type { Operation } from '../operations';
+import type { Verdict, VerdictLevel } from '../weather/rules';
 import type { BoardAssignment } from './board';
 import { dbId, isoDate } from './common';
 import { HAZARD_KINDS } from './fields';
@@ -82,13 +83,69 @@ export interface RunSheetItem extends Omit<BoardAssignment, 'field' | 'machine'>
   machine: { id: number; name: string; kind: MachineKind; engineHours: number };
   passPlan: PassPlanOnSheet | null;
   cautions: readonly string[];
-  events: AssignmentEvent[];
+  events: RunSheetEvent[];
+  /**
+   * The job's hours from the stored forecast of its field, with its operation's verdict; null when
+   * the field has no forecast that could be read (the run sheet never waits on or fails for weather).
+   */
+  weather?: JobWeather | null;
   /**
    * What the job took, in two separate measures: `engineHours` is the meter at the finish less the
    * meter at the start (null until both are logged); `clockHours` is the time from start to finish
    * less pauses, as the taps were logged (null until finished).
    */
   worked: { engineHours: number | null; clockHours: number | null };
+}
+
+/** One hour of a job's window as the run sheet shows it; SI units (°C, km/h, mm), the screen converts. */
+export interface JobWeatherHour {
+  /** ISO 8601 with the farm's offset: the hour's start (rain is the forecast's sum over the hour before). */
+  time: string;
+  temperatureC: number | null;
+  windSpeedKmh: number | null;
+  windGustKmh: number | null;
+  /** Where the wind blows from, degrees clockwise from north. */
+  windDirectionDeg: number | null;
+  precipitationMm: number | null;
+  precipitationProbabilityPct: number | null;
+  /** Air minus wet-bulb temperature, °C (shown for spraying). */
+  deltaTC: number | null;
+  /** The job's operation judged for this hour; null for an operation without weather rules. */
+  verdict: Verdict | null;
+}
+
+/** A job's hourly window from its field's newest stored forecast. */
+export interface JobWeather {
+  issuedAt: string | null;
+  fetchedAt: string | null;
+  /** Minutes since the forecast was fetched. */
+  ageMinutes: number | null;
+  stale: boolean;
+  staleReason: string | null;
+  /** `job`: the window the owner set; `working-day`: the farm's working day (the job has none). */
+  over: 'job' | 'working-day';
+  /** 'HH:MM' of the hours judged. */
+  from: string;
+  to: string;
+  /** The worst hour's verdict over the window with its reasons; null for an operation without weather rules or without hours. */
+  verdict: Verdict | null;
+  hours: JobWeatherHour[];
+}
+
+/** What a call-off for weather kept of the stored forecast, read on the server when it was logged. */
+export interface CallOffWeather {
+  /** When the forecast used was issued. */
+  issuedAt: string;
+  /** The forecast hour (ISO 8601 with the farm's offset). */
+  hour: string;
+  verdict: VerdictLevel | null;
+  /** The hour's first reason, in words. */
+  reason: string | null;
+}
+
+/** An entry of the job's log; a call-off for weather carries the forecast hour and reason (null without a forecast). */
+export interface RunSheetEvent extends AssignmentEvent {
+  weather?: CallOffWeather | null;
 }
 
 /**

@@ -15,11 +15,12 @@ import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
 import { OPERATION_INFO } from '@shared/operations';
 import { type AssignmentEvent, type EventType, STATE_LABELS } from '@shared/schemas/jobs';
-import type { RunSheetItem } from '@shared/schemas/run-sheet';
+import type { RunSheetEvent, RunSheetItem } from '@shared/schemas/run-sheet';
 import { HAZARD_LABELS, type HazardKind } from '@shared/schemas/fields';
 import { AuthStore } from '../../../core/auth/auth-store';
 import { ApiError } from '../../../core/http/api-error';
 import { FieldMap } from '../../../shared/map/field-map/field-map';
+import { HourlyWindow } from '../../../shared/weather/hourly-window/hourly-window';
 import { HazardSymbol } from '../../../shared/map/hazard-symbol/hazard-symbol';
 import type { HazardFeature, MapField } from '../../../shared/map/map-types';
 import { AreaPipe } from '../../../shared/units/area-pipe';
@@ -56,7 +57,7 @@ const EVENT_WORDS: Record<AssignmentEvent['type'], string> = {
 @Component({
   selector: 'app-run-sheet-job',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [AreaPipe, FieldMap, HazardSymbol, LengthPipe, MatButtonModule, MatIconModule],
+  imports: [AreaPipe, FieldMap, HazardSymbol, HourlyWindow, LengthPipe, MatButtonModule, MatIconModule],
   templateUrl: './run-sheet-job.html',
   styleUrl: './run-sheet-job.scss',
 })
@@ -208,13 +209,20 @@ export function clockSpan(hours: number): string {
 }
 
 /** One line of the job's log in plain words. */
-export function eventText(e: AssignmentEvent, area: (acres: number) => string): string {
+export function eventText(e: RunSheetEvent, area: (acres: number) => string): string {
   const parts = [EVENT_WORDS[e.type] ?? e.type];
   if (e.type === 'problem' && e.reason) parts[0] = `Problem reported: ${e.reason === 'hazard' ? 'new hazard' : e.reason}`;
   if (e.type === 'call-off' && e.reason) parts.push(`(${e.reason})`);
   if (e.acres != null) parts.push(`· ${area(e.acres)}`);
   if (e.engineHours != null) parts.push(`· meter ${e.engineHours} h`);
   if (e.by) parts.push(`· ${e.by}`);
-  const text = parts.join(' ');
-  return e.note ? `${text}: “${e.note}”` : text;
+  let text = parts.join(' ');
+  if (e.note) text = `${text}: “${e.note}”`;
+  // A call-off for weather: the forecast hour and reason the server read when it was logged.
+  if (e.weather) {
+    const w = e.weather;
+    const verdict = w.verdict ? ` ${w.verdict}` : '';
+    text += ` — forecast for ${w.hour.slice(11, 16)}${verdict}${w.reason ? `: ${w.reason}` : ''}`;
+  }
+  return text;
 }
