@@ -2,7 +2,7 @@ import { promisify } from 'node:util';
 import { gzip } from 'node:zlib';
 import { LRUCache } from 'lru-cache';
 import type { Db } from '../db/knex';
-import { readBoard } from './board.read';
+import { readBoard, type ReadBoardOptions } from './board.read';
 
 const gzipAsync = promisify(gzip);
 
@@ -28,12 +28,13 @@ export class BoardCache {
     private readonly db: Db,
     publicUrl: string,
     maxBytes = 32 * 1024 * 1024,
+    options: Pick<ReadBoardOptions, 'onWeatherError'> = {},
   ) {
     this.readings = new LRUCache({
       maxSize: maxBytes,
       sizeCalculation: (r) => r.json.length + r.gzipped.length,
       fetchMethod: async (key, _stale, { context }) => {
-        const json = Buffer.from(JSON.stringify(await readBoard(this.db, context.farmId, context.day, publicUrl)));
+        const json = Buffer.from(JSON.stringify(await readBoard(this.db, context.farmId, context.day, publicUrl, options)));
         return { json, gzipped: await gzipAsync(json), etag: `"board-${key.replaceAll('|', '-')}"` };
       },
     });

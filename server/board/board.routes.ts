@@ -18,7 +18,9 @@ import { publishBoard } from './publish.service';
 
 /** The work board is the owner's: operators use their run sheet, viewers the season reports. */
 export function boardRoutes(r: Routes, deps: AppDeps): void {
-  const boards = new BoardCache(deps.db, deps.config.publicUrl);
+  const boards = new BoardCache(deps.db, deps.config.publicUrl, undefined, {
+    onWeatherError: (err) => deps.logger?.warn({ error: err instanceof Error ? err.message : String(err) }, 'board weather not read'),
+  });
   r.get('/', ['owner'], async (req, res) => {
     const by = principal(req);
     const reading = await boards.read(by.farmId, query(req, boardQuery).date, by.farmRevision);

@@ -1,9 +1,9 @@
 // The work board's conflict rules. Hard conflicts (a machine, implement or person in two places,
-// an implement that cannot do the job, a learner alone) block publishing; soft ones warn.
-// Weather limits are not checked yet: Furlong has no weather data.
+// an implement that cannot do the job, a learner alone) block publishing; soft ones warn. A no-go
+// forecast over a card's window warns, or blocks when the owner made that operation's rule blocking.
 import { OPERATION_INFO, type Operation } from '../../shared/operations';
 import { roundTo } from '../../shared/round';
-import { mayMentor, worksAlone, type BoardAssignment, type Conflict } from '../../shared/schemas/board';
+import { mayMentor, worksAlone, type BoardAssignment, type CardWeather, type Conflict } from '../../shared/schemas/board';
 import type { SkillLevel } from '../../shared/schemas/fleet';
 import { coveredHours } from '../jobs/hours';
 import { isFinishedForSeason } from '../jobs/progress';
@@ -134,12 +134,37 @@ function mentoring(c: ConflictCard, skills: Skills): Conflict[] {
   return message ? [{ code: 'learner_without_mentor', severity: 'hard', message, assignmentIds: [c.a.id] }] : [];
 }
 
-/** Every conflict on a board day. Called-off jobs take part in none; finished ones only in double bookings. */
-export function findConflicts(cards: readonly ConflictCard[], skills: Skills, dayHoursLimit: number): Conflict[] {
+/** A no-go forecast over the card's window, with its first reason: hard when the operation's rule is blocking. */
+function weatherNoGo(c: ConflictCard, weather: ReadonlyMap<number, CardWeather>): Conflict[] {
+  const w = weather.get(c.a.id);
+  if (!w || w.verdict !== 'no-go') return [];
+  const op = OPERATION_INFO[c.a.operation].label.toLowerCase();
+  const over = w.over === 'card' ? `${w.from}–${w.to}` : `the working day ${w.from}–${w.to}`;
+  return [
+    {
+      code: 'weather_no_go',
+      severity: w.blocking ? 'hard' : 'soft',
+      message: `Weather no-go for ${c.a.field.name} ${op} over ${over}: ${w.reason ?? 'outside the limits'}`,
+      assignmentIds: [c.a.id],
+    },
+  ];
+}
+
+/**
+ * Every conflict on a board day. Called-off jobs take part in none; finished ones only in double
+ * bookings. `weather`: the cards' verdicts (server/board/day-weather.ts), none when not read.
+ */
+export function findConflicts(
+  cards: readonly ConflictCard[],
+  skills: Skills,
+  dayHoursLimit: number,
+  weather: readonly CardWeather[] = [],
+): Conflict[] {
+  const verdicts = new Map(weather.map((w) => [w.assignmentId, w]));
   const active = cards.filter(live);
   const open = active.filter((c) => c.a.state !== 'finished');
   const out = [...doubleBookings(active)];
-  for (const c of open) out.push(...equipment(c), ...mentoring(c, skills));
+  for (const c of open) out.push(...equipment(c), ...mentoring(c, skills), ...weatherNoGo(c, verdicts));
   for (const c of open.filter((c) => isFinishedForSeason(c.a.acresToDo))) {
     const op = OPERATION_INFO[c.a.operation].label.toLowerCase();
     out.push({

@@ -1,6 +1,7 @@
 // Everything one board day needs, read in a few queries, and the cards built from it. The board,
 // the run sheet and the work orders are all views of this one reading.
 import type { Operation } from '../../shared/operations';
+import type { UnitSystem } from '../../shared/schemas/auth';
 import type { BoardAssignment } from '../../shared/schemas/board';
 import type { SkillLevel } from '../../shared/schemas/fleet';
 import { skillsOfFarm } from '../crew/crew.repository';
@@ -24,7 +25,7 @@ import { roundTo } from '../../shared/round';
 export interface DayContext {
   farmId: number;
   day: string;
-  farm: { name: string; dayHoursLimit: number };
+  farm: { name: string; dayHoursLimit: number; timeZone: string; units: UnitSystem };
   boardDay: DbBoardDayRow | undefined;
   views: Map<number, AssignmentView>;
   /** In running order per operator. */
@@ -132,7 +133,7 @@ export async function loadDay(db: Tx, farmId: number, day: string): Promise<DayC
   return {
     farmId,
     day,
-    farm: { name: farm.name, dayHoursLimit: farm.dayHoursLimit },
+    farm: { name: farm.name, dayHoursLimit: farm.dayHoursLimit, timeZone: farm.timeZone, units: farm.units },
     boardDay,
     views: new Map(views.map((v) => [v.id, v])),
     cards,

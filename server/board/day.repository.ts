@@ -41,3 +41,12 @@ export async function skillOf(db: Tx, farmId: number, membershipId: number, oper
   const row = await db('crew_skills').where({ farm_id: farmId, membership_id: membershipId, operation }).first('level');
   return (row?.level as SkillLevel | undefined) ?? null;
 }
+
+/** The first day after `day` with at least one card on the farm's board, or null. */
+export async function nextDayWithWork(db: Tx, farmId: number, day: string): Promise<string | null> {
+  const row = await db('assignments')
+    .where({ farm_id: farmId })
+    .where('day', '>', day)
+    .first(db.raw(`to_char(min(day), 'YYYY-MM-DD') as day`));
+  return (row?.day as string | null | undefined) ?? null;
+}

@@ -12,6 +12,7 @@ import { readBoard } from './board.read';
 import { staleBoard } from './board.service';
 import { findConflicts } from './conflicts';
 import { loadDay } from './day-context';
+import { loadDayWeather } from './day-weather';
 import { dateLabel } from './work-order.content';
 import { withdrawalMail, workOrderMail } from './work-order.message';
 import { planOrders } from './work-order.state';
@@ -23,7 +24,8 @@ export async function publishBoard(deps: AppDeps, by: SessionPrincipal, day: str
     const locked = await lockDay(tx, by.farmId, day);
     if (version !== undefined && version !== locked.version) throw await staleBoard(tx, by.farmId, day, version, publicUrl);
     const ctx = await loadDay(tx, by.farmId, day);
-    const hard = findConflicts(ctx.cards, ctx.skills, ctx.farm.dayHoursLimit).filter((c) => c.severity === 'hard');
+    const weather = await loadDayWeather(tx, ctx);
+    const hard = findConflicts(ctx.cards, ctx.skills, ctx.farm.dayHoursLimit, weather.cards).filter((c) => c.severity === 'hard');
     if (hard.length) {
       throw new AppError(
         409,

@@ -165,3 +165,85 @@ export async function saveLimits(db: Tx, farmId: number, limits: WeatherLimits):
     .onConflict('farm_id')
     .merge(['limits', 'updated_at']);
 }
+
+/**
+ * The boundaries of these fields and of the farm's first field (the lowest id), each once: what
+ * the board needs to place its day's fields, and a point for the day's strip when it has none.
+ */
+export async function boundariesForBoard(
+  db: Tx,
+  farmId: number,
+  fieldIds: readonly number[],
+): Promise<{ id: number; name: string; boundary: { type: string; coordinates: unknown } }[]> {
+  return db('fields')
+    .where({ farm_id: farmId })
+    .where((q) => {
+      q.whereIn('id', [...fieldIds]).orWhere('id', db('fields').where({ farm_id: farmId }).min('id'));
+    })
+    .orderBy('id')
+    .select('id', 'name', 'boundary');
+}
+
+/** The crop planned on each of these fields in a season (fields without one are left out). */
+export async function cropsOf(db: Tx, farmId: number, fieldIds: readonly number[], season: number): Promise<Map<number, string>> {
+  if (!fieldIds.length) return new Map();
+  const rows: { field_id: number; crop: string }[] = await db('crop_plans')
+    .where({ farm_id: farmId, season })
+    .whereIn('field_id', [...fieldIds])
+    .select('field_id', 'crop');
+  return new Map(rows.map((r) => [r.field_id, r.crop]));
+}
+
+/** A point with its newest forecast (if any) and one of that forecast's hours (if any in the range). */
+export type PointHourRow = {
+  point_id: number;
+  lat_index: number;
+  lon_index: number;
+  last_failure_at: Date | null;
+  last_error: string | null;
+  forecast_id: number | null;
+  fetched_at: Date | null;
+  time: Date | null;
+} & HourValues;
+
+/**
+ * One query for several points: each of the farm's points in these cells, joined to its newest
+ * forecast and that forecast's hours from `from` (included) to `to` (excluded), in point and time
+ * order. A point without a forecast comes once with nulls; a cell without a point not at all.
+ */
+export async function newestHoursOfCells(
+  db: Tx,
+  farmId: number,
+  cells: readonly { latIndex: number; lonIndex: number }[],
+  from: Date,
+  to: Date,
+): Promise<PointHourRow[]> {
+  if (!cells.length) return [];
+  return db('weather_points as p')
+    .joinRaw(
+      'LEFT JOIN LATERAL (SELECT f.id, f.fetched_at FROM weather_forecasts f WHERE f.point_id = p.id ORDER BY f.issued_at DESC, f.id DESC LIMIT 1) nf ON true',
+    )
+    .leftJoin('weather_hours as h', (j) => {
+      j.on('h.forecast_id', 'nf.id')
+        .andOn('h.time', '>=', db.raw('?', [from]))
+        .andOn('h.time', '<', db.raw('?', [to]));
+    })
+    .where('p.farm_id', farmId)
+    .whereIn(
+      ['p.lat_index', 'p.lon_index'],
+      cells.map((c) => [c.latIndex, c.lonIndex]),
+    )
+    .orderBy('p.id')
+    .orderBy('h.time')
+    .select(
+      'p.id as point_id',
+      'p.lat_index',
+      'p.lon_index',
+      'p.last_failure_at',
+      'p.last_error',
+      'nf.id as forecast_id',
+      'nf.fetched_at',
+      'h.time',
+      ...HOURLY.map((h) => `h.${h.column}`),
+    );
+}

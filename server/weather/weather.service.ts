@@ -6,7 +6,14 @@ import type { FieldForecast, ForecastHour, WeatherLimitsAnswer } from '../../sha
 import { yearIn } from '../../shared/calendar';
 import { roundTo } from '../../shared/round';
 import { boundaryCentre, gridCellOf, type GridCell } from '../../shared/weather/grid';
-import { DEFAULT_LIMITS, LIMIT_SOURCES, seedCropOf, WEATHER_OPERATIONS, type WeatherLimits } from '../../shared/weather/limits';
+import {
+  DEFAULT_LIMITS,
+  LIMIT_SOURCES,
+  seedCropOf,
+  WEATHER_OPERATIONS,
+  type SeedCrop,
+  type WeatherLimits,
+} from '../../shared/weather/limits';
 import { judgeHour, type WeatherHour } from '../../shared/weather/rules';
 import { deltaTC } from '../../shared/weather/wet-bulb';
 import type { Db, Tx } from '../db/knex';
@@ -15,17 +22,21 @@ import { logMessage } from '../http/errors';
 import { silentLogger, type Logger } from '../logging/logger';
 import { fetchForecasts, ForecastError, MAX_POINTS_PER_REQUEST, type PointForecast } from './forecast.client';
 import {
+  boundariesForBoard,
   cropOf,
+  cropsOf,
   ensurePoints,
   fieldBoundaries,
   fieldBoundary,
   forecastHours,
   latestForecast,
   markFailed,
+  newestHoursOfCells,
   pointOfCell,
   saveLimits,
   storedLimits,
   storeForecasts,
+  type PointHourRow,
   type WeatherPointRow,
 } from './weather.repository';
 
@@ -215,4 +226,108 @@ export async function fieldForecast(
     seedingCrop: crop,
     hours: judged,
   };
+}
+
+/** The newest stored forecast of one point, as the board reads it. */
+export interface StoredForecast {
+  fetchedAt: Date;
+  ageMinutes: number;
+  stale: boolean;
+  staleReason: string | null;
+  /** When it turns stale by age alone. */
+  staleAfter: Date;
+  /** Its hours in the range asked for, in time order, times in the farm's zone. */
+  hours: WeatherHour[];
+}
+
+/** What the board needs of the weather for some fields: read from the database only. */
+export interface FieldsWeather {
+  /** Per field asked for (and the farm's first field): its name, its point's key and its crop for seeding. */
+  fields: Map<number, { name: string; point: string; crop: SeedCrop | null }>;
+  /** The farm's first field (lowest id), or null without fields. */
+  firstFieldId: number | null;
+  /** Per point key: its newest forecast, or null when none is stored. */
+  points: Map<string, StoredForecast | null>;
+  limits: WeatherLimits;
+}
+
+const pointKey = (latIndex: number, lonIndex: number): string => `${latIndex},${lonIndex}`;
+const ageText = (ageMs: number): string =>
+  ageMs < 3_600_000 ? `${Math.max(0, Math.round(ageMs / 60_000))} min` : `${roundTo(ageMs / 3_600_000, 1)} h`;
+
+function storedForecastOf(rows: readonly PointHourRow[], timeZone: string, now: Date): StoredForecast | null {
+  const first = rows[0];
+  if (!first.forecast_id || !first.fetched_at) return null;
+  const fetchedAt = first.fetched_at;
+  const ageMs = now.getTime() - fetchedAt.getTime();
+  // The same rule as fieldForecast's: a failure since this forecast, or no newer one for two hours.
+  const failedSince = !!first.last_failure_at && first.last_failure_at.getTime() > fetchedAt.getTime();
+  const staleReason = failedSince
+    ? `Forecast from ${ageText(ageMs)} ago: the last refresh failed (${first.last_error ?? 'no reason given'})`
+    : ageMs > STALE_AFTER_MS
+      ? `Forecast from ${ageText(ageMs)} ago: no newer forecast has arrived`
+      : null;
+  const hours: WeatherHour[] = rows
+    .filter((h) => h.time !== null)
+    .map((h) => ({
+      time: DateTime.fromJSDate(h.time!, { zone: timeZone }).toISO({ suppressMilliseconds: true })!,
+      temperatureC: r2(h.temperature_c),
+      relativeHumidityPct: r2(h.relative_humidity_pct),
+      dewPointC: r2(h.dew_point_c),
+      precipitationMm: r2(h.precipitation_mm),
+      precipitationProbabilityPct: r2(h.precipitation_probability_pct),
+      windSpeedKmh: kmh(h.wind_speed_ms),
+      windGustKmh: kmh(h.wind_gust_ms),
+      windDirectionDeg: r2(h.wind_direction_deg),
+      cloudCoverPct: r2(h.cloud_cover_pct),
+      soilTemperatureC: r2(h.soil_temperature_c),
+    }));
+  return {
+    fetchedAt,
+    ageMinutes: Math.max(0, Math.floor(ageMs / 60_000)),
+    stale: staleReason !== null,
+    staleReason,
+    staleAfter: new Date(fetchedAt.getTime() + STALE_AFTER_MS),
+    hours,
+  };
+}
+
+/**
+ * The stored weather of some fields for the board, hours from `from` to `to` (excluded): the
+ * fields' points, crops and limits, and the newest forecast of every point in one query. Never
+ * asks the forecast service and makes no points: a field whose point has no forecast yet gets null.
+ */
+export async function weatherOfFields(
+  db: Tx,
+  farmId: number,
+  fieldIds: readonly number[],
+  options: { from: Date; to: Date; timeZone: string; season: number; now?: Date },
+): Promise<FieldsWeather> {
+  const now = options.now ?? new Date();
+  const boundaries = await boundariesForBoard(db, farmId, fieldIds);
+  const crops = await cropsOf(db, farmId, fieldIds, options.season);
+  const fields: FieldsWeather['fields'] = new Map();
+  const cells = new Map<string, GridCell>();
+  for (const f of boundaries) {
+    const centre = boundaryCentre(f.boundary);
+    if (!centre) continue;
+    const cell = gridCellOf(centre[1], centre[0]);
+    const key = pointKey(cell.latIndex, cell.lonIndex);
+    cells.set(key, cell);
+    fields.set(f.id, { name: f.name, point: key, crop: seedCropOf(crops.get(f.id)) });
+  }
+  const rows = await newestHoursOfCells(db, farmId, [...cells.values()], options.from, options.to);
+  const byPoint = new Map<string, PointHourRow[]>();
+  for (const r of rows) {
+    const key = pointKey(r.lat_index, r.lon_index);
+    const list = byPoint.get(key);
+    if (list) list.push(r);
+    else byPoint.set(key, [r]);
+  }
+  const points: FieldsWeather['points'] = new Map();
+  for (const key of cells.keys()) {
+    const list = byPoint.get(key);
+    points.set(key, list ? storedForecastOf(list, options.timeZone, now) : null);
+  }
+  return { fields, firstFieldId: boundaries[0]?.id ?? null, points, limits: await farmLimits(db, farmId) };
 }

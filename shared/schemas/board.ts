@@ -192,7 +192,8 @@ export interface Conflict {
     | 'field_finished'
     | 'over_day_hours'
     | 'window_too_short'
-    | 'service_overdue';
+    | 'service_overdue'
+    | 'weather_no_go';
   severity: 'hard' | 'soft';
   message: string;
   assignmentIds: number[];
@@ -236,8 +237,69 @@ export interface Board {
   conflicts: Conflict[];
   operators: BoardOperator[];
   orders: WorkOrderState[];
+  /** Go / caution / no-go per card and the day's hourly strip, from the stored forecasts. */
+  weather: BoardWeather;
+  /** The first day after this one with cards on it, or null when there is none. */
+  nextDayWithWork: string | null;
   /** On the answer to a create or change: the card that was saved. */
   savedAssignmentId?: number;
+}
+
+/** A card's weather: the verdict of its operation over its window, from the newest stored forecast. */
+export interface CardWeather {
+  assignmentId: number;
+  verdict: 'go' | 'caution' | 'no-go';
+  /** The first reason in words ("wind 14 mph at 10:00, above the spraying limit of 10 mph"), or null when all is well. */
+  reason: string | null;
+  /** Every reason, worst first (spraying's label caution last). */
+  reasons: string[];
+  /** The hours judged, 'HH:MM': the window the owner set, or the farm's working day. */
+  from: string;
+  to: string;
+  /** `card`: the card's own window; `working-day`: the farm's working day (the card has none). */
+  over: 'card' | 'working-day';
+  /** The owner made this operation's weather rule blocking: a no-go is a hard conflict. */
+  blocking: boolean;
+  /** When the forecast was fetched (ISO instant) and its age then, minutes. */
+  fetchedAt: string;
+  ageMinutes: number;
+  /** Old, or its last refresh failed: shown with its age and why. */
+  stale: boolean;
+  staleReason: string | null;
+  /** When a forecast that is fresh now turns stale by age alone (ISO instant): the page checks it against its clock. */
+  staleAfter: string;
+}
+
+/** One hour of the day's strip, SI units (the page converts to the farm's). */
+export interface StripHour {
+  /** 'HH:MM' at the farm. */
+  time: string;
+  temperatureC: number | null;
+  windSpeedKmh: number | null;
+  windGustKmh: number | null;
+  precipitationMm: number | null;
+  precipitationProbabilityPct: number | null;
+}
+
+/** The farm's hourly strip for the day, from one representative forecast point. */
+export interface DayStrip {
+  /** Why this point: the point of most of the day's fields, else the farm's first field. */
+  basis: 'most-fields' | 'first-field';
+  /** A field at that point, to name it. */
+  fieldName: string;
+  fetchedAt: string;
+  ageMinutes: number;
+  stale: boolean;
+  staleReason: string | null;
+  staleAfter: string;
+  hours: StripHour[];
+}
+
+export interface BoardWeather {
+  /** Only cards whose operation the weather judges and whose field has a stored forecast for their hours. */
+  cards: CardWeather[];
+  /** Null when the farm has no stored forecast for the day. */
+  strip: DayStrip | null;
 }
 
 export interface BoardChange {

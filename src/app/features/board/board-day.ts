@@ -37,6 +37,11 @@ const LONG = new Intl.DateTimeFormat('en-US', { weekday: 'long', month: 'long', 
 const CLOCK = new Intl.DateTimeFormat('en-US', { hour: '2-digit', minute: '2-digit', hourCycle: 'h23' });
 const STAMP = new Intl.DateTimeFormat('en-US', { month: 'short', day: 'numeric', hour: '2-digit', minute: '2-digit', hourCycle: 'h23' });
 
+const SHORT = new Intl.DateTimeFormat('en-US', { weekday: 'short', month: 'long', day: 'numeric' });
+
+/** "Tue, April 20". */
+export const shortDay = (day: string): string => SHORT.format(dateOf(day));
+
 /** "Thursday, May 15, 2031". */
 export const longDay = (day: string): string => LONG.format(dateOf(day));
 

@@ -1,14 +1,14 @@
 import { type ComponentFixture, TestBed } from '@angular/core/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
-import type { BoardAssignment, Conflict } from '@shared/schemas/board';
+import type { BoardAssignment, CardWeather, Conflict } from '@shared/schemas/board';
 import { AuthStore } from '../../../core/auth/auth-store';
-import { TOMAS, card } from '../testing/board-fixtures';
+import { TOMAS, card, cardWeather } from '../testing/board-fixtures';
 import { AssignmentCard } from './assignment-card';
 
 describe('AssignmentCard', () => {
   let fixture: ComponentFixture<AssignmentCard>;
 
-  function show(a: BoardAssignment, conflicts: Conflict[] = []): HTMLElement {
+  function show(a: BoardAssignment, conflicts: Conflict[] = [], weather: CardWeather | null = null): HTMLElement {
     TestBed.configureTestingModule({
       imports: [AssignmentCard],
       providers: [{ provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } }],
@@ -22,6 +22,7 @@ describe('AssignmentCard', () => {
     fixture = TestBed.createComponent(AssignmentCard);
     fixture.componentRef.setInput('assignment', a);
     fixture.componentRef.setInput('conflicts', conflicts);
+    fixture.componentRef.setInput('weather', weather);
     fixture.detectChanges();
     return fixture.nativeElement as HTMLElement;
   }
@@ -89,5 +90,50 @@ describe('AssignmentCard', () => {
     );
     expect(text(el, '.time')).toBe('08:00–18:00');
     expect(text(el, '.planned')?.replace(/\u00a0/g, ' ')).toBe('1.7 h estimate · 10 h booked');
+  });
+
+  describe('weather', () => {
+    const REASON = 'wind 18.6 mph at 14:00, above the spraying limit of 10 mph';
+    const spraying = () => card(1, TOMAS, 1, { operation: 'spraying', plannedStart: '10:00', plannedEnd: '16:00' });
+
+    it('when the card is no-go over its window, then it says No-go, the hours judged and the first reason in words', () => {
+      const el = show(
+        spraying(),
+        [],
+        cardWeather(1, { verdict: 'no-go', reason: REASON, reasons: [REASON], from: '10:00', to: '16:00', over: 'card' }),
+      );
+      expect(el.querySelector('.weather')?.getAttribute('data-verdict')).toBe('no-go');
+      expect(text(el, '.verdict > span')).toBe('Weather: No-go · 10:00–16:00');
+      expect(text(el, '.reason')).toBe(REASON);
+      expect(el.querySelector('.stale-forecast')).toBeNull();
+    });
+
+    it('when the card has no window, then the verdict names the working day; a go verdict has no reason line', () => {
+      const el = show(card(1, TOMAS, 1), [], cardWeather(1));
+      expect(text(el, '.verdict > span')).toBe('Weather: Go · working day 07:00–19:00');
+      expect(el.querySelector('.reason')).toBeNull();
+    });
+
+    it('when the server marked the forecast stale, then the card says so with its age and why', () => {
+      const why = 'Forecast from 3 h ago: the last refresh failed (the forecast service answered 500)';
+      const el = show(spraying(), [], cardWeather(1, { verdict: 'caution', reason: 'x', stale: true, staleReason: why, ageMinutes: 180 }));
+      expect(text(el, '.stale-forecast > span')).toBe(`Stale: ${why}`);
+    });
+
+    it('when a fresh forecast has aged past its stale time since the board was read, then the page marks it stale with the age by its own clock', () => {
+      const fetched = new Date(Date.now() - 150 * 60_000);
+      const w = cardWeather(1, {
+        fetchedAt: fetched.toISOString(),
+        ageMinutes: 10,
+        staleAfter: new Date(fetched.getTime() + 2 * 3_600_000).toISOString(),
+      });
+      const el = show(spraying(), [], w);
+      expect(text(el, '.stale-forecast > span')).toBe('Stale: Forecast from 2.5 h ago: no newer forecast has arrived');
+    });
+
+    it('when there is no forecast, then the card shows no verdict at all', () => {
+      const el = show(spraying());
+      expect(el.querySelector('.weather')).toBeNull();
+    });
   });
 });

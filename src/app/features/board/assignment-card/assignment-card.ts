@@ -4,10 +4,11 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatMenuModule } from '@angular/material/menu';
 import { OPERATION_INFO } from '@shared/operations';
-import type { BoardAssignment, Conflict } from '@shared/schemas/board';
+import type { BoardAssignment, CardWeather, Conflict } from '@shared/schemas/board';
 import { STATE_LABELS } from '@shared/schemas/jobs';
 import { AreaPipe } from '../../../shared/units/area-pipe';
 import { hoursText } from '../board-day';
+import { VERDICT_LABELS, freshness } from '../board-weather';
 
 export interface MoveTarget {
   membershipId: number;
@@ -28,6 +29,8 @@ export interface MoveTarget {
 export class AssignmentCard {
   readonly assignment = input.required<BoardAssignment>();
   readonly conflicts = input<readonly Conflict[]>([]);
+  /** The verdict of the card's operation over its window; null: no forecast, or an operation the weather does not judge. */
+  readonly weather = input<CardWeather | null>(null);
   readonly moveTargets = input<readonly MoveTarget[]>([]);
   readonly first = input(false);
   readonly last = input(false);
@@ -66,4 +69,22 @@ export class AssignmentCard {
   /** A started or finished job is called off or kept, not deleted. */
   protected readonly removable = computed(() => this.assignment().state === 'planned' || this.assignment().state === 'called-off');
   protected readonly headingId = computed(() => `card-${this.assignment().id}-title`);
+  protected readonly verdictLabel = computed(() => {
+    const w = this.weather();
+    return w ? VERDICT_LABELS[w.verdict] : '';
+  });
+  protected readonly verdictIcon = computed(() => {
+    const v = this.weather()?.verdict;
+    return v === 'no-go' ? 'block' : v === 'caution' ? 'error_outline' : 'check_circle_outline';
+  });
+  /** Which hours were judged, in words. */
+  protected readonly judgedOver = computed(() => {
+    const w = this.weather();
+    if (!w) return '';
+    return w.over === 'card' ? `${w.from}–${w.to}` : `working day ${w.from}–${w.to}`;
+  });
+  protected readonly forecastAge = computed(() => {
+    const w = this.weather();
+    return w ? freshness(w) : null;
+  });
 }

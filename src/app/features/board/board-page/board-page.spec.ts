@@ -7,7 +7,7 @@ import type { Me } from '@shared/schemas/auth';
 import type { Board, PublishResult } from '@shared/schemas/board';
 import { AuthStore } from '../../../core/auth/auth-store';
 import { errorInterceptor } from '../../../core/http/error.interceptor';
-import { ADA, CREW, IMPLEMENTS, MACHINES, MILO, TOMAS, board, card } from '../testing/board-fixtures';
+import { ADA, CREW, IMPLEMENTS, MACHINES, MILO, TOMAS, board, card, cardWeather, dayStrip } from '../testing/board-fixtures';
 import { BoardPage } from './board-page';
 
 const OWNER: Me = {
@@ -217,5 +217,44 @@ describe('BoardPage', () => {
       'Work orders sent to Tomas Reyes. Not changed, not sent again: Ada Lindqvist.',
     );
     expect(column('Tomas Reyes').textContent).toContain('Work order queued to send');
+  });
+
+  describe('weather and empty days', () => {
+    const REASON = 'wind 18.6 mph at 14:00, above the spraying limit of 10 mph';
+
+    it('when the board carries weather, then the day header shows the strip and each card its own verdict', async () => {
+      await load(
+        board([card(1, TOMAS, 1, { operation: 'spraying' }), card(2, TOMAS, 2)], {
+          weather: {
+            cards: [cardWeather(1, { verdict: 'no-go', reason: REASON, reasons: [REASON] }), cardWeather(2)],
+            strip: dayStrip(),
+          },
+        }),
+      );
+      expect(page.querySelector('app-day-strip table caption')?.textContent).toContain('North Quarter');
+      const cards = [...column('Tomas Reyes').querySelectorAll('app-assignment-card')];
+      expect(cards[0].querySelector('.weather')?.getAttribute('data-verdict')).toBe('no-go');
+      expect(cards[0].querySelector('.reason')?.textContent?.trim()).toBe(REASON);
+      expect(cards[1].querySelector('.weather')?.getAttribute('data-verdict')).toBe('go');
+    });
+
+    it('when there is no forecast, then no strip and no verdicts, and the board shows as before', async () => {
+      await load(board([card(1, TOMAS, 1)]));
+      expect(page.querySelector('app-day-strip')).toBeNull();
+      expect(page.querySelector('.weather')).toBeNull();
+      expect(cardsIn('Tomas Reyes')).toEqual(['Field 1']);
+    });
+
+    it('when the day shown is empty and a later day has work, then a link names that day and goes to it', async () => {
+      await load(board([], { nextDayWithWork: '2032-04-20' }));
+      const link = page.querySelector('.next-day a') as HTMLAnchorElement;
+      expect(link.textContent?.trim()).toBe('Next day with work: Tue, April 20');
+      expect(link.getAttribute('href')).toContain('date=2032-04-20');
+    });
+
+    it('when the day shown has cards, then no next-day link, even when a later day has work', async () => {
+      await load(board([card(1, TOMAS, 1)], { nextDayWithWork: '2032-04-20' }));
+      expect(page.querySelector('.next-day')).toBeNull();
+    });
   });
 });

@@ -30,7 +30,8 @@ import {
   conflictsByCard,
   orderAfterMove,
 } from '../board-columns';
-import { addDays, dateOf, hoursText, isIsoDay, isoDay, longDay, stampTime, tomorrow } from '../board-day';
+import { addDays, dateOf, hoursText, isIsoDay, isoDay, longDay, shortDay, stampTime, tomorrow } from '../board-day';
+import { DayStrip } from '../day-strip/day-strip';
 import { describeChanges, staleBoardOf } from '../stale-board';
 import { AuthStore } from '../../../core/auth/auth-store';
 import { API } from '../../../core/http/api-paths';
@@ -53,6 +54,7 @@ interface StaleNotice {
   imports: [
     RouterLink,
     AssignmentCard,
+    DayStrip,
     DragDropModule,
     MatButtonModule,
     MatDatepickerModule,
@@ -95,6 +97,13 @@ export class BoardPage {
   protected readonly conflictsOf = computed(() => {
     const board = this.current();
     return board ? conflictsByCard(board) : new Map<number, Board['conflicts']>();
+  });
+  protected readonly weatherOf = computed(() => new Map((this.current()?.weather.cards ?? []).map((w) => [w.assignmentId, w])));
+  /** On an empty day (the off-season, most often), the first later day with cards, to jump to. */
+  protected readonly nextDay = computed(() => {
+    const b = this.current();
+    if (!b || b.assignments.length > 0 || !b.nextDayWithWork) return null;
+    return { day: b.nextDayWithWork, label: shortDay(b.nextDayWithWork) };
   });
   protected readonly hardConflicts = computed(() => this.current()?.conflicts.filter((c) => c.severity === 'hard') ?? []);
   protected readonly softConflicts = computed(() => this.current()?.conflicts.filter((c) => c.severity === 'soft') ?? []);

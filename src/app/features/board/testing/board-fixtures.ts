@@ -1,5 +1,5 @@
 // Boards, crews and run-sheet jobs for the board and run-sheet specs (never imported by the app).
-import type { Board, BoardAssignment } from '@shared/schemas/board';
+import type { Board, BoardAssignment, CardWeather, DayStrip } from '@shared/schemas/board';
 import type { RunSheetItem } from '@shared/schemas/run-sheet';
 import type { CrewMember, Implement, Machine } from '@shared/schemas/fleet';
 
@@ -145,6 +145,8 @@ export function board(assignments: BoardAssignment[], over: Partial<Board> = {})
     conflicts: [],
     operators: [],
     orders: [],
+    weather: { cards: [], strip: null },
+    nextDayWithWork: null,
     ...over,
   };
 }
@@ -176,6 +178,47 @@ export function job(over: Partial<RunSheetItem> = {}): RunSheetItem {
     cautions: ['Look up before folding the implement.', "Furlong's plans are aids."],
     events: [],
     worked: { engineHours: null, clockHours: null },
+    ...over,
+  };
+}
+
+/** A card's weather: fetched a few minutes ago, fresh until two hours after. */
+export function cardWeather(assignmentId: number, over: Partial<CardWeather> = {}): CardWeather {
+  const fetched = new Date(Date.now() - 5 * 60_000);
+  return {
+    assignmentId,
+    verdict: 'go',
+    reason: null,
+    reasons: [],
+    from: '07:00',
+    to: '19:00',
+    over: 'working-day',
+    blocking: false,
+    fetchedAt: fetched.toISOString(),
+    ageMinutes: 5,
+    stale: false,
+    staleReason: null,
+    staleAfter: new Date(fetched.getTime() + 2 * 3_600_000).toISOString(),
+    ...over,
+  };
+}
+
+/** A day's strip over 07:00–10:00 with a windy, wet 09:00. */
+export function dayStrip(over: Partial<DayStrip> = {}): DayStrip {
+  const fetched = new Date(Date.now() - 20 * 60_000);
+  return {
+    basis: 'most-fields',
+    fieldName: 'North Quarter',
+    fetchedAt: fetched.toISOString(),
+    ageMinutes: 20,
+    stale: false,
+    staleReason: null,
+    staleAfter: new Date(fetched.getTime() + 2 * 3_600_000).toISOString(),
+    hours: [
+      { time: '07:00', temperatureC: 10, windSpeedKmh: 8, windGustKmh: 12, precipitationMm: 0, precipitationProbabilityPct: 5 },
+      { time: '08:00', temperatureC: 12.5, windSpeedKmh: 12, windGustKmh: 18, precipitationMm: 0, precipitationProbabilityPct: 10 },
+      { time: '09:00', temperatureC: 15, windSpeedKmh: 30, windGustKmh: 45, precipitationMm: 2.54, precipitationProbabilityPct: 80 },
+    ],
     ...over,
   };
 }
