@@ -1,6 +1,5 @@
 // Row types of the board tables, as Knex returns them (DATE as 'YYYY-MM-DD', NUMERIC as number).
 // A job's own rows (assignments, their events) are in server/jobs/jobs.rows.ts.
-import type { Operation } from '../../shared/operations';
 
 export interface DbBoardDayRow {
   farm_id: number;
@@ -9,22 +8,8 @@ export interface DbBoardDayRow {
   published_at: Date | null;
 }
 
-export interface DbPassPlanRow {
-  id: number;
-  farm_id: number;
-  field_id: number;
-  operation: Operation;
-  implement_id: number | null;
-  width_m: number;
-  headland_passes: number;
-  heading_deg: number | null;
-  coverage: 'full' | 'gaps-ok';
-  speed_mph: number;
-  efficiency: number;
-  turn_seconds: number;
-  summary: Record<string, unknown>;
-  updated_at: Date;
-}
+/** Pass plans are the plan feature's rows; the board reads them for a card's hours. */
+export type { DbPassPlanRow } from '../plans/plans.repository';
 
 export interface DbWorkOrderRow {
   farm_id: number;

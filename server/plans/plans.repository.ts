@@ -3,27 +3,9 @@ import type { Operation } from '../../shared/operations';
 import type { PlanSummary } from '../../shared/schemas/plans';
 import type { Tx } from '../db/knex';
 
-export interface DbPlanRow {
+/** A row of `pass_plans` as Knex returns it (the board reads these too). */
+export interface DbPassPlanRow {
   id: number;
-  field_id: number;
-  field_name: string;
-  operation: Operation;
-  implement_id: number | null;
-  implement_name: string | null;
-  implement_width_m: number | null;
-  width_m: number;
-  headland_passes: number;
-  heading_deg: number | null;
-  coverage: 'gaps-ok' | 'full';
-  speed_mph: number;
-  efficiency: number;
-  turn_seconds: number;
-  summary: PlanSummary;
-  updated_at: Date;
-}
-
-/** What a save writes; `updated_at` is set here. */
-export interface PlanWrite {
   farm_id: number;
   field_id: number;
   operation: Operation;
@@ -35,10 +17,23 @@ export interface PlanWrite {
   speed_mph: number;
   efficiency: number;
   turn_seconds: number;
+  summary: PlanSummary;
+  updated_at: Date;
+}
+
+/** A saved plan as the plan screens read it: with its field's name and its implement's. */
+export interface DbPlanRow extends Omit<DbPassPlanRow, 'farm_id'> {
+  field_name: string;
+  implement_name: string | null;
+  implement_width_m: number | null;
+}
+
+/** What a save writes; `updated_at` is set here. */
+export type PlanWrite = Omit<DbPassPlanRow, 'id' | 'updated_at' | 'summary'> & {
   /** The summary as JSON text. */
   summary: string;
   updated_by: number;
-}
+};
 
 // The implement's width comes along so a plan worked at another width can say so beside it.
 const plans = (db: Tx, farmId: number) =>
