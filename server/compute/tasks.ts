@@ -2,6 +2,7 @@
 // envelope instead of throwing, so an AppError's status, code and fields cross the thread intact.
 import type { MessagePort } from 'node:worker_threads';
 import { checkAndMeasureBoundary, type BoundaryMeasurement } from '../../shared/geo/boundary-check';
+import { findOverlaps, type BoundaryOverlap, type OverlapCandidate } from '../../shared/geo/overlap';
 import { planPasses } from '../../shared/plan/plan-passes';
 import type { PlanInput, PlanResult } from '../../shared/plan/types';
 import { readBoundaryFile as readFile, type ReadFile } from '../fields/import/read-file';
@@ -58,4 +59,19 @@ export function measureBoundary(input: { geometry: unknown; label?: string } & S
 export function readBoundaryFile(input: { name: string; data: Uint8Array; nameAttribute?: string } & Started): Promise<Envelope<ReadFile>> {
   const data = Buffer.from(input.data.buffer, input.data.byteOffset, input.data.byteLength);
   return wrap(input, () => readFile({ name: input.name, data }, input.nameAttribute), 422, 'bad_file');
+}
+
+/** For each boundary (null: none to compare), the farm's fields it overlaps (shared/geo/overlap). */
+export function findFieldOverlaps(
+  input: { boundaries: Array<{ boundary: OverlapCandidate['boundary'] | null; exceptId?: number }>; fields: OverlapCandidate[] } & Started,
+): Promise<Envelope<BoundaryOverlap[][]>> {
+  return wrap(
+    input,
+    () =>
+      input.boundaries.map(({ boundary, exceptId }) =>
+        boundary ? findOverlaps(boundary, exceptId === undefined ? input.fields : input.fields.filter((f) => f.id !== exceptId)) : [],
+      ),
+    422,
+    'bad_boundary',
+  );
 }

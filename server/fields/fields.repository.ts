@@ -64,6 +64,10 @@ export function listFields(db: Tx, farmId: number, season: number): Promise<Fiel
 
 export const getField = (db: Tx, farmId: number, id: number) => db<DbFieldRow>('fields').where({ farm_id: farmId, id }).first();
 
+/** Every field's id, name and boundary: what a new or redrawn boundary is compared with for overlaps. */
+export const fieldBoundaries = (db: Tx, farmId: number): Promise<Array<Pick<DbFieldRow, 'id' | 'name' | 'boundary'>>> =>
+  db<DbFieldRow>('fields').where('farm_id', farmId).select('id', 'name', 'boundary');
+
 export const fieldNameTaken = async (db: Tx, farmId: number, name: string, exceptId?: number): Promise<boolean> => {
   const q = db('fields').where('farm_id', farmId).whereRaw('lower(name) = lower(?)', [name]);
   if (exceptId) q.whereNot('id', exceptId);

@@ -50,7 +50,8 @@ export function fieldRoutes(r: Routes, deps: AppDeps): void {
     const input = body(req, fieldCreateBody);
     const farmId = principal(req).farmId;
     const id = await fields.createField(deps, farmId, input);
-    res.status(201).json(await fields.getField(deps, farmId, id, seasonOf(req)));
+    const overlaps = await fields.overlapsOfField(deps, farmId, id);
+    res.status(201).json({ ...(await fields.getField(deps, farmId, id, seasonOf(req))), overlaps });
   });
 
   r.post('/import', ['owner'], ...imports, upload.single('file'), async (req, res) => {
@@ -59,7 +60,7 @@ export function fieldRoutes(r: Routes, deps: AppDeps): void {
     const file = { name: req.file.originalname, data: req.file.buffer };
     const farmId = principal(req).farmId;
     if (q.dryRun === 'true') {
-      res.json(await previewImport(deps, farmId, file, q.nameAttribute));
+      res.json(await fields.withOverlaps(deps, farmId, await previewImport(deps, farmId, file, q.nameAttribute)));
       return;
     }
     let selection: Array<{ index: number; name: string }> | undefined;
@@ -84,8 +85,11 @@ export function fieldRoutes(r: Routes, deps: AppDeps): void {
   r.patch('/:id', ['owner'], ...boundaryWrites, async (req, res) => {
     const { id } = params(req, idParam);
     const farmId = principal(req).farmId;
-    await fields.updateField(deps, farmId, id, body(req, fieldPatchBody));
-    res.json(await fields.getField(deps, farmId, id, seasonOf(req)));
+    const patch = body(req, fieldPatchBody);
+    await fields.updateField(deps, farmId, id, patch);
+    const detail = await fields.getField(deps, farmId, id, seasonOf(req));
+    // Only a redrawn boundary is compared again: a rename or a note says nothing new about overlaps.
+    res.json(patch.boundary !== undefined ? { ...detail, overlaps: await fields.overlapsOfField(deps, farmId, id) } : detail);
   });
 
   r.delete('/:id', ['owner'], async (req, res) => {

@@ -1,7 +1,14 @@
 // Fields of a farm: boundaries (checked and measured on the ellipsoid), hazards and crop plans.
 // Every query is scoped by the farm of the signed-in member.
 import type { Feature, FeatureCollection, Geometry, MultiPolygon, Polygon } from 'geojson';
-import type { FieldDetail, FieldHazardProperties, FieldSummary } from '../../shared/schemas/fields';
+import {
+  isNameProblem,
+  type BoundaryOverlap,
+  type FieldDetail,
+  type FieldHazardProperties,
+  type FieldSummary,
+  type ImportPreview,
+} from '../../shared/schemas/fields';
 import { acresToHa } from '../../shared/units';
 import type { AppDeps } from '../app-deps';
 import type { Tx } from '../db/knex';
@@ -103,6 +110,40 @@ export async function updateField(
     notes: patch.notes,
     ...(measured ? { boundary: measured.boundary, areaM2: measured.areaM2, acres: measured.acres } : {}),
   });
+}
+
+/**
+ * For each boundary, the farm's fields it overlaps (shared/geo/overlap), compared in a compute
+ * worker (boundaries may be large). `exceptId` leaves out the field itself when it is redrawn.
+ */
+async function overlapsOf(
+  deps: AppDeps,
+  farmId: number,
+  boundaries: Array<{ boundary: Polygon | MultiPolygon | null; exceptId?: number }>,
+): Promise<BoundaryOverlap[][]> {
+  if (!boundaries.some((b) => b.boundary)) return boundaries.map(() => []);
+  const fields = await repo.fieldBoundaries(deps.db, farmId);
+  if (!fields.length) return boundaries.map(() => []);
+  return deps.compute.run('findFieldOverlaps', { boundaries, fields });
+}
+
+/** The farm's other fields that a saved field overlaps: the warning on creating or redrawing it. */
+export async function overlapsOfField(deps: AppDeps, farmId: number, id: number): Promise<BoundaryOverlap[]> {
+  const f = await repo.getField(deps.db, farmId, id);
+  if (!f) return [];
+  const [found] = await overlapsOf(deps, farmId, [{ boundary: f.boundary, exceptId: id }]);
+  return found;
+}
+
+/** An import preview with, on each feature that can be saved, the farm's fields it overlaps. */
+export async function withOverlaps(deps: AppDeps, farmId: number, preview: ImportPreview): Promise<ImportPreview> {
+  const usable = (f: ImportPreview['features'][number]) => f.acres !== null && f.problems.every((p) => isNameProblem(p.code));
+  const found = await overlapsOf(
+    deps,
+    farmId,
+    preview.features.map((f) => ({ boundary: usable(f) ? (f.geometry as Polygon | MultiPolygon) : null })),
+  );
+  return { ...preview, features: preview.features.map((f, i) => ({ ...f, overlaps: found[i] })) };
 }
 
 export async function deleteField(deps: AppDeps, farmId: number, id: number): Promise<void> {

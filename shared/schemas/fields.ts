@@ -120,6 +120,19 @@ const NAME_CODES: ReadonlySet<string> = new Set(FIELD_NAME_PROBLEM_CODES);
 /** True for a problem of the name alone: saving the feature under another name clears it. */
 export const isNameProblem = (code: ImportProblemCode): code is FieldNameProblemCode => NAME_CODES.has(code);
 
+/**
+ * Another field of the farm that a boundary overlaps (shared/geo/overlap: shared edges and slivers
+ * left out): a warning beside a saved field or an import row, never a refusal.
+ */
+export const boundaryOverlap = z.object({
+  fieldId: z.number().int(),
+  name: z.string(),
+  /** Overlap on the WGS84 ellipsoid, m². */
+  areaM2: z.number(),
+  acres: z.number(),
+});
+export type BoundaryOverlap = z.infer<typeof boundaryOverlap>;
+
 export interface ImportedFeature {
   index: number;
   name: string;
@@ -130,6 +143,8 @@ export interface ImportedFeature {
   problems: ImportProblem[];
   /** The problems' messages, in the same order (kept for readers of the older answer). */
   errors: string[];
+  /** The farm's fields this feature overlaps (a warning: it can still be saved). */
+  overlaps?: BoundaryOverlap[];
 }
 
 export interface ImportPreview {
@@ -171,6 +186,8 @@ export const fieldDetail = z.object({
   crop: z.string().nullable(),
   crops: z.array(cropPlan),
   updatedAt: z.string(),
+  /** On the answer to creating a field or changing its boundary: the farm's fields it overlaps. */
+  overlaps: z.array(boundaryOverlap).optional(),
 });
 /** The schema says the JSON; the GeoJSON parts are typed with the geojson types the map code uses. */
 export type FieldDetail = Omit<z.infer<typeof fieldDetail>, 'boundary' | 'hazards'> & {

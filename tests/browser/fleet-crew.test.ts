@@ -107,6 +107,36 @@ describe('Fleet and Crew in a real browser', () => {
     await dialog.getByText('overhead power lines', { exact: false }).waitFor();
     expect(await seriousViolations(page)).toEqual([]);
     await screenshot(page, 'fleet-2-implement-form-cautions');
+
+    // Minimum power: its label floats clear above the typed value and the field lies wholly inside the form.
+    const power = dialog.getByLabel('Minimum power (hp)');
+    await power.fill('120');
+    await dialog.getByLabel('Notes').click();
+    await power.scrollIntoViewIfNeeded();
+    const boxes = await dialog
+      .locator('mat-form-field')
+      .filter({ hasText: 'Minimum power' })
+      .evaluate((field) => {
+        const box = (el: Element | null) => {
+          const r = el!.getBoundingClientRect();
+          return { top: r.top, bottom: r.bottom, left: r.left, right: r.right };
+        };
+        return {
+          label: box(field.querySelector('label')),
+          input: box(field.querySelector('input')),
+          field: box(field),
+          content: box(field.closest('mat-dialog-content')),
+          labelClipped:
+            (field.querySelector('mat-label') as HTMLElement).scrollWidth > (field.querySelector('label') as HTMLElement).clientWidth + 1,
+        };
+      });
+    expect(boxes.label.bottom).toBeLessThanOrEqual(boxes.input.top + 1);
+    expect(boxes.labelClipped).toBe(false);
+    expect(boxes.field.left).toBeGreaterThanOrEqual(boxes.content.left);
+    expect(boxes.field.right).toBeLessThanOrEqual(boxes.content.right);
+    expect(boxes.field.top).toBeGreaterThanOrEqual(boxes.content.top);
+    expect(boxes.field.bottom).toBeLessThanOrEqual(boxes.content.bottom);
+    await screenshot(page, 'fleet-2b-implement-form-minimum-power');
     await dialog.getByRole('button', { name: 'Save implement' }).click();
     await dialog.waitFor({ state: 'detached' });
     expect(posts).toHaveLength(1);

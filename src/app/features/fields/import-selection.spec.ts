@@ -1,5 +1,5 @@
 import type { ImportPreview } from '@shared/schemas/fields';
-import { rename, rowsFromPreview, selectionOf, selectionProblems, setAllTicked, setTicked } from './import-selection';
+import { farmNameSet, rename, rowsFromPreview, selectionOf, selectionProblems, setAllTicked, setTicked } from './import-selection';
 
 const preview = (names: string[], nameAttribute = 'name'): ImportPreview => ({
   format: 'kml',
@@ -75,5 +75,50 @@ describe('upload preview selection', () => {
       { index: 0, name: 'North forty' },
       { index: 2, name: 'South' },
     ]);
+  });
+});
+
+describe('renaming in the upload preview', () => {
+  const taken = 'A field called "North" already exists on this farm; rename it or untick it';
+  const withTaken = (): ImportPreview => {
+    const p = preview(['North', 'Bowtie', 'South']);
+    p.features[0] = { ...p.features[0], problems: [{ code: 'name-taken', message: taken, index: 0 }], errors: [taken] };
+    return p;
+  };
+  const farm = farmNameSet(['North', 'Home Quarter', ' River Flat ']);
+
+  it('when a row held back by a name the farm has is renamed to a free name, then it is ticked and can be saved', () => {
+    const rows = rename(rowsFromPreview(withTaken()), 0, 'North forty', farm);
+    expect(rows[0].ticked).toBe(true);
+    expect(selectionProblems(rows)).toEqual([]);
+    expect(selectionOf(rows)).toEqual([
+      { index: 0, name: 'North forty' },
+      { index: 2, name: 'South' },
+    ]);
+  });
+
+  it('when a row is renamed to another name the farm already has (any case), then the problem shows at once and it stays unticked', () => {
+    const rows = rename(rowsFromPreview(withTaken()), 0, 'home quarter', farm);
+    expect(rows[0].ticked).toBe(false);
+    expect(rows[0].errors).toEqual(['A field called "home quarter" already exists on this farm; choose another name']);
+    const ticked = setTicked(rows, 0, true);
+    expect(selectionProblems(ticked)).toEqual(['A field called "home quarter" already exists on this farm; choose another name']);
+    // A good row renamed onto a farm name is caught the same way.
+    expect(rename(rows, 2, 'River flat', farm)[2].errors[0]).toMatch(/already exists on this farm/);
+  });
+
+  it('when the owner unticks a renamed row, then renaming it again does not tick it behind their back', () => {
+    let rows = rename(rowsFromPreview(withTaken()), 0, 'North forty', farm);
+    rows = setTicked(rows, 0, false);
+    rows = rename(rows, 0, 'North forty acres', farm);
+    expect(rows[0].ticked).toBe(false);
+  });
+
+  it('when the preview carries overlaps, then the row keeps them as a warning that does not block saving', () => {
+    const p = preview(['North', 'Bowtie', 'South']);
+    p.features[2] = { ...p.features[2], overlaps: [{ fieldId: 9, name: 'Home Quarter', areaM2: 50_000, acres: 12.36 }] };
+    const rows = rowsFromPreview(p);
+    expect(rows[2].overlaps).toEqual([{ fieldId: 9, name: 'Home Quarter', areaM2: 50_000, acres: 12.36 }]);
+    expect(selectionProblems(rows)).toEqual([]);
   });
 });

@@ -1,5 +1,5 @@
 import { FIELD_NAME_MAX, fieldNameProblems, type FieldNameProblem } from '@shared/field-names';
-import { isNameProblem, type ImportPreview, type ImportProblem } from '@shared/schemas/fields';
+import { isNameProblem, type BoundaryOverlap, type ImportPreview, type ImportProblem } from '@shared/schemas/fields';
 
 /** One feature of an uploaded file as the owner sees it in the preview. */
 export interface ImportRow {
@@ -19,11 +19,27 @@ export interface ImportRow {
    */
   tickable: boolean;
   ticked: boolean;
+  /** A new name typed in the preview is already a field of the farm (the preview judged only the file's names). */
+  nameTaken?: boolean;
+  /** The farm's fields this feature overlaps: a warning, it can still be saved. */
+  overlaps: BoundaryOverlap[];
 }
 
+/** The farm's field names as `rename` compares them: trimmed, any case. */
+export const farmNameSet = (names: readonly string[]): ReadonlySet<string> => new Set(names.map((n) => n.trim().toLowerCase()));
+
 /** The problems that still hold for a row under its current name. */
-const standing = (row: Pick<ImportRow, 'problems' | 'name' | 'previewName'>): ImportProblem[] =>
-  row.problems.filter((p) => !isNameProblem(p.code) || row.name.trim() === row.previewName);
+function standing(row: Pick<ImportRow, 'problems' | 'name' | 'previewName' | 'nameTaken' | 'index'>): ImportProblem[] {
+  const renamed = row.name.trim() !== row.previewName;
+  const kept = row.problems.filter((p) => !isNameProblem(p.code) || !renamed);
+  if (renamed && row.nameTaken)
+    kept.push({
+      code: 'name-taken',
+      message: `A field called "${row.name.trim()}" already exists on this farm; choose another name`,
+      index: row.index,
+    });
+  return kept;
+}
 
 const withErrors = (row: ImportRow): ImportRow => ({ ...row, errors: standing(row).map((p) => p.message) });
 
@@ -48,6 +64,7 @@ export function rowsFromPreview(preview: ImportPreview, previous: readonly Impor
       errors: [],
       tickable,
       ticked: f.problems.length === 0 && (earlier ? earlier.ticked || earlier.problems.length > 0 : true),
+      overlaps: f.overlaps ?? [],
     });
   });
 }
@@ -60,8 +77,19 @@ export function setAllTicked(rows: readonly ImportRow[], ticked: boolean): Impor
   return rows.map((row) => ({ ...row, ticked: row.tickable && ticked }));
 }
 
-export function rename(rows: readonly ImportRow[], index: number, name: string): ImportRow[] {
-  return rows.map((row) => (row.index === index ? withErrors({ ...row, name }) : row));
+/**
+ * Renames a row. A new name is judged against the farm's field names at once (`farmNames`, from
+ * `farmNameSet`), so renaming to another name the farm has is caught before saving. A row held back
+ * only by its name is ticked the moment a new name clears it: renaming is what the preview asked for.
+ */
+export function rename(rows: readonly ImportRow[], index: number, name: string, farmNames: ReadonlySet<string> = new Set()): ImportRow[] {
+  return rows.map((row) => {
+    if (row.index !== index) return row;
+    const next = withErrors({ ...row, name, nameTaken: farmNames.has(name.trim().toLowerCase()) });
+    const wasHeld = standing(row).some((p) => isNameProblem(p.code));
+    const nowClear = row.tickable && standing(next).length === 0 && name.trim().length > 0;
+    return wasHeld && nowClear && !row.ticked ? { ...next, ticked: true } : next;
+  });
 }
 
 /** What `selection` carries to the server: the ticked features under the names shown. */

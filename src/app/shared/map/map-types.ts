@@ -8,6 +8,8 @@ export interface MapField {
   boundary: Polygon | MultiPolygon;
   /** Drawn quieter (an import feature not ticked, a neighbour field for context). */
   muted?: boolean;
+  /** Fill colour (a CSS colour, e.g. by crop: crop-colours.ts); the theme's plain fill when left out. */
+  colour?: string | null;
 }
 
 /** What the API keeps on each hazard feature. */

@@ -141,4 +141,17 @@ describe('FieldPage', () => {
     expect(page.querySelector('[role="alert"]')?.textContent).toContain('There is already a field called "Home Section"');
     expect(name.value).toBe('Home Section');
   });
+
+  it('when the owner edits a hazard from the list, then its form opens beside the map, not below the page', async () => {
+    await open('owner');
+    (
+      [...page.querySelectorAll('button')].find((b) => b.getAttribute('aria-label') === 'Edit Power pole or line') as HTMLButtonElement
+    ).click();
+    await fixture.whenStable();
+    const form = page.querySelector('app-hazard-form');
+    expect(form).not.toBeNull();
+    expect(form!.closest('section.map-section')).not.toBeNull();
+    expect(page.querySelector('section.map-section')?.classList).toContain('with-form');
+    expect(page.querySelector('section.hazards app-hazard-form')).toBeNull();
+  });
 });

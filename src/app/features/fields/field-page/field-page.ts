@@ -1,6 +1,18 @@
 import { FIELD_NAME_MAX } from '@shared/field-names';
 import { httpResource } from '@angular/common/http';
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  ElementRef,
+  Injector,
+  afterNextRender,
+  computed,
+  effect,
+  inject,
+  input,
+  signal,
+  viewChild,
+} from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
@@ -25,7 +37,9 @@ import { AreaPipe } from '../../../shared/units/area-pipe';
 import { BoundaryEditor } from '../boundary-editor/boundary-editor';
 import { measureBoundary } from '../boundary-measure';
 import { CropPlans } from '../crop-plans/crop-plans';
-import type { FieldDetail } from '@shared/schemas/fields';
+import type { BoundaryOverlap, FieldDetail } from '@shared/schemas/fields';
+import { Units } from '../../../shared/units/units';
+import { overlapWarning } from '../overlap-warning';
 import { type Boundary, FieldsApi, fieldUrl } from '../fields-api';
 import { HazardForm, type HazardFormValue } from '../hazard-form/hazard-form';
 import { HazardList } from '../hazard-list/hazard-list';
@@ -80,6 +94,8 @@ export class FieldPage {
   private readonly dialog = inject(MatDialog);
   private readonly router = inject(Router);
   private readonly snackBar = inject(MatSnackBar);
+  private readonly units = inject(Units);
+  private readonly injector = inject(Injector);
 
   /** The `:id` route parameter. */
   readonly id = input.required<string>();
@@ -110,6 +126,16 @@ export class FieldPage {
   protected readonly boundaryError = signal<string | null>(null);
   protected readonly hazardError = signal<string | null>(null);
   protected readonly detailsError = signal<string | null>(null);
+  /**
+   * The farm's fields this one's boundary overlaps, as last saved here (or by New field, which
+   * passes them in the navigation's state): a warning that stays until the boundary is saved again.
+   */
+  protected readonly overlaps = signal<BoundaryOverlap[]>(
+    (inject(Router).currentNavigation()?.extras.state?.['overlaps'] as BoundaryOverlap[] | undefined) ?? [],
+  );
+  protected readonly overlapNote = computed(() => overlapWarning(this.overlaps(), (acres) => this.units.area(acres)));
+  private readonly hazardPanel = viewChild('hazardPanel', { read: ElementRef<HTMLElement> });
+  private readonly markPoint = viewChild('markPoint', { read: ElementRef<HTMLElement> });
 
   protected readonly details = new FormGroup({
     name: new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.maxLength(FIELD_NAME_MAX)] }),
@@ -157,9 +183,10 @@ export class FieldPage {
       this.boundaryError.set('The field needs a boundary: draw at least one part before saving.');
       return;
     }
-    this.write(this.api.update(f.id, { boundary }), this.boundaryError, () => {
+    this.write(this.api.update(f.id, { boundary }), this.boundaryError, (saved) => {
       this.editingBoundary.set(false);
-      this.tell('Boundary saved.');
+      this.overlaps.set(saved.overlaps ?? []);
+      this.tell(saved.overlaps?.length ? 'Boundary saved, with an overlap: see the warning above the map.' : 'Boundary saved.');
     });
   }
 
@@ -211,6 +238,8 @@ export class FieldPage {
   protected editHazard(hazard: HazardFeature): void {
     this.hazardError.set(null);
     this.hazardEdit.set({ hazard, geometry: null, shape: '' });
+    // The form opens beside the map; from the list below, bring it (and the map) into view.
+    afterNextRender(() => this.hazardPanel()?.nativeElement.scrollIntoView?.({ block: 'nearest' }), { injector: this.injector });
   }
 
   protected saveHazard(value: HazardFormValue): void {
@@ -223,6 +252,8 @@ export class FieldPage {
     this.write(request, this.hazardError, () => {
       this.hazardEdit.set(null);
       this.tell(edit.hazard ? 'Hazard saved.' : 'Hazard added.');
+      // Ready for the next one: focus back on the map tools without moving the page.
+      afterNextRender(() => this.markPoint()?.nativeElement.focus({ preventScroll: true }), { injector: this.injector });
     });
   }
 
@@ -308,14 +339,14 @@ export class FieldPage {
   }
 
   /** Sends a change, reloads the field on success, and shows the server's message on failure. */
-  private write<T>(request: Observable<T>, error: ReturnType<typeof signal<string | null>>, done: () => void): void {
+  private write<T>(request: Observable<T>, error: ReturnType<typeof signal<string | null>>, done: (value: T) => void): void {
     this.busy.set(true);
     error.set(null);
     request.subscribe({
-      next: () => {
+      next: (value) => {
         this.busy.set(false);
         this.field.reload();
-        done();
+        done(value);
       },
       error: (err: unknown) => {
         this.busy.set(false);

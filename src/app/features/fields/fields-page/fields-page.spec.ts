@@ -10,6 +10,7 @@ import { AuthStore } from '../../../core/auth/auth-store';
 import { errorInterceptor } from '../../../core/http/error.interceptor';
 import { FieldMap } from '../../../shared/map/field-map/field-map';
 import { FieldMapStub } from '../../../shared/map/field-map/field-map-stub';
+import { CROP_COLOURS } from '../../../shared/map/crop-colours';
 import { FieldsPage } from './fields-page';
 
 const me = (role: Me['role'], units: 'us' | 'metric' = 'us'): Me => ({
@@ -91,6 +92,24 @@ describe('FieldsPage', () => {
     expect(page.querySelector('h2')?.textContent).toContain('3 fields, 1,102.6 ac');
     const map = fixture.debugElement.query(By.directive(FieldMapStub)).componentInstance as FieldMapStub;
     expect(map.fields().map((f) => f.name)).toEqual(['Slough Quarter', 'Home Section', 'Draw Half']);
+  });
+
+  it('when the fields load, then each is given its crop colour and the key lists the crops present with their counts', async () => {
+    await open('owner');
+    const map = fixture.debugElement.query(By.directive(FieldMapStub)).componentInstance as FieldMapStub;
+    // Our own palette (shared/map/crop-colours.ts): each crop its colour, no crop no fill.
+    expect(map.fields().map((f) => [f.name, f.colour])).toEqual([
+      ['Slough Quarter', CROP_COLOURS.canola],
+      ['Home Section', null],
+      ['Draw Half', CROP_COLOURS.durum],
+    ]);
+    const key = page.querySelector('app-colour-legend ul');
+    expect(key?.getAttribute('aria-label')).toBe(`Crops ${YEAR}`);
+    expect([...(key?.querySelectorAll('li') ?? [])].map((li) => li.textContent?.replace(/\s+/g, ' ').trim())).toEqual([
+      'durum (1)',
+      'canola (1)',
+      'Not planned (1)',
+    ]);
   });
 
   it('when the farm is metric, then areas show in hectares', async () => {

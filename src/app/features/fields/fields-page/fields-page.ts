@@ -16,6 +16,8 @@ import type { UnitSystem } from '@shared/schemas/auth';
 import type { FieldSummary } from '@shared/schemas/fields';
 import { AuthStore } from '../../../core/auth/auth-store';
 import { messageOf } from '../../../core/http/api-error';
+import { ColourLegend } from '../../../shared/map/colour-legend/colour-legend';
+import { cropColour, cropLegend } from '../../../shared/map/crop-colours';
 import { FieldMap } from '../../../shared/map/field-map/field-map';
 import type { MapField } from '../../../shared/map/map-types';
 import { AreaPipe } from '../../../shared/units/area-pipe';
@@ -29,6 +31,7 @@ import { seasonChoices } from '../seasons';
   changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [
     AreaPipe,
+    ColourLegend,
     FieldMap,
     MatButtonModule,
     MatButtonToggleModule,
@@ -61,9 +64,11 @@ export class FieldsPage {
     const error = this.fields.error();
     return error ? messageOf(error) : null;
   });
+  /** Each field filled with the colour of its crop in the season shown. */
   protected readonly mapFields = computed<MapField[]>(() =>
-    this.rows().map((f) => ({ id: f.id, name: f.name, boundary: f.boundary as MapField['boundary'] })),
+    this.rows().map((f) => ({ id: f.id, name: f.name, boundary: f.boundary as MapField['boundary'], colour: cropColour(f.crop) })),
   );
+  protected readonly legend = computed(() => cropLegend(this.rows().map((f) => f.crop)));
   protected readonly totalAcres = computed(() => this.rows().reduce((sum, f) => sum + f.acres, 0));
   protected readonly exportUrl = computed(() => `${EXPORT_URL}?season=${this.season()}`);
   protected readonly columns = ['name', 'acres', 'crop', 'hazards', 'lastOperation'];

@@ -97,7 +97,19 @@ describe('NewField', () => {
     expect(req.request.body).toEqual({ name: 'Slough Quarter', boundary: drawn });
     req.flush({ id: 42, name: 'Slough Quarter' }, { status: 201, statusText: 'Created' });
     await fixture.whenStable();
-    expect(navigate).toHaveBeenCalledWith(['/fields', 42]);
+    expect(navigate).toHaveBeenCalledWith(['/fields', 42], { state: { overlaps: [] } });
+  });
+
+  it('when the saved field overlaps another, then the new field opens carrying the overlap and the snack bar says so', async () => {
+    const navigate = jest.spyOn(TestBed.inject(Router), 'navigate').mockResolvedValue(true);
+    editor.changed.emit(drawn);
+    type('Slough Quarter');
+    save();
+    const overlaps = [{ fieldId: 7, name: 'Home Section', areaM2: 50_000, acres: 12.36 }];
+    httpTesting.expectOne('/api/fields').flush({ id: 42, name: 'Slough Quarter', overlaps }, { status: 201, statusText: 'Created' });
+    await fixture.whenStable();
+    expect(navigate).toHaveBeenCalledWith(['/fields', 42], { state: { overlaps } });
+    expect(document.querySelector('mat-snack-bar-container')?.textContent).toContain('It overlaps other fields');
   });
 
   it('when the server refuses the boundary, then its message shows and the name and drawing stay', async () => {

@@ -85,8 +85,14 @@ export class NewField {
     this.api.create({ name: name.trim(), boundary, ...(notes.trim() ? { notes: notes.trim() } : {}) }).subscribe({
       next: (field) => {
         this.busy.set(false);
-        this.snackBar.open(`${field.name} saved.`, 'Close', { duration: 6000 });
-        void this.router.navigate(['/fields', field.id]);
+        const overlaps = field.overlaps ?? [];
+        this.snackBar.open(
+          overlaps.length ? `${field.name} saved. It overlaps other fields: see the warning above its map.` : `${field.name} saved.`,
+          'Close',
+          { duration: 6000 },
+        );
+        // The field's page shows the overlap warning (a warning: the field is saved as drawn).
+        void this.router.navigate(['/fields', field.id], { state: { overlaps } });
       },
       error: (err: unknown) => {
         this.busy.set(false);

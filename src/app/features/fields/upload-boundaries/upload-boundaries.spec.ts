@@ -67,6 +67,13 @@ describe('UploadBoundaries', () => {
     httpTesting = TestBed.inject(HttpTestingController);
     fixture = TestBed.createComponent(UploadBoundaries);
     page = fixture.nativeElement as HTMLElement;
+    fixture.detectChanges();
+    // The farm's fields, for judging new names at once.
+    httpTesting
+      .expectOne((r) => r.method === 'GET' && r.url.startsWith('/api/fields'))
+      .flush([
+        { id: 4, name: 'Home Quarter', acres: 160, hectares: 64.7, crop: null, hazardCount: 0, lastOperation: null, boundary: square },
+      ]);
     await fixture.whenStable();
 
     const input = page.querySelector('#boundary-file') as HTMLInputElement;
@@ -92,6 +99,26 @@ describe('UploadBoundaries', () => {
     ]);
     expect(page.querySelector('tbody tr.bad .errors')?.textContent).toContain('crosses itself');
     expect(saveButton().textContent?.trim()).toBe('Save 2 fields');
+  });
+
+  it('when a 6-byte file is chosen, then its size says "6 bytes", not "0 kB"', () => {
+    expect(page.querySelector('.chosen')?.textContent?.trim()).toBe('fields.kml · 6 bytes');
+  });
+
+  it('when the preview arrives, then the map is given every area found, the unusable one too, so it can fit them all', () => {
+    expect([...page.querySelectorAll('.map-stub li')].map((li) => li.textContent?.trim())).toEqual(['North forty', 'Bowtie', 'Home half']);
+  });
+
+  it('when a row is renamed to a name the farm already has, then the problem shows on the row at once and Save holds back', async () => {
+    const name = page.querySelectorAll('input.name')[2] as HTMLInputElement;
+    name.value = 'home quarter';
+    name.dispatchEvent(new Event('input'));
+    await fixture.whenStable();
+    expect(page.querySelectorAll('tbody .errors')[2].textContent).toContain('A field called "home quarter" already exists on this farm');
+    saveButton().click();
+    await fixture.whenStable();
+    httpTesting.expectNone((r) => r.url === '/api/fields/import');
+    expect(page.querySelector('ul.form-error')?.textContent).toContain('already exists on this farm');
   });
 
   it('when the server refuses the save, then its message and every problem show and the choices stay', async () => {

@@ -1,4 +1,4 @@
-import { HttpEventType, type HttpEvent } from '@angular/common/http';
+import { HttpEventType, httpResource, type HttpEvent } from '@angular/common/http';
 import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCheckboxModule } from '@angular/material/checkbox';
@@ -9,7 +9,8 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { Router, RouterLink } from '@angular/router';
-import { importProblems, type ImportPreview } from '@shared/schemas/fields';
+import { importProblems, type FieldSummary, type ImportPreview } from '@shared/schemas/fields';
+import { formatFileSize } from '@shared/file-size';
 import type { Observable } from 'rxjs';
 import { ApiError, messageOf } from '../../../core/http/api-error';
 import { FieldMap } from '../../../shared/map/field-map/field-map';
@@ -17,8 +18,20 @@ import type { MapField } from '../../../shared/map/map-types';
 import { AreaPipe } from '../../../shared/units/area-pipe';
 import { FIELD_NAME_MAX } from '@shared/field-names';
 import { LIMIT_TEXT, MAX_UPLOAD_BYTES } from '@shared/limits';
-import { FieldsApi } from '../fields-api';
-import { type ImportRow, rename, rowsFromPreview, selectionOf, selectionProblems, setAllTicked, setTicked } from '../import-selection';
+import { AuthStore } from '../../../core/auth/auth-store';
+import { Units } from '../../../shared/units/units';
+import { FieldsApi, fieldsUrl } from '../fields-api';
+import {
+  farmNameSet,
+  type ImportRow,
+  rename,
+  rowsFromPreview,
+  selectionOf,
+  selectionProblems,
+  setAllTicked,
+  setTicked,
+} from '../import-selection';
+import { overlapWarning } from '../overlap-warning';
 
 /** Largest file the server takes, bytes (it answers 413 above). */
 export { MAX_UPLOAD_BYTES };
@@ -57,6 +70,14 @@ export class UploadBoundaries {
   private readonly api = inject(FieldsApi);
   private readonly router = inject(Router);
   private readonly snackBar = inject(MatSnackBar);
+  private readonly units = inject(Units);
+  private readonly auth = inject(AuthStore);
+  /** File sizes as every screen says them ("274 bytes", "2.4 MB"). */
+  protected readonly fileSize = formatFileSize;
+
+  /** The farm's fields: a name typed in the preview is checked against them at once. */
+  private readonly farmFields = httpResource<FieldSummary[]>(() => fieldsUrl(this.auth.currentSeason()), { defaultValue: [] });
+  private readonly farmNames = computed(() => farmNameSet((this.farmFields.hasValue() ? this.farmFields.value() : []).map((f) => f.name)));
 
   protected readonly file = signal<File | null>(null);
   protected readonly preview = signal<ImportPreview | null>(null);
@@ -75,9 +96,10 @@ export class UploadBoundaries {
     return tickable.length > 0 && tickable.every((r) => r.ticked);
   });
   protected readonly someTicked = computed(() => this.rows().some((r) => r.ticked) && !this.allTicked());
+  /** Every area found, so the map shows where the file lies: rows that cannot be saved drawn quieter. */
   protected readonly mapFields = computed<MapField[]>(() =>
     this.rows()
-      .filter((r) => r.tickable && isPolygonal(r.geometry))
+      .filter((r) => isPolygonal(r.geometry))
       .map((r) => ({
         id: r.index,
         name: r.name || `Feature ${r.index + 1}`,
@@ -86,15 +108,18 @@ export class UploadBoundaries {
       })),
   );
 
+  /** The overlap warning of a row, in the farm's units; null when it overlaps no field. */
+  protected overlapOf(row: ImportRow): string | null {
+    return overlapWarning(row.overlaps, (acres) => this.units.area(acres));
+  }
+
   protected choose(input: HTMLInputElement): void {
     const file = input.files?.[0] ?? null;
     if (!file) return;
     this.error.set(null);
     this.serverProblems.set([]);
     if (file.size > MAX_UPLOAD_BYTES) {
-      this.error.set(
-        `${file.name} is ${(file.size / 1048576).toFixed(1)} MB; files up to ${MAX_UPLOAD_BYTES / 1048576} MB can be uploaded.`,
-      );
+      this.error.set(`${file.name} is ${formatFileSize(file.size)}; files up to ${formatFileSize(MAX_UPLOAD_BYTES)} can be uploaded.`);
       return;
     }
     this.file.set(file);
@@ -116,7 +141,7 @@ export class UploadBoundaries {
   }
 
   protected rename(index: number, name: string): void {
-    this.rows.update((rows) => rename(rows, index, name));
+    this.rows.update((rows) => rename(rows, index, name, this.farmNames()));
   }
 
   protected save(): void {

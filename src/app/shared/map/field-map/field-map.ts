@@ -26,6 +26,8 @@ import type { HazardFeature, MapField, MapLayer } from '../map-types';
 /** Where an empty map looks before anything is drawn: the northern plains at region scale. */
 const EMPTY_VIEW = { center: L.latLng(47, -98), zoom: 5 };
 const FIT_PADDING = L.point(28, 28);
+/** Where a field name may sit, in pixels from the field's centre: on it, else just above or below. */
+const LABEL_SHIFTS_PX = [0, -26, 26, -52, 52];
 
 interface Band {
   layer: L.Path;
@@ -75,7 +77,11 @@ export class FieldMap {
   private readonly extras = L.featureGroup([], { pmIgnore: true });
   private readonly hazardShapes = L.featureGroup([], { pmIgnore: true });
   private bands: Band[] = [];
+  /** Field labels opened by hovering, to close again when the pointer leaves. */
+  private readonly hoverOpened = new Set<L.GeoJSON>();
   private fittedKey = '';
+  /** The last fit was made while the map had no width or height. */
+  private fittedBlind = false;
   private destroyed = false;
 
   constructor() {
@@ -99,7 +105,10 @@ export class FieldMap {
       const map = this.map();
       if (!map) return;
       this.drawHazards(map, this.hazards(), this.selectable());
-      untracked(() => this.fitIfChanged());
+      untracked(() => {
+        this.fitIfChanged();
+        this.declutterLabels(map);
+      });
     });
     effect(() => {
       if (!this.map()) return;
@@ -112,7 +121,9 @@ export class FieldMap {
   fit(): void {
     const map = this.map();
     const bounds = this.contentBounds();
-    if (map && bounds) map.fitBounds(bounds, { padding: FIT_PADDING, maxZoom: 17 });
+    if (!map || !bounds) return;
+    map.fitBounds(bounds, { padding: FIT_PADDING, maxZoom: 17 });
+    this.fittedBlind = isEmptySize(map.getSize());
   }
 
   private async create(): Promise<void> {
@@ -137,7 +148,12 @@ export class FieldMap {
       this.declutterLabels(map);
     });
     if (typeof ResizeObserver !== 'undefined') {
-      const observer = new ResizeObserver(() => map.invalidateSize());
+      const observer = new ResizeObserver(() => {
+        map.invalidateSize();
+        // A fit made while the map had no size (laid out hidden, or before its grid settled) picked a
+        // region-wide zoom: fit again once it has one.
+        if (this.fittedBlind && !isEmptySize(map.getSize())) this.fit();
+      });
       observer.observe(this.canvas().nativeElement);
       map.on('unload', () => observer.disconnect());
     }
@@ -160,15 +176,52 @@ export class FieldMap {
   private drawFields(fields: readonly MapField[], selectedId: number | null, selectable: boolean): void {
     this.outlines.clearLayers();
     for (const field of fields) {
-      const classes = ['fm-field', field.muted ? 'fm-muted' : '', field.id === selectedId ? 'fm-selected' : ''].filter(Boolean).join(' ');
+      const classes = [
+        'fm-field',
+        field.muted ? 'fm-muted' : '',
+        field.id === selectedId ? 'fm-selected' : '',
+        field.colour ? 'fm-coloured' : '',
+      ]
+        .filter(Boolean)
+        .join(' ');
       const layer = L.geoJSON(field.boundary, {
         pmIgnore: true,
         interactive: selectable,
         style: { className: classes, weight: field.id === selectedId ? 3 : 2 },
       } as L.GeoJSONOptions);
       layer.bindTooltip(textLabel(field.name), { permanent: true, direction: 'center', className: 'fm-label', opacity: 1 });
-      if (selectable) layer.on('click', () => this.fieldSelected.emit(field.id));
+      if (selectable) {
+        layer.on('click', () => this.fieldSelected.emit(field.id));
+        layer.on('mouseover', () => this.hover(layer, true));
+        layer.on('mouseout', () => this.hover(layer, false));
+      }
       this.outlines.addLayer(layer);
+      // The fill goes in through a custom property: the theme's CSS (which outranks SVG attributes) reads it.
+      for (const path of pathsOf(layer)) {
+        if (field.colour) path.style.setProperty('--fm-colour', field.colour);
+        // Which field a shape is, for screens and tests that read the drawn map.
+        path.dataset['fieldId'] = String(field.id);
+      }
+    }
+  }
+
+  /**
+   * Hovering a field lifts it and outlines it strongly, and shows its name even when the name was
+   * hidden to keep a zoomed-out farm readable (declutterLabels); leaving hides that name again.
+   */
+  private hover(layer: L.GeoJSON, on: boolean): void {
+    for (const path of pathsOf(layer)) path.classList.toggle('fm-hover', on);
+    const tip = layer.getTooltip();
+    if (on) {
+      layer.bringToFront();
+      if (tip && !layer.isTooltipOpen()) {
+        this.hoverOpened.add(layer);
+        layer.openTooltip();
+      }
+      tip?.getElement()?.classList.add('fm-label-hover');
+    } else {
+      tip?.getElement()?.classList.remove('fm-label-hover');
+      if (this.hoverOpened.delete(layer)) layer.closeTooltip();
     }
   }
 
@@ -241,10 +294,19 @@ export class FieldMap {
 
   /**
    * Shows field names largest field first and hides a name that would cover one already shown,
-   * so a zoomed-out farm stays readable; zooming in brings the hidden names back.
+   * so a zoomed-out farm stays readable; zooming in brings the hidden names back. A name never
+   * sits on a hazard marker: it moves above or below the marker (a hazard reported in the middle
+   * of a small field would otherwise hide under the field's name).
    */
   private declutterLabels(map: L.Map): void {
     const placed: L.Bounds[] = [];
+    const markers = this.hazardShapes
+      .getLayers()
+      .filter((layer): layer is L.Marker => layer instanceof L.Marker)
+      .map((marker) => {
+        const p = map.latLngToLayerPoint(marker.getLatLng());
+        return L.bounds(L.point(p.x - 13, p.y - 13), L.point(p.x + 13, p.y + 13));
+      });
     const labelled = (this.outlines.getLayers() as L.GeoJSON[])
       .map((layer) => {
         const bounds = layer.getBounds();
@@ -255,16 +317,25 @@ export class FieldMap {
       })
       .filter((entry) => entry !== null)
       .sort((a, b) => b.size - a.size);
+    this.hoverOpened.clear();
     for (const { layer, centre } of labelled) {
-      const content = layer.getTooltip()?.getContent();
+      const tooltip = layer.getTooltip();
+      const content = tooltip?.getContent();
       const text = content instanceof HTMLElement ? (content.textContent ?? '') : String(content ?? '');
       const half = (text.length * 6.5 + 14) / 2;
-      const box = L.bounds(L.point(centre.x - half, centre.y - 11), L.point(centre.x + half, centre.y + 11));
-      if (placed.some((other) => other.overlaps(box))) layer.closeTooltip();
-      else {
-        placed.push(box);
-        layer.openTooltip();
+      const boxAt = (dy: number) => L.bounds(L.point(centre.x - half, centre.y + dy - 11), L.point(centre.x + half, centre.y + dy + 11));
+      const free = (box: L.Bounds) => !placed.some((other) => other.overlaps(box)) && !markers.some((m) => m.overlaps(box));
+      // Centre first, then a step above or below at a time (Leaflet adds the offset to the centre).
+      const dy = LABEL_SHIFTS_PX.find((shift) => free(boxAt(shift)));
+      if (dy === undefined && placed.some((other) => other.overlaps(boxAt(0)))) {
+        layer.closeTooltip();
+        continue;
       }
+      const shift = dy ?? 0;
+      if (tooltip) tooltip.options.offset = L.point(0, shift);
+      placed.push(boxAt(shift));
+      layer.closeTooltip();
+      layer.openTooltip();
     }
   }
 
@@ -295,6 +366,17 @@ export class FieldMap {
 }
 
 const latLng = (p: Position): L.LatLng => L.latLng(p[1], p[0]);
+const isEmptySize = (size: L.Point): boolean => size.x <= 0 || size.y <= 0;
+
+/** The SVG path elements a GeoJSON layer drew (none before it is on a map, or with a canvas renderer). */
+function pathsOf(layer: L.GeoJSON): SVGElement[] {
+  const paths: SVGElement[] = [];
+  layer.eachLayer((child) => {
+    const el = (child as L.Path).getElement?.();
+    if (el instanceof SVGElement) paths.push(el);
+  });
+  return paths;
+}
 
 /**
  * Tooltip content as text: Leaflet takes a string as HTML, so a field named with markup would
