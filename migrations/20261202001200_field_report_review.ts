@@ -17,6 +17,9 @@ export async function up(knex: Knex): Promise<void> {
   await knex.raw("CREATE INDEX assignment_events_open_reports ON assignment_events (farm_id, at DESC) WHERE review = 'open'");
   // Reports made before this change were seen only on the field page: they are open for the owner now.
   await knex('assignment_events').where({ type: 'problem' }).update({ review: 'open' });
+  // Fire the farm-revision triggers of that update now rather than at commit: migrations run in
+  // one transaction, and a later one's ALTER TABLE would meet them pending.
+  await knex.raw('SET CONSTRAINTS ALL IMMEDIATE');
 }
 
 export async function down(knex: Knex): Promise<void> {
