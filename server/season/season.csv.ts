@@ -31,6 +31,8 @@ export function seasonCsv(s: SeasonSummary, table: SeasonTable, units: UnitSyste
           'engine_hours',
           'jobs_finished',
           'jobs_called_off',
+          'weather_days_lost',
+          'jobs_called_off_for_weather',
         ],
         s.operations.map((o): Cell[] => [
           label(o.operation),
@@ -46,8 +48,10 @@ export function seasonCsv(s: SeasonSummary, table: SeasonTable, units: UnitSyste
           o.engineHours,
           o.jobsFinished,
           o.jobsCalledOff,
+          o.weatherDaysLost,
+          o.jobsCalledOffForWeather,
         ]),
-        [11, 12],
+        [11, 12, 13, 14],
       );
     case 'fields':
       return toCsv(

@@ -67,8 +67,16 @@ export interface MachineOperationRow {
   engine_hours: number;
 }
 
+/** Call-offs for weather: one row per operation, and one with a null operation for the whole farm. */
+export interface WeatherDaysRow {
+  operation: Operation | null;
+  days: number;
+  jobs: number;
+}
+
 export interface SeasonRows {
   operationLogs: OperationLogRow[];
+  weatherDays: WeatherDaysRow[];
   operationPlans: OperationPlanRow[];
   weeks: WeekRow[];
   fields: FieldRow[];
@@ -133,6 +141,14 @@ const SECTIONS: Record<keyof SeasonRows, string> = {
     from (select operation, sum(acres) as acres, sum(hours) as hours, sum(engine_hours) as engine_hours, count(*) as jobs from done group by operation) d
     full join (select operation, count(*) as jobs from assignments where ${IN_SEASON} and state = 'called-off' group by operation) c
       on c.operation = d.operation`,
+  // Weather days lost: the days (the job's day) with at least one job called off for weather, as
+  // its log says, and how many jobs. Per operation, and over the whole farm (grouping set ()),
+  // where a day lost to two operations counts once. Only the weather call-offs; a call-off ends
+  // a job, so each job has at most one.
+  weatherDays: `select a.operation, count(distinct a.day)::int as days, count(distinct a.id)::int as jobs
+    from (select id, operation, day from assignments where ${IN_SEASON} and state = 'called-off') a
+    join assignment_events e on e.assignment_id = a.id and e.farm_id = :farmId and e.type = 'call-off' and e.reason = 'weather'
+    group by grouping sets ((a.operation), ())`,
   // Acres planned (for the operations the farm does; fallow fields only for harrowing and tillage),
   // covered (each field capped at its acres), and the pass-plan hours of those fields' saved plans.
   operationPlans: `select o.operation,

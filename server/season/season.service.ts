@@ -9,6 +9,9 @@
 // - Planned hours add the saved pass plans of those fields; a field without a plan adds nothing,
 //   and acresWithPlan says how many acres the planned hours cover. Pass plans are not kept per
 //   season: a past season reads the plans saved now.
+// - Weather days lost: the days with at least one job called off for weather (its log's reason),
+//   per operation; the farm's total counts a day lost to two operations once, so it is not the
+//   sum of the operations' days.
 import { OPERATIONS, type Operation } from '../../shared/operations';
 import type { FieldSeason, MachineSeason, OperationSeason, PersonSeason, SeasonIndex, SeasonSummary } from '../../shared/schemas/season';
 import type { AppDeps } from '../app-deps';
@@ -22,6 +25,7 @@ const ratio = (a: number, b: number | null) => (b && b > 0 ? roundTo(a / b) : nu
 export async function seasonSummary(deps: AppDeps, farmId: number, year: number): Promise<SeasonSummary> {
   const {
     operationLogs: logs,
+    weatherDays,
     operationPlans: plans,
     weeks,
     fields,
@@ -32,6 +36,7 @@ export async function seasonSummary(deps: AppDeps, farmId: number, year: number)
 
   const logOf = new Map(logs.map((l) => [l.operation, l]));
   const planOf = new Map(plans.map((p) => [p.operation, p]));
+  const weatherOf = new Map(weatherDays.map((w) => [w.operation, w]));
   const operations: OperationSeason[] = OPERATIONS.map((operation) => {
     const l = logOf.get(operation);
     const p = planOf.get(operation);
@@ -53,6 +58,8 @@ export async function seasonSummary(deps: AppDeps, farmId: number, year: number)
       progress: acresPlanned > 0 ? Math.min(1, roundTo((p?.acres_covered ?? 0) / acresPlanned, 4)) : 0,
       jobsFinished: l?.jobs_finished ?? 0,
       jobsCalledOff: l?.jobs_called_off ?? 0,
+      weatherDaysLost: weatherOf.get(operation)?.days ?? 0,
+      jobsCalledOffForWeather: weatherOf.get(operation)?.jobs ?? 0,
     };
   });
 
@@ -77,6 +84,8 @@ export async function seasonSummary(deps: AppDeps, farmId: number, year: number)
       acresPerHour: ratio(totalAcres, totalHours),
       jobsFinished: logs.reduce((s, l) => s + l.jobs_finished, 0),
       jobsCalledOff: logs.reduce((s, l) => s + l.jobs_called_off, 0),
+      weatherDaysLost: weatherOf.get(null)?.days ?? 0,
+      jobsCalledOffForWeather: weatherOf.get(null)?.jobs ?? 0,
       fieldsWorked: new Set(fieldOps.map((f) => f.field_id)).size,
     },
   };

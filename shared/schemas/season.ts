@@ -44,6 +44,10 @@ export const operationSeason = z.object({
   progress: num,
   jobsFinished: z.number().int(),
   jobsCalledOff: z.number().int(),
+  /** Days of the season with at least one job of this operation called off for weather. */
+  weatherDaysLost: z.number().int(),
+  /** Jobs of this operation called off for weather (a subset of jobsCalledOff). */
+  jobsCalledOffForWeather: z.number().int(),
 });
 export type OperationSeason = z.infer<typeof operationSeason>;
 
@@ -103,6 +107,9 @@ export const seasonTotals = z.object({
   acresPerHour: maybe,
   jobsFinished: z.number().int(),
   jobsCalledOff: z.number().int(),
+  /** Days with at least one job called off for weather, whatever the operation (a day counts once). */
+  weatherDaysLost: z.number().int(),
+  jobsCalledOffForWeather: z.number().int(),
   fieldsWorked: z.number().int(),
 });
 

@@ -104,6 +104,21 @@ const JOBS: JobFx[] = [
     hours: null,
     meter: null,
   },
+  // Rained off the same day on another field: a second job, the same day lost.
+  {
+    key: 'n-harrow-off',
+    day: '2026-04-22',
+    field: 'north',
+    operation: 'harrowing',
+    operator: 'second',
+    machine: 'tractor',
+    implement: 'harrow',
+    state: 'called-off',
+    acresPlanned: 20,
+    acres: null,
+    hours: null,
+    meter: null,
+  },
   {
     key: 'h-harrow',
     day: '2026-04-28',
@@ -257,6 +272,8 @@ const addDays = (day: string, n: number) => new Date(Date.parse(`${day}T00:00:00
 
 function expected(jobs: JobFx[], people: Record<JobFx['operator'], { id: number; name: string }>) {
   const done = jobs.filter((j) => j.state === 'finished' && j.day.startsWith(`${YEAR}-`));
+  // Every called-off job of the fixture was called off for weather.
+  const rainedOff = jobs.filter((j) => j.state === 'called-off' && j.day.startsWith(`${YEAR}-`));
   const operations = OPERATIONS.map((op) => {
     const jobsOf = done.filter((j) => j.operation === op);
     const farmDoes = fleetDoes(op) || jobsOf.length > 0;
@@ -283,7 +300,9 @@ function expected(jobs: JobFx[], people: Record<JobFx['operator'], { id: number;
       plannedAcresPerHour: plannedHours ? acresWithPlan / plannedHours : null,
       progress: acresPlanned > 0 ? Math.min(1, covered / acresPlanned) : 0,
       jobsFinished: jobsOf.length,
-      jobsCalledOff: jobs.filter((j) => j.state === 'called-off' && j.operation === op && j.day.startsWith(`${YEAR}-`)).length,
+      jobsCalledOff: rainedOff.filter((j) => j.operation === op).length,
+      weatherDaysLost: new Set(rainedOff.filter((j) => j.operation === op).map((j) => j.day)).size,
+      jobsCalledOffForWeather: rainedOff.filter((j) => j.operation === op).length,
     };
   });
 
@@ -357,7 +376,9 @@ function expected(jobs: JobFx[], people: Record<JobFx['operator'], { id: number;
     engineHours: sum(done.map(meterHours)),
     acresPerHour: acres / hours,
     jobsFinished: done.length,
-    jobsCalledOff: jobs.filter((j) => j.state === 'called-off' && j.day.startsWith(`${YEAR}-`)).length,
+    jobsCalledOff: rainedOff.length,
+    weatherDaysLost: new Set(rainedOff.map((j) => j.day)).size,
+    jobsCalledOffForWeather: rainedOff.length,
     fieldsWorked: new Set(done.map((j) => j.field)).size,
   };
   return { operations, weekly, byField, byPerson, byMachine, totals };
@@ -458,6 +479,8 @@ const OPERATIONS_HEADER = [
   'engine_hours',
   'jobs_finished',
   'jobs_called_off',
+  'weather_days_lost',
+  'jobs_called_off_for_weather',
 ];
 
 const LABEL: Record<Operation, string> = {
@@ -543,6 +566,9 @@ describe('season report', () => {
         })
         .returning('id');
       j.id = row.id;
+      // The run sheet logs a call-off with its reason; the weather days lost read that log.
+      if (j.state === 'called-off')
+        await db('assignment_events').insert({ farm_id: farm.id, assignment_id: row.id, type: 'call-off', reason: 'weather' });
     }
     for (const p of PLANS) {
       await db('pass_plans').insert({
@@ -699,6 +725,8 @@ describe('season report', () => {
       csvNear(r.engine_hours, w.engineHours, `${w.operation} engine_hours`);
       expect(r.jobs_finished).toBe(String(w.jobsFinished));
       expect(r.jobs_called_off).toBe(String(w.jobsCalledOff));
+      expect(r.weather_days_lost).toBe(String(w.weatherDaysLost));
+      expect(r.jobs_called_off_for_weather).toBe(String(w.jobsCalledOffForWeather));
     }
 
     const fields = await csvOf(viewer, 'fields', [
@@ -867,6 +895,8 @@ describe('season report', () => {
       acresPerHour: null,
       jobsFinished: 0,
       jobsCalledOff: 0,
+      weatherDaysLost: 0,
+      jobsCalledOffForWeather: 0,
       fieldsWorked: 0,
     });
     const csv = await csvOf(viewer, 'weekly', ['operation', 'week_starting', 'acres_finished', 'cumulative_acres'], 2031);
