@@ -9,6 +9,7 @@ import {
   operationsTable,
   peopleTable,
   totalsOf,
+  weatherTable,
   weekCharts,
   weekLabel,
   type Column,
@@ -32,6 +33,8 @@ function op(operation: Operation, over: Partial<OperationSeason> = {}): Operatio
     progress: 0,
     jobsFinished: 0,
     jobsCalledOff: 0,
+    weatherDaysLost: 0,
+    jobsCalledOffForWeather: 0,
     ...over,
   };
 }
@@ -111,6 +114,8 @@ function summary(year: number, ops: Partial<Record<Operation, Partial<OperationS
       acresPerHour: 32.77,
       jobsFinished: 4,
       jobsCalledOff: 1,
+      weatherDaysLost: 0,
+      jobsCalledOffForWeather: 0,
       fieldsWorked: 2,
     },
   };
@@ -227,6 +232,30 @@ describe('season shaping', () => {
     expect(t.rows[3]['progressA']).toBeNull();
     expect(t.columns[1].label).toBe('2025 (ac)');
     expect(t.totals['change']).toBeCloseTo(S.totals.acresFinished - (90 + 12), 9);
+  });
+
+  it('when jobs were called off for weather, then each such operation is a row and the whole farm counts a shared day once', () => {
+    // Worked by hand: spraying lost 10 and 11 June (3 jobs), harrowing lost 10 June (1 job) →
+    // the farm lost 2 days, not 2 + 1; seeding's call-off was a breakdown and gets no row.
+    const s = summary(2026, {
+      spraying: { jobsCalledOff: 3, weatherDaysLost: 2, jobsCalledOffForWeather: 3 },
+      harrowing: { jobsCalledOff: 1, weatherDaysLost: 1, jobsCalledOffForWeather: 1 },
+      seeding: { jobsCalledOff: 1 },
+    });
+    s.totals = { ...s.totals, weatherDaysLost: 2, jobsCalledOffForWeather: 4 };
+    const t = weatherTable(s);
+    expect(t.columns.map((c) => c.label)).toEqual(['Operation', 'Days lost to weather', 'Jobs called off for weather']);
+    expect(t.rows).toEqual([
+      { operation: 'Harrowing', days: 1, jobs: 1 },
+      { operation: 'Spraying', days: 2, jobs: 3 },
+    ]);
+    expect(t.totals).toEqual({ operation: 'Whole farm', days: 2, jobs: 4 });
+  });
+
+  it('when nothing was called off for weather, then the weather table has no rows and an empty totals row', () => {
+    const t = weatherTable(S);
+    expect(t.rows).toEqual([]);
+    expect(t.totals).toEqual({ operation: 'Whole farm', days: null, jobs: null });
   });
 
   it('when cells are formatted, then numbers get one decimal and thousands, shares whole percent, and gaps a dash', () => {

@@ -126,6 +126,24 @@ export function operationsTable(s: SeasonSummary, system: UnitSystem): Table {
   return { columns, rows, totals: totalsOf(columns, rows) };
 }
 
+/**
+ * Weather days lost, per operation with a job called off for weather. The totals row takes the
+ * farm's count from the API: a day lost to two operations counts once there, so it is not the sum
+ * of the rows.
+ */
+export function weatherTable(s: SeasonSummary): Table {
+  const columns: Column[] = [
+    { key: 'operation', label: 'Operation', kind: 'text', total: { text: 'Whole farm' } },
+    { key: 'days', label: 'Days lost to weather', kind: 'count' },
+    { key: 'jobs', label: 'Jobs called off for weather', kind: 'count', total: { sum: true } },
+  ];
+  const rows = s.operations
+    .filter((o) => o.jobsCalledOffForWeather > 0)
+    .map((o) => ({ operation: label(o.operation), days: o.weatherDaysLost, jobs: o.jobsCalledOffForWeather }));
+  const totals = rows.length ? { ...totalsOf(columns, rows), days: s.totals.weatherDaysLost } : totalsOf(columns, rows);
+  return { columns, rows, totals };
+}
+
 /** Operations done anywhere this season, for the per-field and per-person columns. */
 const doneOperations = (s: SeasonSummary) => OPERATIONS.filter((op) => s.operations.some((o) => o.operation === op && o.acresFinished > 0));
 

@@ -35,7 +35,16 @@ const INDEX: SeasonIndex = {
   ],
 };
 
-function season(year: number, harrowAcres: number, harrowHours: number): SeasonSummary {
+function season(
+  year: number,
+  harrowAcres: number,
+  harrowHours: number,
+  rainedOff: Array<{ day: string; operation: 'harrowing' | 'spraying' }> = [],
+): SeasonSummary {
+  const lost = (op?: string) => {
+    const jobs = rainedOff.filter((j) => !op || j.operation === op);
+    return { weatherDaysLost: new Set(jobs.map((j) => j.day)).size, jobsCalledOffForWeather: jobs.length };
+  };
   return {
     year,
     operations: OPERATIONS.map((operation) => ({
@@ -51,7 +60,8 @@ function season(year: number, harrowAcres: number, harrowHours: number): SeasonS
       plannedAcresPerHour: null,
       progress: operation === 'harrowing' ? harrowAcres / 400 : 0,
       jobsFinished: operation === 'harrowing' ? 2 : 0,
-      jobsCalledOff: 0,
+      jobsCalledOff: lost(operation).jobsCalledOffForWeather,
+      ...lost(operation),
     })),
     weekly: [
       { operation: 'harrowing', week: `${year}-04-20`, acresFinished: harrowAcres / 2, cumulativeAcres: harrowAcres / 2 },
@@ -85,7 +95,8 @@ function season(year: number, harrowAcres: number, harrowHours: number): SeasonS
       engineHours: 0,
       acresPerHour: harrowAcres / harrowHours,
       jobsFinished: 2,
-      jobsCalledOff: 0,
+      jobsCalledOff: rainedOff.length,
+      ...lost(),
       fieldsWorked: 1,
     },
   };
@@ -136,8 +147,41 @@ describe('SeasonPage', () => {
     expect(text()).toContain('75 % of 400.0 ac planned covered');
     const links = [...page.querySelectorAll<HTMLAnchorElement>('a[download]')].map((a) => a.getAttribute('href'));
     expect(links).toEqual(['weekly', 'operations', 'fields', 'people', 'machines'].map((t) => `/api/season/2026/export/${t}.csv`));
-    const footer = [...page.querySelectorAll('app-season-table')][1].querySelector('tr.totals')!;
+    const footer = page.querySelector('[aria-label="Work per field"] tr.totals')!;
     expect(footer.textContent).toContain('1 fields');
+  });
+
+  it('when jobs were called off for weather, then a table shows the days lost per operation, on screen and on paper', async () => {
+    await open('us', { year: '2026' });
+    const rainedOff = [
+      { day: '2026-06-10', operation: 'spraying' as const },
+      { day: '2026-06-10', operation: 'spraying' as const },
+      { day: '2026-06-11', operation: 'spraying' as const },
+      { day: '2026-06-10', operation: 'harrowing' as const },
+    ];
+    http.expectOne('/api/season/2026/summary').flush(season(2026, 300, 10, rainedOff));
+    await fixture.whenStable();
+    const section = page.querySelector('section[aria-labelledby="weather-heading"]')!;
+    expect(section.querySelector('h2')?.textContent).toContain('Days lost to weather');
+    // Printed with the report: not hidden from paper, and sharing the page before it.
+    expect(section.closest('.no-print')).toBeNull();
+    expect(section.classList).toContain('follows');
+    const cells = (sel: string) =>
+      [...section.querySelectorAll(sel)].map((r) => [...r.querySelectorAll('td')].map((td) => td.textContent?.trim()));
+    // Worked by hand: spraying 10 and 11 June (3 jobs), harrowing 10 June; the farm lost 2 days.
+    expect(cells('tr.mat-mdc-row')).toEqual([
+      ['Harrowing', '1', '1'],
+      ['Spraying', '2', '3'],
+    ]);
+    expect(cells('tr.totals')).toEqual([['Whole farm', '2', '4']]);
+  });
+
+  it('when nothing was called off for weather, then the weather table says so', async () => {
+    await open('us', { year: '2026' });
+    http.expectOne('/api/season/2026/summary').flush(season(2026, 300, 10));
+    await fixture.whenStable();
+    const section = page.querySelector('section[aria-labelledby="weather-heading"]')!;
+    expect(section.textContent).toContain('No job was called off for weather this season.');
   });
 
   it('when the farm is metric, then areas show in hectares', async () => {

@@ -24,6 +24,7 @@ import {
   machinesTable,
   operationsTable,
   peopleTable,
+  weatherTable,
   weekCharts,
 } from '../season-shaping';
 import { SeasonTable } from '../season-table/season-table';
@@ -31,7 +32,7 @@ import { WeekChart } from '../week-chart/week-chart';
 
 /**
  * What the season added up to: progress and weekly work per operation, planned against actual
- * hours, and the work per field, person and machine; another season beside it; CSV and print.
+ * hours, the days lost to weather, and the work per field, person and machine; another season beside it; CSV and print.
  * Read-only: the owner corrects logs on the work board.
  */
 @Component({
@@ -118,6 +119,7 @@ export class SeasonPage {
     };
   });
   protected readonly operations = computed(() => (this.data() ? operationsTable(this.data()!, this.units.system()) : null));
+  protected readonly weather = computed(() => (this.data() ? weatherTable(this.data()!) : null));
   protected readonly fields = computed(() => (this.data() ? fieldsTable(this.data()!, this.units.system()) : null));
   protected readonly people = computed(() => (this.data() ? peopleTable(this.data()!, this.units.system()) : null));
   protected readonly machines = computed(() => (this.data() ? machinesTable(this.data()!, this.units.system()) : null));
