@@ -1,7 +1,8 @@
 // The season report's SQL. Every total is summed in PostgreSQL (GROUP BY, FILTER, window sums over
 // date_trunc('week')); Node only receives the grouped rows. All sections come from one statement:
 // one plan, one index-only scan of the season's jobs (migration 20261201004000), one snapshot, so
-// the sections always agree with each other even while an owner corrects a log.
+// the sections always agree with each other even while an owner corrects a log. The weather days
+// lost also read the log entries of the season's called-off jobs.
 // What counts as done, when a field is finished and what a job's engine hours are: server/jobs.
 import { OPERATIONS, type Operation } from '../../shared/operations';
 import type { Tx } from '../db/knex';
