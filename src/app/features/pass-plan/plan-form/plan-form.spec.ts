@@ -149,7 +149,7 @@ describe('PlanForm', () => {
       [...tr.querySelectorAll('th, td')].map((c) => c.textContent?.replace(/\s+/g, ' ').trim()),
     );
     expect(rows).toEqual([
-      ['90°, along an edge, auto', '18.0 h', '84', '112', 'In use'],
+      ['90° along an edge auto', '18.0 h', '84', '112', 'In use'],
       ['80.5°', '17.9 h', '97', '110', 'Use'],
     ]);
     (form.querySelector('button[aria-label="Use heading 80.5°"]') as HTMLButtonElement).click();

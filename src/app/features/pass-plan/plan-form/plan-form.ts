@@ -90,7 +90,8 @@ export class PlanForm {
   protected readonly offered = computed(() =>
     this.candidates().map((c, i) => ({
       ...c,
-      shown: roundTo(c.headingDeg, 1),
+      // 180° and 0° are the same passes; the heading box takes 0 to 179°.
+      shown: roundTo(c.headingDeg, 1) % 180,
       auto: i === 0,
       inUse: this.headingUsed() !== null && Math.abs(c.headingDeg - this.headingUsed()!) < 1e-6,
     })),
