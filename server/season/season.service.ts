@@ -20,7 +20,12 @@ import { roundTo } from '../../shared/round';
 import { yearIn } from '../../shared/calendar';
 
 /** a ÷ b to 2 decimals, or null when there is nothing to divide by. */
-const ratio = (a: number, b: number | null) => (b && b > 0 ? roundTo(a / b) : null);
+/**
+ * Figures leave the server to 4 decimals; the screens and the CSV round them once, for display.
+ * Rounding here to 2 would round twice: 19,260.149 ac → 19,260.15 → "19,260.2" on a 1-decimal screen.
+ */
+const precise = (n: number): number => roundTo(n, 4);
+const ratio = (a: number, b: number | null) => (b && b > 0 ? precise(a / b) : null);
 
 export async function seasonSummary(deps: AppDeps, farmId: number, year: number): Promise<SeasonSummary> {
   const {
@@ -46,16 +51,16 @@ export async function seasonSummary(deps: AppDeps, farmId: number, year: number)
     const plannedHours = p?.planned_hours ?? null;
     return {
       operation,
-      acresPlanned: roundTo(acresPlanned),
-      acresCovered: roundTo(p?.acres_covered ?? 0),
-      acresFinished: roundTo(acresFinished),
-      hoursLogged: roundTo(hoursLogged),
-      engineHours: roundTo(l?.engine_hours ?? 0),
-      plannedHours: plannedHours === null ? null : roundTo(plannedHours),
-      acresWithPlan: roundTo(p?.acres_with_plan ?? 0),
+      acresPlanned: precise(acresPlanned),
+      acresCovered: precise(p?.acres_covered ?? 0),
+      acresFinished: precise(acresFinished),
+      hoursLogged: precise(hoursLogged),
+      engineHours: precise(l?.engine_hours ?? 0),
+      plannedHours: plannedHours === null ? null : precise(plannedHours),
+      acresWithPlan: precise(p?.acres_with_plan ?? 0),
       acresPerHour: ratio(acresFinished, hoursLogged),
       plannedAcresPerHour: ratio(p?.acres_with_plan ?? 0, plannedHours),
-      progress: acresPlanned > 0 ? Math.min(1, roundTo((p?.acres_covered ?? 0) / acresPlanned, 4)) : 0,
+      progress: acresPlanned > 0 ? Math.min(1, precise((p?.acres_covered ?? 0) / acresPlanned)) : 0,
       jobsFinished: l?.jobs_finished ?? 0,
       jobsCalledOff: l?.jobs_called_off ?? 0,
       weatherDaysLost: weatherOf.get(operation)?.days ?? 0,
@@ -71,16 +76,16 @@ export async function seasonSummary(deps: AppDeps, farmId: number, year: number)
     weekly: weeks.map((w) => ({
       operation: w.operation,
       week: w.week,
-      acresFinished: roundTo(w.acres),
-      cumulativeAcres: roundTo(w.cumulative),
+      acresFinished: precise(w.acres),
+      cumulativeAcres: precise(w.cumulative),
     })),
     byField: byField(fields, fieldOps),
     byPerson: byPerson(personOps),
     byMachine: byMachine(machineOps),
     totals: {
-      acresFinished: roundTo(totalAcres),
-      hoursLogged: roundTo(totalHours),
-      engineHours: roundTo(logs.reduce((s, l) => s + l.engine_hours, 0)),
+      acresFinished: precise(totalAcres),
+      hoursLogged: precise(totalHours),
+      engineHours: precise(logs.reduce((s, l) => s + l.engine_hours, 0)),
       acresPerHour: ratio(totalAcres, totalHours),
       jobsFinished: logs.reduce((s, l) => s + l.jobs_finished, 0),
       jobsCalledOff: logs.reduce((s, l) => s + l.jobs_called_off, 0),
@@ -95,17 +100,17 @@ function byField(fields: repo.FieldRow[], rows: repo.FieldOperationRow[]): Field
   const out = new Map<number, FieldSeason>(
     fields.map((f) => [
       f.id,
-      { fieldId: f.id, field: f.name, crop: f.crop, acres: roundTo(f.acres), operations: {}, totalAcres: 0, totalHours: 0 },
+      { fieldId: f.id, field: f.name, crop: f.crop, acres: precise(f.acres), operations: {}, totalAcres: 0, totalHours: 0 },
     ]),
   );
   for (const r of [...rows].sort((a, b) => OPERATIONS.indexOf(a.operation) - OPERATIONS.indexOf(b.operation))) {
     const f = out.get(r.field_id);
     if (!f) continue;
-    f.operations[r.operation] = { acres: roundTo(r.acres), hours: roundTo(r.hours), dateFinished: r.date_finished };
+    f.operations[r.operation] = { acres: precise(r.acres), hours: precise(r.hours), dateFinished: r.date_finished };
     f.totalAcres += r.acres;
     f.totalHours += r.hours;
   }
-  return [...out.values()].map((f) => ({ ...f, totalAcres: roundTo(f.totalAcres), totalHours: roundTo(f.totalHours) }));
+  return [...out.values()].map((f) => ({ ...f, totalAcres: precise(f.totalAcres), totalHours: precise(f.totalHours) }));
 }
 
 function byPerson(rows: repo.PersonOperationRow[]): PersonSeason[] {
@@ -119,15 +124,15 @@ function byPerson(rows: repo.PersonOperationRow[]): PersonSeason[] {
       totalHours: 0,
       acresPerHour: null,
     };
-    p.operations[r.operation] = { acres: roundTo(r.acres), hours: roundTo(r.hours) };
+    p.operations[r.operation] = { acres: precise(r.acres), hours: precise(r.hours) };
     p.totalAcres += r.acres;
     p.totalHours += r.hours;
     out.set(r.membership_id, p);
   }
   return [...out.values()].map((p) => ({
     ...p,
-    totalAcres: roundTo(p.totalAcres),
-    totalHours: roundTo(p.totalHours),
+    totalAcres: precise(p.totalAcres),
+    totalHours: precise(p.totalHours),
     acresPerHour: ratio(p.totalAcres, p.totalHours),
   }));
 }
@@ -146,9 +151,9 @@ function byMachine(rows: repo.MachineOperationRow[]): MachineSeason[] {
     };
     m.operations.push({
       operation: r.operation as Operation,
-      acres: roundTo(r.acres),
-      hours: roundTo(r.hours),
-      engineHours: roundTo(r.engine_hours),
+      acres: precise(r.acres),
+      hours: precise(r.hours),
+      engineHours: precise(r.engine_hours),
     });
     m.engineHours += r.engine_hours;
     m.acres += r.acres;
@@ -157,9 +162,9 @@ function byMachine(rows: repo.MachineOperationRow[]): MachineSeason[] {
   }
   return [...out.values()].map((m) => ({
     ...m,
-    engineHours: roundTo(m.engineHours),
-    acres: roundTo(m.acres),
-    hours: roundTo(m.hours),
+    engineHours: precise(m.engineHours),
+    acres: precise(m.acres),
+    hours: precise(m.hours),
     acresPerEngineHour: ratio(m.acres, m.engineHours),
   }));
 }
@@ -169,7 +174,7 @@ export async function seasonIndex(deps: AppDeps, farmId: number, timeZone: strin
   const rows = await repo.seasonYears(deps.db, farmId);
   const current = yearIn(timeZone, now);
   const worked = rows.filter((r) => r.jobs > 0).map((r) => r.year);
-  const seasons = rows.map((r) => ({ year: r.year, acresFinished: roundTo(r.acres), jobs: r.jobs }));
+  const seasons = rows.map((r) => ({ year: r.year, acresFinished: precise(r.acres), jobs: r.jobs }));
   if (!seasons.some((s) => s.year === current)) seasons.push({ year: current, acresFinished: 0, jobs: 0 });
   seasons.sort((a, b) => b.year - a.year);
   return { current, latestWorked: worked.length ? Math.max(...worked) : current, seasons };
