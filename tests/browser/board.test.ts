@@ -155,9 +155,11 @@ describe('Work board and run sheet in a real browser', () => {
       await page.getByRole('status').filter({ hasText: 'Work orders sent to' }).waitFor();
       expect(await page.getByRole('status').innerText()).toContain('Tomas Reyes');
       await rig.t.flushMail();
-      const order = await rig.t.mail.waitFor((m) => m.to.includes(tomas.email) && m.text.includes('North Section'));
+      // Other files' boards (other days) may have left orders queued in the same database: this
+      // day's order links to this day's run sheet.
+      const order = await rig.t.mail.waitFor((m) => m.to.includes(tomas.email) && m.text.includes(`run-sheet?date=${day}`));
       expect(order.text).toContain('Check the seed depth after the first round');
-      await rig.t.mail.waitFor((m) => m.to.includes(milo.email) && m.text.includes('North Section'));
+      await rig.t.mail.waitFor((m) => m.to.includes(milo.email) && m.text.includes(`run-sheet?date=${day}`));
 
       await page.reload();
       await column('Tomas Reyes')
