@@ -1,19 +1,10 @@
-import { promisify } from 'node:util';
-import { gzip } from 'node:zlib';
 import { LRUCache } from 'lru-cache';
 import type { Db } from '../db/knex';
+import { jsonReading, type JsonReading } from '../http/json-reading';
 import { readBoard, type ReadBoardOptions } from './board.read';
 
-const gzipAsync = promisify(gzip);
-
-export interface BoardReading {
-  /** The board as UTF-8 JSON, ready to send. */
-  json: Buffer;
-  /** The same, gzip-compressed, for clients that accept it (every browser does). */
-  gzipped: Buffer;
-  /** Names this reading for HTTP caches: the farm, the day and the farm's revision. */
-  etag: string;
-}
+/** The board as JSON and gzip, named for HTTP caches by the farm, the day and the farm's revision. */
+export type BoardReading = JsonReading;
 
 /**
  * The work board, computed once per farm revision and day and then served from memory. A board
@@ -34,8 +25,8 @@ export class BoardCache {
       maxSize: maxBytes,
       sizeCalculation: (r) => r.json.length + r.gzipped.length,
       fetchMethod: async (key, _stale, { context }) => {
-        const json = Buffer.from(JSON.stringify(await readBoard(this.db, context.farmId, context.day, publicUrl, options)));
-        return { json, gzipped: await gzipAsync(json), etag: `"board-${key.replaceAll('|', '-')}"` };
+        const board = await readBoard(this.db, context.farmId, context.day, publicUrl, options);
+        return jsonReading(board, `board-${key.replaceAll('|', '-')}`);
       },
     });
   }

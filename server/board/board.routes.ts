@@ -13,6 +13,7 @@ import { principal } from '../http/session-user';
 import { body, params, query } from '../http/validate';
 import { BoardCache } from './board-cache';
 import * as board from './board.service';
+import { sendReading } from '../http/json-reading';
 import { versionOf } from './board-version';
 import { publishBoard } from './publish.service';
 
@@ -24,9 +25,7 @@ export function boardRoutes(r: Routes, deps: AppDeps): void {
   r.get('/', ['owner'], async (req, res) => {
     const by = principal(req);
     const reading = await boards.read(by.farmId, query(req, boardQuery).date, by.farmRevision);
-    res.set({ ETag: reading.etag, Vary: 'Accept-Encoding' }).type('json');
-    if (req.acceptsEncodings('gzip', 'identity') === 'gzip') res.set('Content-Encoding', 'gzip').send(reading.gzipped);
-    else res.send(reading.json);
+    sendReading(req, res, reading);
   });
   r.post('/:date/order', ['owner'], async (req, res) => {
     const { date } = params(req, boardDateParam);

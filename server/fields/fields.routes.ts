@@ -1,3 +1,4 @@
+import { LRUCache } from 'lru-cache';
 import type { Request } from 'express';
 import multer from 'multer';
 import { idParam } from '../../shared/schemas/common';
@@ -19,6 +20,7 @@ import { MAX_UPLOAD_BYTES } from '../../shared/limits';
 import type { AppDeps } from '../app-deps';
 import { heavyWork } from '../http/heavy';
 import { AppError } from '../http/errors';
+import { jsonReading, sendReading, type JsonReading } from '../http/json-reading';
 import type { Routes } from '../http/routes';
 import { principal } from '../http/session-user';
 import { body, params, query } from '../http/validate';
@@ -37,8 +39,20 @@ export function fieldRoutes(r: Routes, deps: AppDeps): void {
   // Boundary checks and file imports run in a compute worker.
   const imports = heavyWork(60);
   const boundaryWrites = heavyWork(120);
+  // The list is computed once per farm revision and season (every field, crop plan, hazard and
+  // job write moves the revision) and sent gzip-compressed with an ETag, as the board is: 200
+  // fields are 52 KB of JSON that took a query and their serialising on every request.
+  const lists = new LRUCache<string, JsonReading, { farmId: number; season: number }>({
+    maxSize: 32 * 1024 * 1024,
+    sizeCalculation: (r) => r.json.length + r.gzipped.length,
+    fetchMethod: async (key, _stale, { context }) =>
+      jsonReading(await fields.listFields(deps, context.farmId, context.season), `fields-${key.replaceAll('|', '-')}`),
+  });
   r.get('/', 'member', async (req, res) => {
-    res.json(await fields.listFields(deps, principal(req).farmId, seasonOf(req)));
+    const by = principal(req);
+    const season = seasonOf(req);
+    const reading = await lists.fetch(`${by.farmId}|${season}|${by.farmRevision}`, { context: { farmId: by.farmId, season } });
+    sendReading(req, res, reading!);
   });
 
   r.get('/export.geojson', 'member', async (req, res) => {
