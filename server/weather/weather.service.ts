@@ -154,6 +154,45 @@ export async function changeLimits(db: Tx, farmId: number, limits: WeatherLimits
 const r2 = (n: number | null): number | null => (n === null ? null : roundTo(n, 2));
 const kmh = (ms: number | null): number | null => (ms === null ? null : roundTo(ms * 3.6, 2));
 
+/** Hours since a forecast was fetched, in words: "40 min", "2.5 h". */
+const ageText = (ageMs: number): string =>
+  ageMs < 3_600_000 ? `${Math.max(0, Math.round(ageMs / 60_000))} min` : `${roundTo(ageMs / 3_600_000, 1)} h`;
+
+/** Why a stored forecast is stale (a failure since it was fetched, or none newer for two hours), or null. */
+function staleReasonOf(fetchedAt: Date, lastFailureAt: Date | null, lastError: string | null, now: Date): string | null {
+  const ageMs = now.getTime() - fetchedAt.getTime();
+  if (lastFailureAt && lastFailureAt.getTime() > fetchedAt.getTime())
+    return `Forecast from ${ageText(ageMs)} ago: the last refresh failed (${lastError ?? 'no reason given'})`;
+  return ageMs > STALE_AFTER_MS ? `Forecast from ${ageText(ageMs)} ago: no newer forecast has arrived` : null;
+}
+
+/** A stored hour as the API gives it: the time in the farm's zone, wind in km/h, figures to 2 decimals. */
+interface StoredHourColumns {
+  temperature_c: number | null;
+  relative_humidity_pct: number | null;
+  dew_point_c: number | null;
+  precipitation_mm: number | null;
+  precipitation_probability_pct: number | null;
+  wind_speed_ms: number | null;
+  wind_gust_ms: number | null;
+  wind_direction_deg: number | null;
+  cloud_cover_pct: number | null;
+  soil_temperature_c: number | null;
+}
+const weatherHourOf = (h: StoredHourColumns, time: Date, timeZone: string): WeatherHour => ({
+  time: DateTime.fromJSDate(time, { zone: timeZone }).toISO({ suppressMilliseconds: true })!,
+  temperatureC: r2(h.temperature_c),
+  relativeHumidityPct: r2(h.relative_humidity_pct),
+  dewPointC: r2(h.dew_point_c),
+  precipitationMm: r2(h.precipitation_mm),
+  precipitationProbabilityPct: r2(h.precipitation_probability_pct),
+  windSpeedKmh: kmh(h.wind_speed_ms),
+  windGustKmh: kmh(h.wind_gust_ms),
+  windDirectionDeg: r2(h.wind_direction_deg),
+  cloudCoverPct: r2(h.cloud_cover_pct),
+  soilTemperatureC: r2(h.soil_temperature_c),
+});
+
 /**
  * A field's forecast as the screens show it: every hour of the newest stored forecast of the
  * field's point, with Delta T and each operation's verdict, times in the farm's zone. Never asks
@@ -189,27 +228,9 @@ export async function fieldForecast(
     };
   }
   const ageMs = now.getTime() - forecast.fetched_at.getTime();
-  const failedSince = !!point.last_failure_at && point.last_failure_at.getTime() > forecast.fetched_at.getTime();
-  const ageWords = ageMs < 3_600_000 ? `${Math.max(0, Math.round(ageMs / 60_000))} min` : `${roundTo(ageMs / 3_600_000, 1)} h`;
-  const staleReason = failedSince
-    ? `Forecast from ${ageWords} ago: the last refresh failed (${point.last_error ?? 'no reason given'})`
-    : ageMs > STALE_AFTER_MS
-      ? `Forecast from ${ageWords} ago: no newer forecast has arrived`
-      : null;
+  const staleReason = staleReasonOf(forecast.fetched_at, point.last_failure_at, point.last_error, now);
   const rows = await forecastHours(db, forecast.id);
-  const hours: WeatherHour[] = rows.map((h) => ({
-    time: DateTime.fromJSDate(h.time, { zone: who.timeZone }).toISO({ suppressMilliseconds: true })!,
-    temperatureC: r2(h.temperature_c),
-    relativeHumidityPct: r2(h.relative_humidity_pct),
-    dewPointC: r2(h.dew_point_c),
-    precipitationMm: r2(h.precipitation_mm),
-    precipitationProbabilityPct: r2(h.precipitation_probability_pct),
-    windSpeedKmh: kmh(h.wind_speed_ms),
-    windGustKmh: kmh(h.wind_gust_ms),
-    windDirectionDeg: r2(h.wind_direction_deg),
-    cloudCoverPct: r2(h.cloud_cover_pct),
-    soilTemperatureC: r2(h.soil_temperature_c),
-  }));
+  const hours = rows.map((h) => weatherHourOf(h, h.time, who.timeZone));
   const limits = await farmLimits(db, who.farmId);
   const judged: ForecastHour[] = hours.map((h, i) => ({
     ...h,
@@ -252,36 +273,13 @@ export interface FieldsWeather {
 }
 
 const pointKey = (latIndex: number, lonIndex: number): string => `${latIndex},${lonIndex}`;
-const ageText = (ageMs: number): string =>
-  ageMs < 3_600_000 ? `${Math.max(0, Math.round(ageMs / 60_000))} min` : `${roundTo(ageMs / 3_600_000, 1)} h`;
-
 function storedForecastOf(rows: readonly PointHourRow[], timeZone: string, now: Date): StoredForecast | null {
   const first = rows[0];
   if (!first.forecast_id || !first.fetched_at) return null;
   const fetchedAt = first.fetched_at;
   const ageMs = now.getTime() - fetchedAt.getTime();
-  // The same rule as fieldForecast's: a failure since this forecast, or no newer one for two hours.
-  const failedSince = !!first.last_failure_at && first.last_failure_at.getTime() > fetchedAt.getTime();
-  const staleReason = failedSince
-    ? `Forecast from ${ageText(ageMs)} ago: the last refresh failed (${first.last_error ?? 'no reason given'})`
-    : ageMs > STALE_AFTER_MS
-      ? `Forecast from ${ageText(ageMs)} ago: no newer forecast has arrived`
-      : null;
-  const hours: WeatherHour[] = rows
-    .filter((h) => h.time !== null)
-    .map((h) => ({
-      time: DateTime.fromJSDate(h.time!, { zone: timeZone }).toISO({ suppressMilliseconds: true })!,
-      temperatureC: r2(h.temperature_c),
-      relativeHumidityPct: r2(h.relative_humidity_pct),
-      dewPointC: r2(h.dew_point_c),
-      precipitationMm: r2(h.precipitation_mm),
-      precipitationProbabilityPct: r2(h.precipitation_probability_pct),
-      windSpeedKmh: kmh(h.wind_speed_ms),
-      windGustKmh: kmh(h.wind_gust_ms),
-      windDirectionDeg: r2(h.wind_direction_deg),
-      cloudCoverPct: r2(h.cloud_cover_pct),
-      soilTemperatureC: r2(h.soil_temperature_c),
-    }));
+  const staleReason = staleReasonOf(fetchedAt, first.last_failure_at, first.last_error, now);
+  const hours = rows.filter((h) => h.time !== null).map((h) => weatherHourOf(h, h.time!, timeZone));
   return {
     fetchedAt,
     ageMinutes: Math.max(0, Math.floor(ageMs / 60_000)),
