@@ -3,19 +3,9 @@
 // acres done and left; after publishing, the column says what changed.
 import path from 'node:path';
 import type { Board } from '../../shared/schemas/board';
-import { demo, screenshot, seriousViolations, signIn, startRig, type BrowserRig } from '../support/browser';
+import { demo, screenshot, seriousViolations, signIn, startRig, type BrowserRig, freeBoardDay } from '../support/browser';
 
 const STORY_MS = 180_000;
-
-/** A far-future day no board of any farm has yet: this test's own. */
-async function freeDay(rig: BrowserRig): Promise<string> {
-  for (let i = 0; i < 50; i++) {
-    const day = `${2040 + Math.floor(Math.random() * 55)}-${String(1 + Math.floor(Math.random() * 12)).padStart(2, '0')}-${String(1 + Math.floor(Math.random() * 28)).padStart(2, '0')}`;
-    const [jobs, days] = await Promise.all([rig.t.db('assignments').where({ day }).first(), rig.t.db('board_days').where({ day }).first()]);
-    if (!jobs && !days) return day;
-  }
-  throw new Error('no free board day found');
-}
 
 describe('Work board without surprises in a real browser', () => {
   let rig: BrowserRig;
@@ -27,7 +17,7 @@ describe('Work board without surprises in a real browser', () => {
     const farm = await rig.t.db('farms').where({ name: 'Tamarack Ridge Farm' }).orderBy('id', 'desc').first();
     if (!farm) throw new Error('The demo farm is missing: run scripts/prepare-db.ts --reset-demo on the test database');
     farmId = farm.id;
-    day = await freeDay(rig);
+    day = await freeBoardDay(rig);
   });
   afterAll(async () => {
     if (farmId && day) {

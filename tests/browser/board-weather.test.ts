@@ -5,19 +5,9 @@
 import path from 'node:path';
 import type { Board } from '../../shared/schemas/board';
 import { refreshFarmWeather } from '../../server/weather/weather.service';
-import { demo, screenshot, seriousViolations, signIn, startRig, type BrowserRig } from '../support/browser';
+import { demo, screenshot, seriousViolations, signIn, startRig, type BrowserRig, freeBoardDay } from '../support/browser';
 
 const STORY_MS = 180_000;
-
-/** A far-future day in May no board of any farm has yet: this test's own. */
-async function freeDay(rig: BrowserRig): Promise<string> {
-  for (let i = 0; i < 50; i++) {
-    const day = `${2040 + Math.floor(Math.random() * 55)}-05-${String(1 + Math.floor(Math.random() * 28)).padStart(2, '0')}`;
-    const [jobs, days] = await Promise.all([rig.t.db('assignments').where({ day }).first(), rig.t.db('board_days').where({ day }).first()]);
-    if (!jobs && !days) return day;
-  }
-  throw new Error('no free board day found');
-}
 
 describe('Work board weather in a real browser', () => {
   let rig: BrowserRig;
@@ -29,7 +19,7 @@ describe('Work board weather in a real browser', () => {
     const farm = await rig.t.db('farms').where({ name: 'Tamarack Ridge Farm' }).orderBy('id', 'desc').first();
     if (!farm) throw new Error('The demo farm is missing: run scripts/prepare-db.ts --reset-demo on the test database');
     farmId = farm.id;
-    day = await freeDay(rig);
+    day = await freeBoardDay(rig);
   });
   afterAll(async () => {
     if (farmId && day) {

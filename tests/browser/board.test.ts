@@ -1,25 +1,9 @@
 import type { Locator, Page } from 'playwright-core';
-import { demo, screenshot, seriousViolations, signIn, startRig, type BrowserRig } from '../support/browser';
+import { demo, screenshot, seriousViolations, signIn, startRig, type BrowserRig, freeBoardDay } from '../support/browser';
 
 const PHONE = { width: 390, height: 844 };
 /** Each story drives many screens and two axe runs; the machine may be shared with other suites. */
 const STORY_MS = 180_000;
-
-/**
- * A day far ahead that no board of any farm has yet, so this run builds its own board and leaves
- * the demo farm's tomorrow alone.
- */
-async function freeDay(rig: BrowserRig): Promise<string> {
-  for (let i = 0; i < 50; i++) {
-    const year = 2040 + Math.floor(Math.random() * 55);
-    const month = 1 + Math.floor(Math.random() * 12);
-    const date = 1 + Math.floor(Math.random() * 28);
-    const day = `${year}-${String(month).padStart(2, '0')}-${String(date).padStart(2, '0')}`;
-    const [jobs, days] = await Promise.all([rig.t.db('assignments').where({ day }).first(), rig.t.db('board_days').where({ day }).first()]);
-    if (!jobs && !days) return day;
-  }
-  throw new Error('no free board day found');
-}
 
 async function pick(page: Page, root: Locator, label: string, option: string | RegExp): Promise<void> {
   await root.getByRole('combobox', { name: label }).click();
@@ -60,7 +44,7 @@ describe('Work board and run sheet in a real browser', () => {
     const farm = await rig.t.db('farms').where({ name: 'Tamarack Ridge Farm' }).orderBy('id', 'desc').first();
     const fleet = farm ? await rig.t.db('machines').where({ farm_id: farm.id }).first() : null;
     if (!fleet) throw new Error('The demo farm has no fleet: run scripts/prepare-db.ts --reset-demo on the test database');
-    day = await freeDay(rig);
+    day = await freeBoardDay(rig);
   });
   afterAll(async () => {
     // The far-future day was this test's own: take its jobs off the demo farm so other screens'

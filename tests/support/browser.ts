@@ -88,3 +88,19 @@ export async function seriousViolations(page: Page): Promise<string[]> {
     .filter((v) => v.impact === 'serious' || v.impact === 'critical')
     .map((v) => `${v.id}: ${v.help} (${v.nodes.map((n) => n.target.join(' ')).join(', ')})`);
 }
+
+/**
+ * A day far ahead that no board of any farm has yet, so a test builds its own board and leaves
+ * the demo farm's days alone.
+ */
+export async function freeBoardDay(rig: BrowserRig): Promise<string> {
+  for (let i = 0; i < 50; i++) {
+    const year = 2040 + Math.floor(Math.random() * 55);
+    const month = 1 + Math.floor(Math.random() * 12);
+    const date = 1 + Math.floor(Math.random() * 28);
+    const day = `${year}-${String(month).padStart(2, '0')}-${String(date).padStart(2, '0')}`;
+    const [jobs, days] = await Promise.all([rig.t.db('assignments').where({ day }).first(), rig.t.db('board_days').where({ day }).first()]);
+    if (!jobs && !days) return day;
+  }
+  throw new Error('no free board day found');
+}
