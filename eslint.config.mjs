@@ -118,6 +118,23 @@ export default tseslint.config(
       '@typescript-eslint/no-misused-promises': 'error',
     },
   },
+  // One way to show a number: every figure a person reads is written by shared/figures.ts (or the
+  // money and file-size formatters beside it). toFixed rounds the binary double (822.65 → "822.6")
+  // and a hand-made figure drifts from the same figure elsewhere (55.18 h on one screen, 55.2 h on
+  // another). scripts/lint-rules.spec.ts shows the rule fires.
+  {
+    files: ['src/**/*.ts', 'server/**/*.ts', 'shared/**/*.ts'],
+    ignores: ['shared/figures.ts', '**/*.spec.ts'],
+    rules: {
+      'no-restricted-syntax': [
+        'error',
+        {
+          selector: "CallExpression[callee.property.name='toFixed']",
+          message: 'Write figures with shared/figures.ts (figure, formatAcres, formatHours, formatWind …), not toFixed.',
+        },
+      ],
+    },
+  },
   {
     files: ['src/**/*.html'],
     extends: [...angular.configs.templateRecommended, ...angular.configs.templateAccessibility],

@@ -33,6 +33,16 @@ const PROBES: Array<{ file: string; code: string; rule: RegExp }> = [
     rule: /module source "knex"/,
   },
   {
+    file: 'server/board/lint-probe-figure.ts',
+    code: 'export const probe = (acres: number): string => `${acres.toFixed(1)} ac`;\n',
+    rule: /no-restricted-syntax: Write figures with shared\/figures\.ts/,
+  },
+  {
+    file: 'src/app/features/board/lint-probe-figure.ts',
+    code: 'export const probe = (hours: number): string => `${hours.toFixed(2)} h`;\n',
+    rule: /no-restricted-syntax: Write figures with shared\/figures\.ts/,
+  },
+  {
     file: 'server/crew/lint-probe-promise.ts',
     code: 'async function later(): Promise<void> {}\nexport function probe(): void {\n  later();\n}\n',
     rule: /no-floating-promises/,
@@ -40,7 +50,7 @@ const PROBES: Array<{ file: string; code: string; rule: RegExp }> = [
 ];
 
 describe('the lint rules of the architecture', () => {
-  it('when a file breaks a boundary, the knex rule or the promise rules, then eslint fails and names it', () => {
+  it('when a file breaks a boundary, the knex rule, the promise rules or writes a figure with toFixed, then eslint fails and names it', () => {
     for (const p of PROBES) fs.writeFileSync(path.join(root, p.file), p.code);
     let out = '';
     try {
@@ -61,4 +71,26 @@ describe('the lint rules of the architecture', () => {
       expect({ file: p.file, said }).toEqual({ file: p.file, said: expect.stringMatching(p.rule) });
     }
   }, 180_000);
+});
+
+describe('figures in templates', () => {
+  // Templates are not linted by ESTree selectors: a plain scan keeps toFixed and Angular's number
+  // pipe (its own rounding and digits) out of them, so a figure in a template comes from shared/figures.ts.
+  it('when the app templates are read, then none writes a figure with toFixed or the number pipe', () => {
+    const found: string[] = [];
+    const walk = (dir: string): void => {
+      for (const e of fs.readdirSync(dir, { withFileTypes: true })) {
+        const p = path.join(dir, e.name);
+        if (e.isDirectory()) walk(p);
+        else if (e.name.endsWith('.html'))
+          fs.readFileSync(p, 'utf8')
+            .split('\n')
+            .forEach((line, i) => {
+              if (/\.toFixed\(|\|\s*number\b/.test(line)) found.push(`${path.relative(root, p)}:${i + 1}: ${line.trim()}`);
+            });
+      }
+    };
+    walk(path.join(root, 'src'));
+    expect(found).toEqual([]);
+  });
 });

@@ -1,3 +1,5 @@
+import { figure } from './figures';
+
 /**
  * A file size as a farmer reads it, the one formatter for every screen and message: whole bytes
  * under 1 kB ("274 bytes"), then kB, MB and GB of 1,024 of the unit below (as the upload limits
@@ -17,6 +19,6 @@ export function formatFileSize(bytes: number): string {
     value /= 1024;
     i++;
   }
-  const shown = value < 9.95 ? value.toFixed(1) : Math.round(value).toLocaleString('en-US');
+  const shown = figure(value, value < 9.95 ? 1 : 0);
   return `${shown} ${units[i]}`;
 }

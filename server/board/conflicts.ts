@@ -2,7 +2,7 @@
 // an implement that cannot do the job, a learner alone) block publishing; soft ones warn. A no-go
 // forecast over a card's window warns, or blocks when the owner made that operation's rule blocking.
 import { OPERATION_INFO, type Operation } from '../../shared/operations';
-import { roundTo } from '../../shared/round';
+import { formatEngineHours, formatHours } from '../../shared/figures';
 import { mayMentor, worksAlone, type BoardAssignment, type CardWeather, type Conflict } from '../../shared/schemas/board';
 import type { SkillLevel } from '../../shared/schemas/fleet';
 import { coveredHours } from '../jobs/hours';
@@ -90,14 +90,23 @@ function doubleBookings(cards: ConflictCard[]): Conflict[] {
 }
 
 /**
+ * The hours a card's weather is read over (on the board and the run sheet alike): the window the owner set (an end, with or without a
+ * start); else, when the owner set only a start, the job's own hours from it (its planned hours
+ * on, as the card shows them); null for a job with no time set, read over the farm's working day.
+ * A start alone is a time the operator was given: the run sheet shows that job's hours, so its
+ * weather must cover them, not the whole working day.
+ */
+export const weatherWindowOf = (card: Pick<ConflictCard, 'a' | 'start' | 'end' | 'window'>): { start: number; end: number } | null =>
+  card.window ?? (card.a.plannedStart ? { start: card.start, end: card.end } : null);
+
+/**
  * What to say of a card whose planned hours do not fit the window the owner set, naming both; null
  * when they fit. The board's warning and the work order say the same.
  */
 export function windowWarning(c: Pick<ConflictCard, 'a' | 'window'>): string | null {
   if (c.a.fitsWindow || !c.window) return null;
-  const h = (n: number) => `${roundTo(n, 1)} h`;
   const { start, end } = c.window;
-  return `Planned ${h(c.a.planHours)} does not fit ${formatMinutes(start)}–${formatMinutes(end)} (${h((end - start) / 60)})`;
+  return `Planned ${formatHours(c.a.planHours)} does not fit ${formatMinutes(start)}–${formatMinutes(end)} (${formatHours((end - start) / 60)})`;
 }
 
 function equipment(c: ConflictCard): Conflict[] {
@@ -186,7 +195,7 @@ export function findConflicts(
       out.push({
         code: 'over_day_hours',
         severity: 'soft',
-        message: `${p.name} has ${p.hours} h planned, more than the farm's ${dayHoursLimit} h day`,
+        message: `${p.name} has ${formatHours(p.hours)} planned, more than the farm's ${formatHours(dayHoursLimit)} day`,
         assignmentIds: p.ids,
       });
     }
@@ -199,7 +208,7 @@ export function findConflicts(
     out.push({
       code: 'service_overdue',
       severity: 'soft',
-      message: `${c.a.machine.name} is ${-c.serviceDueInHours!} h past its service interval`,
+      message: `${c.a.machine.name} is ${formatEngineHours(-c.serviceDueInHours!)} past its service interval`,
       assignmentIds: list.map((x) => x.a.id),
     });
   }

@@ -4,15 +4,14 @@ import { createHash } from 'node:crypto';
 import { DateTime } from 'luxon';
 import { OPERATION_INFO, type Operation } from '../../shared/operations';
 import { HAZARD_LABELS, type HazardKind } from '../../shared/schemas/fields';
-import { mToFt } from '../../shared/units';
+import type { UnitSystem } from '../../shared/schemas/auth';
 import { windowWarning, type ConflictCard } from './conflicts';
 import type { DayContext } from './day-context';
 import { planKey } from './day-context';
-import { roundTo } from '../../shared/round';
 
 export interface OrderHazard {
   label: string;
-  clearanceFt: number;
+  /** Metres, as stored; the mail writes it in the farm's unit, whole (shared/figures.ts). */
   clearanceM: number;
   note: string | null;
   /** Reported by an operator, not yet confirmed by the owner. */
@@ -26,6 +25,7 @@ export interface OrderJob {
   /** The window the owner set when the work does not fit it; else the job's effective times. */
   start: string;
   end: string;
+  /** As the board's card has it; written by shared/figures.ts like the card. */
   acresPlanned: number;
   /** The hours the work takes (the board's planned hours). */
   hours: number;
@@ -33,7 +33,8 @@ export interface OrderJob {
   doesNotFit: string | null;
   machine: string;
   implement: string;
-  widthFt: number;
+  /** Working width in metres, as stored; the mail writes it in the farm's unit (shared/figures.ts). */
+  widthM: number;
   operator: string;
   mentor: string | null;
   hazards: OrderHazard[];
@@ -43,6 +44,8 @@ export interface OrderJob {
 
 export interface OrderContent {
   farm: string;
+  /** The farm's units: the figures of the mail read as on the board (a switch changes the order). */
+  units: UnitSystem;
   date: string;
   dateLabel: string;
   name: string;
@@ -85,15 +88,14 @@ export function orderContent(ctx: DayContext, person: { membershipId: number; na
       doesNotFit,
       machine: a.machine.name,
       implement: a.implement.name,
-      widthFt: roundTo(mToFt(a.implement.widthM), 1),
+      widthM: a.implement.widthM,
       operator: a.operator.name,
       mentor: a.mentor?.name ?? null,
       hazards: ctx.hazards
         .filter((h) => h.field_id === a.field.id)
         .map((h) => ({
           label: HAZARD_LABELS[h.kind as HazardKind] ?? h.kind,
-          clearanceFt: Math.round(mToFt(h.clearance_m)),
-          clearanceM: roundTo(h.clearance_m, 1),
+          clearanceM: h.clearance_m,
           note: h.note,
           reported: h.status === 'reported',
         })),
@@ -109,6 +111,7 @@ export function orderContent(ctx: DayContext, person: { membershipId: number; na
   });
   return {
     farm: ctx.farm.name,
+    units: ctx.farm.units,
     date: ctx.day,
     dateLabel: dateLabel(ctx.day),
     name: person.name,

@@ -1,3 +1,4 @@
+import { formatPower } from '../../shared/figures';
 import { SELF_PROPELLED, type MachineKind } from '../../shared/schemas/fleet';
 
 export interface PullMachine {
@@ -26,7 +27,7 @@ export function whyCannotPull(machine: PullMachine, implement: PullImplement): s
   if (SELF_PROPELLED.includes(machine.kind) && !named)
     return `${machine.name} is self-propelled and carries only its own header or boom, not ${implement.name}`;
   if (implement.minPowerHp != null && machine.powerHp < implement.minPowerHp) {
-    return `${machine.name} has ${machine.powerHp} hp; ${implement.name} needs at least ${implement.minPowerHp} hp`;
+    return `${machine.name} has ${formatPower(machine.powerHp)}; ${implement.name} needs at least ${formatPower(implement.minPowerHp)}`;
   }
   return null;
 }

@@ -1,5 +1,6 @@
 // The farm's tractors and self-propelled machines. The engine-hour meter only moves forward
 // through logged work; the owner may correct it here.
+import { formatEngineHours } from '../../shared/figures';
 import type { Machine, MachineInput } from '../../shared/schemas/fleet';
 import type { AppDeps } from '../app-deps';
 import { AppError, notFound } from '../http/errors';
@@ -45,7 +46,7 @@ function checkServiceReading(engineHours: number, lastService: number | null | u
     throw new AppError(
       422,
       'invalid_input',
-      `The last service (${lastService} h) cannot be later than the meter reading (${engineHours} h)`,
+      `The last service (${formatEngineHours(lastService)}) cannot be later than the meter reading (${formatEngineHours(engineHours)})`,
       { hoursAtLastService: 'Later than the meter' },
     );
   }

@@ -1,7 +1,8 @@
 // The acres left of a job's field, read from its season's finished jobs: the check on logged
 // acres, and a new card's default acres. The rules themselves are in ./progress.
 import { OPERATION_INFO, type Operation } from '../../shared/operations';
-import { roundTo } from '../../shared/round';
+import { formatArea } from '../../shared/figures';
+import type { UnitSystem } from '../../shared/schemas/auth';
 import type { Tx } from '../db/knex';
 import { getField, type DbFieldRow } from '../fields/fields.repository';
 import { AppError } from '../http/errors';
@@ -9,18 +10,22 @@ import { acresDoneOn } from './assignments.repository';
 import type { DbAssignmentRow } from './jobs.rows';
 import { acresLeft, defaultAcresPlanned, seasonOf, tooManyAcres } from './progress';
 
-/** Refuses acres beyond what is left of the field for the job's operation this season. */
-export async function checkAcres(tx: Tx, farmId: number, a: DbAssignmentRow, acres: number): Promise<void> {
+/**
+ * Refuses acres beyond what is left of the field for the job's operation this season, saying so in
+ * the farm's units (`units`): a metric farm typed hectares and reads hectares back.
+ */
+export async function checkAcres(tx: Tx, farmId: number, units: UnitSystem, a: DbAssignmentRow, acres: number): Promise<void> {
   const field = (await getField(tx, farmId, a.field_id))!;
   const done = await acresDoneOn(tx, farmId, a.field_id, a.operation, seasonOf(a.day), a.id);
   const left = acresLeft(field.acres, done);
   if (tooManyAcres(acres, left, field.acres)) {
-    const r = (n: number) => roundTo(n, 1);
+    const area = (n: number) => formatArea(n, units);
+    const what = units === 'metric' ? 'hectares' : 'acres';
     throw new AppError(
       422,
       'too_many_acres',
-      `${field.name} has ${r(left)} ac left to do for ${OPERATION_INFO[a.operation].label.toLowerCase()} this season; ${r(acres)} ac is more than that. Check the acres.`,
-      { acres: `At most ${r(left)} ac` },
+      `${field.name} has ${area(left)} left to do for ${OPERATION_INFO[a.operation].label.toLowerCase()} this season; ${area(acres)} is more than that. Check the ${what}.`,
+      { acres: `At most ${area(left)}` },
     );
   }
 }

@@ -1,3 +1,4 @@
+import { formatEngineHours } from '../../shared/figures';
 import { AppError } from '../http/errors';
 
 /** An engine-hour reading lower than one already known: the meter does not run backwards. */
@@ -5,8 +6,8 @@ export const backwards = (reading: number, known: number, what: string) =>
   new AppError(
     422,
     'engine_hours_backwards',
-    `The meter reading ${reading} h is less than ${what}, ${known} h; an engine-hour meter does not run backwards. Check the reading.`,
+    `The meter reading ${formatEngineHours(reading)} is less than ${what}, ${formatEngineHours(known)}; an engine-hour meter does not run backwards. Check the reading.`,
     {
-      engineHours: `At least ${known} h`,
+      engineHours: `At least ${formatEngineHours(known)}`,
     },
   );

@@ -1,7 +1,10 @@
 // CSV as RFC 4180 writes it: CRLF between records, a field quoted when it holds a comma, a quote or
 // a line break, quotes inside doubled. A UTF-8 byte order mark leads so spreadsheets read UTF-8.
+// Numbers are written by shared/figures.ts `csvNumber`: the screen's digits and rounding, without
+// thousands grouping, so a spreadsheet reads numbers that equal what the screen shows.
+import { csvNumber } from '../../shared/figures';
 
-/** A cell: text, a number (written with `decimals` places), or empty. */
+/** A cell: text, a number (written with its column's decimals), or empty. */
 export type Cell = string | number | null | undefined;
 
 export const BOM = '\uFEFF';
@@ -17,7 +20,7 @@ function text(s: string): string {
 
 function cell(v: Cell, decimals: number): string {
   if (v === null || v === undefined) return '';
-  if (typeof v === 'number') return Number.isFinite(v) ? v.toFixed(decimals) : '';
+  if (typeof v === 'number') return csvNumber(v, decimals);
   return text(v);
 }
 
@@ -25,11 +28,13 @@ function cell(v: Cell, decimals: number): string {
  * The whole file: header row, then the records.
  * @param columns header names, with their units (acres_finished, hours_logged…)
  * @param rows one array of cells per record, in the order of `columns`
- * @param integerColumns indexes of columns that hold counts (written without decimals)
- * @example toCsv(['field', 'acres_finished'], [['North, "old"', 12.5]]) // '\uFEFFfield,acres_finished\r\n"North, ""old""",12.50\r\n'
+ * @param decimals each column's decimals for numbers, the same as the screen shows them
+ *   (shared/figures.ts FIGURE_DECIMALS); a text column's entry is not used
+ * @example toCsv(['field', 'acres_finished'], [['North, "old"', 12.46]], [0, 1]) // BOM + 'field,acres_finished\r\n"North, ""old""",12.5\r\n'
  */
-export function toCsv(columns: readonly string[], rows: readonly Cell[][], integerColumns: readonly number[] = []): string {
+export function toCsv(columns: readonly string[], rows: readonly Cell[][], decimals: readonly number[]): string {
+  if (decimals.length !== columns.length) throw new Error(`toCsv: ${columns.length} columns but ${decimals.length} decimals`);
   const lines = [columns.map((c) => text(c)).join(',')];
-  for (const r of rows) lines.push(r.map((v, i) => cell(v, integerColumns.includes(i) ? 0 : 2)).join(','));
+  for (const r of rows) lines.push(r.map((v, i) => cell(v, decimals[i])).join(','));
   return BOM + lines.join('\r\n') + '\r\n';
 }

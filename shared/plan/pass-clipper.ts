@@ -1,5 +1,5 @@
 import { MAX_SEGMENTS } from '../limits';
-import { roundTo } from '../round';
+import { formatHeading } from '../figures';
 import type { PlanarRegion } from './planar-region';
 
 /** Segments shorter than this (m) are touches at a vertex, not passes. */
@@ -231,7 +231,7 @@ export function createPassClipper(region: PlanarRegion, widthM: number, maxSegme
     const starts = cross(us, extraU.length === 0);
     if (!starts)
       throw new Error(
-        `At heading ${roundTo(h, 1)}° the passes would break into more than ${maxSegments.toLocaleString('en-US')} segments, more than Furlong plans for one field; choose another heading or a wider working width`,
+        `At heading ${formatHeading(h, 180)} the passes would break into more than ${maxSegments.toLocaleString('en-US')} segments, more than Furlong plans for one field; choose another heading or a wider working width`,
       );
     const segT: number[] = [];
     const segLine: number[] = [];

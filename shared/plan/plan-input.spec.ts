@@ -27,10 +27,11 @@ describe('planPasses bad input', () => {
     expect(() => planPasses({ ...base, widthM })).toThrow(/^The working width must be a distance greater than zero/);
   });
 
-  it('when the width is wider than the field, then the message gives both in feet', () => {
-    // 2000 m = 6561.7 ft; the ½-mile square is at most 2640 ft × √2 = 3733.5 ft across (its diagonal).
+  it('when the width is wider than the field, then the message gives both in feet and metres, as the shared figures write them', () => {
+    // 2000 m = 6561.68 ft (1 ft = 0.3048 m, 85 FR 62698); the ½-mile square is at most 2640 ft × √2 =
+    // 3733.5 ft = 1138.0 m across (its diagonal). Widths to 0.1 ft / 0.01 m, distances whole.
     expect(() => planPasses({ ...base, widthM: 2000 })).toThrow(
-      /^The working width \(6562 ft\) is wider than field 'North Quarter' \(at most 3734 ft across\)$/,
+      /^The working width \(6,561\.7 ft \/ 2,000\.00 m\) is wider than field 'North Quarter' \(at most 3,734 ft \/ 1,138 m across\)$/,
     );
   });
 
@@ -45,7 +46,7 @@ describe('planPasses bad input', () => {
   it('when the headland leaves nothing to work, then the message says how wide it is', () => {
     // 22 passes × 60 ft = 1320 ft = 402.336 m = half the ½-mile side: nothing left inside.
     expect(() => planPasses({ ...base, headlandPasses: 22 })).toThrow(
-      "The headland (22 passes × 60 ft = 1320 ft) leaves nothing of field 'North Quarter' to work",
+      "The headland (22 passes × 60.0 ft / 18.29 m = 1,320.0 ft / 402.34 m) leaves nothing of field 'North Quarter' to work",
     );
   });
 
@@ -55,7 +56,7 @@ describe('planPasses bad input', () => {
 
   it('when headland passes, speed, turn time or coverage are out of range, then each says so', () => {
     expect(() => planPasses({ ...base, headlandPasses: 1.5 })).toThrow(/headland passes must be a whole number/);
-    expect(() => planPasses({ ...base, speedMph: 0 })).toThrow(/working speed must be above 0/);
+    expect(() => planPasses({ ...base, speedMps: 0 })).toThrow(/working speed must be above 0/);
     expect(() => planPasses({ ...base, turnSeconds: -1 })).toThrow(/time per turn/);
     expect(() => planPasses({ ...base, coverage: 'most' as never })).toThrow(/Coverage must be 'gaps-ok' or 'full'/);
   });

@@ -2,6 +2,7 @@
 // card shows what is left, the column says what changed since publishing, and mentors follow the
 // operator's skills.
 import bcrypt from 'bcryptjs';
+import { formatHours } from '../../shared/figures';
 import type { Board, BoardAssignment, Conflict, WorkOrderState } from '../../shared/schemas/board';
 import type { CaughtMail } from '../../server/mail/fake-smtp';
 import { makeFarm, type TestFarm } from '../support/farm-factory';
@@ -104,7 +105,7 @@ describe('work board: no surprises', () => {
         headland_passes: 2,
         heading_deg: 90,
         coverage: 'gaps-ok',
-        speed_mph: 7,
+        speed_mps: 3.12928, // 7 mph
         efficiency: 0.85,
         turn_seconds: 20,
         summary: JSON.stringify({ hours: 28.5, headingDeg: 90, passCount: 120 }),
@@ -136,22 +137,23 @@ describe('work board: no surprises', () => {
         {
           code: 'window_too_short',
           severity: 'soft',
-          message: 'Planned 28.5 h does not fit 08:00–12:00 (4 h): North Section harrowing',
+          message: 'Planned 28.5 h does not fit 08:00–12:00 (4.0 h): North Section harrowing',
           assignmentIds: [card.id],
         },
       ]);
       expect(b.operators.find((o) => o.membershipId === tomas)!.plannedHours).toBe(28.5);
       expect(codes(b, 'over_day_hours').map((c) => c.message)).toEqual([
-        `${farm.operator.name} has 28.5 h planned, more than the farm's ${b.dayHoursLimit} h day`,
+        `${farm.operator.name} has 28.5 h planned, more than the farm's ${formatHours(b.dayHoursLimit)} day`,
       ]);
 
       const published = await owner.post(`/api/board/${d}/publish`, { version: b.version });
       expect(published.status).toBe(200);
       await drain();
       const [order] = mailsTo(farm.operator.email, 'May 4, 2026');
-      expect(order.text).toContain('1. North Section: Harrowing, 08:00–12:00, 822.66 ac, 28.5 h planned');
-      expect(order.text).toContain('Warning: Planned 28.5 h does not fit 08:00–12:00 (4 h). Ask the owner before you start.');
-      expect(order.html).toContain('Planned 28.5 h does not fit 08:00–12:00 (4 h)');
+      // The times carry the farm's zone (CST or CDT by the day), the figures the card's decimals.
+      expect(order.text).toMatch(/1\. North Section: Harrowing, 08:00–12:00 C[SD]T, 822\.7 ac, 28\.5 h planned/);
+      expect(order.text).toContain('Warning: Planned 28.5 h does not fit 08:00–12:00 (4.0 h). Ask the owner before you start.');
+      expect(order.html).toContain('Planned 28.5 h does not fit 08:00–12:00 (4.0 h)');
 
       // Half the field: 14.25 h (the plan scaled to the acres planned), in a 15 h window: it fits.
       const half = await patch(card.id, d, { acresPlanned: 411.33, startTime: '05:00', endTime: '20:00' });
@@ -180,7 +182,7 @@ describe('work board: no surprises', () => {
         width_m: 25.6,
         headland_passes: 2,
         coverage: 'gaps-ok',
-        speed_mph: 7,
+        speed_mps: 3.12928, // 7 mph
         efficiency: 0.85,
         turn_seconds: 20,
         summary: JSON.stringify({ hours: 10 }),
@@ -188,7 +190,7 @@ describe('work board: no surprises', () => {
       const res = await add(d, { fieldId: f, operatorId: ada, endTime: '06:00' });
       const card = cardOf(res.body, res.body.savedAssignmentId);
       expect(card).toMatchObject({ startTime: '00:00', endTime: '10:00', bookedHours: 10, fitsWindow: false });
-      expect(codes(res.body, 'window_too_short')[0].message).toMatch(/^Planned 10 h does not fit 00:00–06:00 \(6 h\)/);
+      expect(codes(res.body, 'window_too_short')[0].message).toMatch(/^Planned 10\.0 h does not fit 00:00–06:00 \(6\.0 h\)/);
     });
   });
 

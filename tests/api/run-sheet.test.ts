@@ -105,7 +105,7 @@ describe('run sheet', () => {
       headland_passes: 2,
       heading_deg: null,
       coverage: 'gaps-ok',
-      speed_mph: 7,
+      speed_mps: 3.12928, // 7 mph
       efficiency: 0.85,
       turn_seconds: 20,
       summary: JSON.stringify({ hours: 2.5, headingDeg: 91, passCount: 14 }),
@@ -198,13 +198,13 @@ describe('run sheet', () => {
     const low = await event(tomasC, id, { type: 'start', engineHours: 1150 });
     expect(low.status).toBe(422);
     expect(low.body.error).toMatchObject({ code: 'engine_hours_backwards' });
-    expect(low.body.error.message).toMatch(/1150 h is less than the last reading of 4WD No. 1, 1200 h/);
+    expect(low.body.error.message).toMatch(/1,150\.0 h is less than the last reading of 4WD No\. 1, 1,200\.0 h/);
     expect((await t.db('assignments').where({ id }).first()).state).toBe('planned');
     expect(await t.db('assignment_events').where({ assignment_id: id })).toEqual([]);
     expect((await event(tomasC, id, { type: 'start', engineHours: 1210 })).status).toBe(201);
     const back = await event(tomasC, id, { type: 'finish', engineHours: 1205 });
     expect(back.status).toBe(422);
-    expect(back.body.error.message).toMatch(/less than the reading at the start of this job, 1210 h/);
+    expect(back.body.error.message).toMatch(/less than the reading at the start of this job, 1,210\.0 h/);
     expect((await t.db('assignments').where({ id }).first()).state).toBe('underway');
     const done = await event(tomasC, id, { type: 'finish', engineHours: 1216.5 });
     expect(done.body.log).toMatchObject({ engineHoursStart: 1210, engineHoursEnd: 1216.5 });
@@ -217,7 +217,19 @@ describe('run sheet', () => {
     await event(tomasC, first, { type: 'start' });
     const tooMuch = await event(tomasC, first, { type: 'finish', acres: 200 });
     expect(tooMuch.status).toBe(422);
-    expect(tooMuch.body.error.message).toMatch(/has 160 ac left to do for harrowing this season; 200 ac is more than that/);
+    // Written as every area is (shared/figures.ts): one decimal, so "160.0 ac", not "160 ac".
+    expect(tooMuch.body.error.message).toMatch(
+      /has 160\.0 ac left to do for harrowing this season; 200\.0 ac is more than that\. Check the acres\./,
+    );
+    // A metric farm reads its refusal in hectares: 160 ac = 64.7 ha, 200 ac = 80.9 ha (1 ac = 0.40468564224 ha, NIST SP 811).
+    expect((await owner.patch('/api/farm', { units: 'metric' })).status).toBe(200);
+    const inHectares = await event(tomasC, first, { type: 'finish', acres: 200 });
+    expect((await owner.patch('/api/farm', { units: 'us' })).status).toBe(200);
+    expect(inHectares.status).toBe(422);
+    expect(inHectares.body.error.message).toMatch(
+      /has 64\.7 ha left to do for harrowing this season; 80\.9 ha is more than that\. Check the hectares\./,
+    );
+    expect(inHectares.body.error.fields).toEqual({ acres: 'At most 64.7 ha' });
     await event(tomasC, first, { type: 'finish', acres: 100 });
     const rest = await add('2026-08-06', { fieldId: f });
     const b = await board('2026-08-06');

@@ -99,12 +99,12 @@ describe('work orders by e-mail', () => {
       operation: 'harrowing',
       width_m: 25.6,
       headland_passes: 2,
-      heading_deg: 92,
+      heading_deg: 87.4,
       coverage: 'gaps-ok',
-      speed_mph: 7,
+      speed_mps: 3.12928, // 7 mph
       efficiency: 0.85,
       turn_seconds: 20,
-      summary: JSON.stringify({ hours: 4, headingDeg: 92, passCount: 31 }),
+      summary: JSON.stringify({ hours: 4, headingDeg: 87.4, passCount: 31 }),
     });
     tractor = await insertMachine(t.db, farm.id, { name: '4WD No. 1' });
     tractor2 = await insertMachine(t.db, farm.id, { name: '4WD No. 2' });
@@ -128,14 +128,17 @@ describe('work orders by e-mail', () => {
     expect(mine).toHaveLength(1);
     const { text, html, subject } = mine[0];
     expect(subject).toBe(`Work order for Wednesday, July 1, 2026 (${farm.name})`);
-    expect(text.indexOf('1. North Section: Harrowing, 07:00–11:00, 640 ac')).toBeGreaterThan(0);
+    // The demo-like test farm is in America/Chicago: daylight time (CDT) in July (tz database).
+    expect(text.indexOf('1. North Section: Harrowing, 07:00–11:00 CDT, 640.0 ac')).toBeGreaterThan(0);
     expect(text.indexOf('2. Slough Quarter: Harrowing, 11:00')).toBeGreaterThan(text.indexOf('1. North Section'));
     expect(text).toContain('Machine: 4WD No. 1');
-    expect(text).toContain('Implement: 84 ft heavy harrow (84 ft)');
+    expect(text).toContain('Implement: 84 ft heavy harrow (84.0 ft)');
+    // In the farm's units, whole feet as the run sheet writes them (shared/figures.ts formatLength):
     // 10 m = 32.8 ft → 33 ft; 3 m = 9.8 ft → 10 ft (1 ft = 0.3048 m, NIST).
-    expect(text).toContain('Power pole or line: keep 33 ft (10 m) clear. Transmission line along the north edge');
-    expect(text).toContain('Rock: keep 10 ft (3 m) clear. Large rock, marked with a flag');
-    expect(text).toContain('Pass plan: heading 92°, 31 passes, 2 headland passes');
+    expect(text).toContain('Power pole or line: keep 33 ft clear. Transmission line along the north edge');
+    expect(text).toContain('Rock: keep 10 ft clear. Large rock, marked with a flag');
+    // The heading as the plan's summary and the run sheet write it (shared/figures.ts formatHeading), not rounded to whole degrees.
+    expect(text).toContain('Pass plan: heading 87.4°, 31 passes, 2 headland passes');
     expect(text).toContain('Pass plan: none saved');
     expect(text).toContain('Note: Start at the east gate');
     for (const caution of OPERATION_INFO.harrowing.cautions) expect(text).toContain(caution);

@@ -2,6 +2,7 @@
 // do not fit its window warns and the column counts its planned hours; a finished card gives the
 // acres done and left; after publishing, the column says what changed.
 import path from 'node:path';
+import { formatHours } from '../../shared/figures';
 import type { Board } from '../../shared/schemas/board';
 import { demo, screenshot, seriousViolations, signIn, startRig, type BrowserRig, freeBoardDay } from '../support/browser';
 
@@ -103,23 +104,22 @@ describe('Work board without surprises in a real browser', () => {
       const column = (name: string) => page.locator('section.column').filter({ has: page.getByRole('heading', { level: 2, name }) });
       const api: Board = await page.evaluate(async (d) => (await fetch(`/api/board?date=${d}`)).json(), day);
       const harrowing = api.assignments.find((a) => a.operation === 'harrowing')!;
-      const hours = (n: number) => `${Math.round(n * 10) / 10} h`;
 
       // Point 4: the card warns, naming the planned hours and the window, and the column counts the planned hours.
       const card = column('Tomas Reyes').locator('app-assignment-card').filter({ hasText: 'North Section' });
       await card
         .locator('.conflict-soft')
-        .filter({ hasText: `Planned ${hours(harrowing.planHours)} does not fit 08:00–10:00 (2 h)` })
+        .filter({ hasText: `Planned ${formatHours(harrowing.planHours)} does not fit 08:00–10:00 (2.0 h)` })
         .waitFor();
       expect(harrowing.planHours).toBeGreaterThan(2);
       expect((await card.locator('.time').innerText()).trim()).toBe('08:00–10:00');
-      expect(await card.locator('.planned').innerText()).toContain(hours(harrowing.planHours));
+      expect(await card.locator('.planned').innerText()).toContain(formatHours(harrowing.planHours));
       const tomasHours = api.operators.find((o) => o.membershipId === tomas)!.plannedHours;
       expect(tomasHours).toBeCloseTo(
         api.assignments.filter((a) => a.operator.membershipId === tomas).reduce((s, a) => s + a.bookedHours, 0),
         1,
       );
-      expect(await column('Tomas Reyes').locator('.hours').innerText()).toContain(`${hours(tomasHours)} planned`);
+      expect(await column('Tomas Reyes').locator('.hours').innerText()).toContain(`${formatHours(tomasHours)} planned`);
       await card.scrollIntoViewIfNeeded();
       // Element shots go beside the page shots.
       const shots = path.dirname(await screenshot(page, 'board-surprises-1-card-does-not-fit'));

@@ -7,7 +7,7 @@ const figure = (page: Page, key: string) => page.locator(`[data-key="${key}"] .v
 /** Waits until the card shows the plan for `headingDeg` and returns its pass and turn counts. */
 async function figuresAt(page: Page, headingDeg: number): Promise<string> {
   await figure(page, 'heading')
-    .filter({ hasText: new RegExp(`^${headingDeg}°$`) })
+    .filter({ hasText: new RegExp(`^${headingDeg}\\.0°$`) })
     .waitFor();
   await page.locator('app-plan-summary section[aria-busy="false"]').waitFor();
   return `${await figure(page, 'passes').innerText()} passes, ${await figure(page, 'turns').innerText()} turns`;
@@ -57,7 +57,7 @@ describe('the Pass plan screen in a real browser', () => {
     await page.getByRole('heading', { level: 1, name: 'Pass plan' }).waitFor();
     await page.getByLabel('Working width (ft)').fill('60');
     // The demo harrow works 84 ft: planning it at 60 ft is a visible warning beside the width.
-    await page.getByText('84 ft heavy harrow works 84 ft; this plan uses 60 ft.').waitFor();
+    await page.getByText('84 ft heavy harrow works 84.0 ft; this plan uses 60.0 ft.').waitFor();
     await screenshot(page, 'pass-plan-width-warning');
     // Auto offers its best headings with their time, passes and turns; the first is along an edge.
     const offered = page.getByRole('table', { name: 'Best headings' });
@@ -120,9 +120,11 @@ describe('the Pass plan screen in a real browser', () => {
     const settings = page.getByRole('definition').first();
     await settings.waitFor();
     const text = await page.locator('[aria-label="Plan settings"]').innerText();
-    expect(text).toContain('60 ft');
-    expect(text).toMatch(/Heading\s+0°/);
-    await figure(page, 'heading').filter({ hasText: /^0°$/ }).waitFor();
+    expect(text).toContain('60.0 ft');
+    expect(text).toMatch(/Heading\s+0\.0°/);
+    await figure(page, 'heading')
+      .filter({ hasText: /^0\.0°$/ })
+      .waitFor();
     expect(await page.getByRole('button', { name: 'Save plan' }).count()).toBe(0);
     expect(await page.getByLabel('Working width (ft)').count()).toBe(0);
     await page.getByRole('link', { name: /Download passes \(GeoJSON\)/ }).waitFor();

@@ -1,5 +1,5 @@
+import { formatHours } from '@shared/figures';
 import { dayIn } from '@shared/calendar';
-import { roundTo } from '@shared/round';
 
 /** A day as the API writes it (YYYY-MM-DD), in the browser's own calendar, not UTC. */
 export function isoDay(date: Date): string {
@@ -34,8 +34,6 @@ export const today = (timeZone?: string, now = new Date()): string => (timeZone 
 export const tomorrow = (timeZone?: string, now = new Date()): string => addDays(today(timeZone, now), 1);
 
 const LONG = new Intl.DateTimeFormat('en-US', { weekday: 'long', month: 'long', day: 'numeric', year: 'numeric' });
-const CLOCK = new Intl.DateTimeFormat('en-US', { hour: '2-digit', minute: '2-digit', hourCycle: 'h23' });
-const STAMP = new Intl.DateTimeFormat('en-US', { month: 'short', day: 'numeric', hour: '2-digit', minute: '2-digit', hourCycle: 'h23' });
 
 const SHORT = new Intl.DateTimeFormat('en-US', { weekday: 'short', month: 'long', day: 'numeric' });
 
@@ -45,11 +43,5 @@ export const shortDay = (day: string): string => SHORT.format(dateOf(day));
 /** "Thursday, May 15, 2031". */
 export const longDay = (day: string): string => LONG.format(dateOf(day));
 
-/** An ISO instant as the local clock reads it: "14:05". */
-export const clockTime = (iso: string): string => CLOCK.format(new Date(iso));
-
-/** An ISO instant with its day: "May 15, 14:05". */
-export const stampTime = (iso: string): string => STAMP.format(new Date(iso));
-
-/** Hours to one decimal, as "5.4 h". */
-export const hoursText = (hours: number): string => `${roundTo(hours, 1).toLocaleString('en-US')} h`;
+/** Hours to one decimal, as "5.4 h" or "5.0 h": the shared figure the work-order e-mail writes too. */
+export const hoursText = (hours: number): string => formatHours(hours);

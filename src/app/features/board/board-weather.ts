@@ -1,13 +1,10 @@
+import { formatAge } from '@shared/figures';
 import type { CardWeather, DayStrip } from '@shared/schemas/board';
 
 export const VERDICT_LABELS: Record<CardWeather['verdict'], string> = { go: 'Go', caution: 'Caution', 'no-go': 'No-go' };
 
-/** "20 min", "3 h", "1.5 h": a forecast's age. */
-export function ageText(minutes: number): string {
-  if (minutes < 60) return `${Math.max(0, Math.round(minutes))} min`;
-  const hours = Math.round((minutes / 60) * 10) / 10;
-  return `${hours.toLocaleString('en-US')} h`;
-}
+/** "20 min", "3.0 h", "1.5 h": a forecast's age, as the server and the run sheet write it (shared/figures.ts). */
+export const ageText = (minutes: number): string => formatAge(minutes);
 
 /**
  * A forecast's freshness as the page sees it now: stale when the server said so, or when its

@@ -5,14 +5,14 @@ describe('implement widths', () => {
   it('when 84 ft is typed on a US farm, then 25.6032 m goes to the API and comes back as 84 ft', () => {
     expect(widthToMetres(84, 'us')).toBe(25.6032);
     expect(metresToWidth(25.6032, 'us')).toBe(84);
-    expect(formatWidth(25.6032, 'us')).toBe('84 ft');
+    expect(formatWidth(25.6032, 'us')).toBe('84.0 ft');
   });
 
   it('when the farm is metric, then metres pass through and show to the centimetre', () => {
     expect(widthToMetres(18.29, 'metric')).toBe(18.29);
     expect(metresToWidth(18.288, 'metric')).toBe(18.288);
     expect(formatWidth(18.288, 'metric')).toBe('18.29 m');
-    expect(formatWidth(18.288, 'us')).toBe('60 ft');
+    expect(formatWidth(18.288, 'us')).toBe('60.0 ft');
   });
 
   it('when a width is not known, then a dash shows', () => {

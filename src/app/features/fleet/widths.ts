@@ -1,12 +1,10 @@
 import type { UnitSystem } from '@shared/schemas/auth';
 import { roundTo } from '@shared/round';
+import { formatWidth as sharedWidth } from '@shared/figures';
 import { ftToM, mToFt } from '@shared/units';
 
 // Implement widths keep more precision than the units helper's whole feet or metres: a 60 ft drill
 // is 18.288 m, and a pass plan built on "18 m" would leave a skip on every pass.
-
-const feet = new Intl.NumberFormat('en-US', { maximumFractionDigits: 1 });
-const metres = new Intl.NumberFormat('en-US', { maximumFractionDigits: 2 });
 
 /**
  * A width typed in the farm's unit, in metres for the API (exact for feet, to the micrometre).
@@ -28,11 +26,8 @@ export function metresToWidth(widthM: number, system: UnitSystem): number {
 }
 
 /**
- * A width for tables: feet to 0.1, metres to 0.01.
+ * A width for tables: feet to 0.1, metres to 0.01, as the work-order e-mail writes it (shared/figures.ts).
  * @param widthM width in metres, or null when not known
- * @example formatWidth(18.288, 'us') // '60 ft'; formatWidth(18.288, 'metric') // '18.29 m'
+ * @example formatWidth(18.288, 'us') // '60.0 ft'; formatWidth(18.288, 'metric') // '18.29 m'
  */
-export function formatWidth(widthM: number | null | undefined, system: UnitSystem): string {
-  if (widthM === null || widthM === undefined || !Number.isFinite(widthM)) return '—';
-  return system === 'metric' ? `${metres.format(widthM)} m` : `${feet.format(mToFt(widthM))} ft`;
-}
+export const formatWidth = (widthM: number | null | undefined, system: UnitSystem): string => sharedWidth(widthM, system);

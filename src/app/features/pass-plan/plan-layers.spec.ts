@@ -44,7 +44,7 @@ describe('plan layers', () => {
     const layers = planLayers(result, (m) => `${Math.round(m / 0.3048)} ft`);
     expect(layers.map((l) => l.id)).toEqual(['headland', 'unworked', 'passes']);
     const tip = layers[2].tooltip!(result.passes.features[0]);
-    expect(tip).toBe('Pass 1: 2461 ft at 90°');
+    expect(tip).toBe('Pass 1: 2461 ft at 90.0°');
   });
 
   it('when no skip is allowed and nothing overlaps, then there is no strip layer', () => {

@@ -1,5 +1,6 @@
 import type { Feature, LineString, Position } from 'geojson';
 import type { PassProperties, PlanResult } from '@shared/plan/types';
+import { formatHeading } from '@shared/figures';
 import type { MapLayer } from '../../shared/map/map-types';
 
 /**
@@ -25,7 +26,7 @@ export function planLayers(r: PlanResult, length: (m: number) => string): MapLay
     tooltip: (f: Feature) => {
       const p = f.properties as PassProperties | null;
       if (!p) return null;
-      return `Pass ${p.pass}${p.segment > 1 ? `, segment ${p.segment}` : ''}: ${length(p.lengthM)} at ${Math.round(p.headingDeg)}°`;
+      return `Pass ${p.pass}${p.segment > 1 ? `, segment ${p.segment}` : ''}: ${length(p.lengthM)} at ${formatHeading(p.headingDeg)}`;
     },
   });
   return layers;

@@ -25,7 +25,7 @@ describe('summaryRows', () => {
     expect(rows['capacity']).toMatchObject({ label: 'Acres per hour', value: '51.5 ac/h' });
     expect(rows['capacity'].note).toBe('width (ft) × speed (mph) × field efficiency ÷ 8.25');
     expect(rows['capacity'].source).toContain('AEN-73');
-    expect(rows['heading']).toMatchObject({ value: '90°', note: 'degrees clockwise from north' });
+    expect(rows['heading']).toMatchObject({ value: '90.0°', note: 'degrees clockwise from north' });
   });
 
   it('when the farm is metric, then hectares, kilometres and ha/h (GRDC)', () => {
@@ -54,7 +54,7 @@ describe('summaryRows', () => {
     const rows = summaryRows(planResult({ hours: NaN, totalDistanceM: Infinity, fieldAcres: NaN, headingDeg: NaN }), 'us', false);
     const text = rows.map((r) => `${r.value} ${r.note ?? ''}`).join(' ');
     expect(text).not.toMatch(/NaN|Infinity/);
-    expect(byKey(rows)['hours'].value).toBe('— h');
+    expect(byKey(rows)['hours'].value).toBe('—');
     expect(formatDistance(NaN, 'metric')).toBe('—');
   });
 });

@@ -1,6 +1,7 @@
 import type { PlanResult } from '@shared/plan/types';
 import type { UnitSystem } from '@shared/schemas/auth';
-import { MILE_M, mphToKmh } from '@shared/units';
+import { formatHeading, formatHours, formatSpeed as sharedSpeed } from '@shared/figures';
+import { MILE_M } from '@shared/units';
 import { formatArea } from '../../shared/units/units';
 
 /** One line of the plan's summary card. */
@@ -35,11 +36,8 @@ export function formatDistance(metres: number, system: UnitSystem): string {
   return system === 'metric' ? `${dec(metres / 1000)} km` : `${dec(metres / MILE_M)} mi`;
 }
 
-/** A speed given in mph, in mph or km/h. */
-export function formatSpeed(mph: number, system: UnitSystem): string {
-  if (!ok(mph)) return '—';
-  return system === 'metric' ? `${dec(mphToKmh(mph))} km/h` : `${dec(mph)} mph`;
-}
+/** A speed stored in m/s, in mph or km/h (shared/figures.ts). */
+export const formatSpeed = (mps: number, system: UnitSystem): string => sharedSpeed(mps, system);
 
 /**
  * The figures of a plan as the summary card shows them, in the farm's units. Anything that is not
@@ -80,13 +78,13 @@ export function summaryRows(r: PlanResult, system: UnitSystem, autoHeading: bool
     {
       key: 'hours',
       label: 'Hours: driving and turns',
-      value: `${dec(r.hours)} h`,
-      note: `driving every pass and headland lap at ${formatSpeed(r.speedMph, system)}, plus ${int(r.turnSeconds)} s for each of the ${int(r.turns)} turns; no stops`,
+      value: formatHours(r.hours),
+      note: `driving every pass and headland lap at ${formatSpeed(r.speedMps, system)}, plus ${int(r.turnSeconds)} s for each of the ${int(r.turns)} turns; no stops`,
     },
     {
       key: 'capacityHours',
       label: 'Hours: rule of thumb',
-      value: `${dec(r.capacityHours)} h`,
+      value: formatHours(r.capacityHours),
       note: `the field's area ÷ (width × speed × field efficiency ${int(r.efficiency * 100)} %); the efficiency allows for turns, overlap and stops to fill or unload`,
       source: CAPACITY_SOURCE[system],
     },
@@ -108,7 +106,7 @@ export function summaryRows(r: PlanResult, system: UnitSystem, autoHeading: bool
     {
       key: 'heading',
       label: 'Heading',
-      value: ok(r.headingDeg) ? `${int(r.headingDeg)}°` : '—',
+      value: formatHeading(r.headingDeg, 180),
       note: autoHeading ? 'chosen for the least field time, along an edge when nearly as fast' : 'degrees clockwise from north',
     },
   ];

@@ -17,9 +17,9 @@ describe('crop colours', () => {
 
   it('when the key is built, then each crop shows once with its count in list order, unplanned fields last', () => {
     expect(cropLegend(['canola', null, 'durum', 'Canola', 'hemp', undefined])).toEqual([
-      { label: 'durum', colour: CROP_COLOURS.durum, count: 1 },
-      { label: 'canola', colour: CROP_COLOURS.canola, count: 2 },
-      { label: 'hemp', colour: cropColour('hemp'), count: 1 },
+      { label: 'Durum', colour: CROP_COLOURS.durum, count: 1 },
+      { label: 'Canola', colour: CROP_COLOURS.canola, count: 2 },
+      { label: 'Hemp', colour: cropColour('hemp'), count: 1 },
       { label: 'Not planned', colour: null, count: 2 },
     ]);
   });

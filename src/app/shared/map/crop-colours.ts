@@ -1,3 +1,4 @@
+import { cropName } from '@shared/figures';
 import { CROPS } from '@shared/schemas/fields';
 
 /**
@@ -44,7 +45,8 @@ export function cropLegend(crops: readonly (string | null | undefined)[]): Legen
   const counts = new Map<string, number>();
   let none = 0;
   for (const crop of crops) {
-    const key = crop?.trim().toLowerCase();
+    // One entry per crop however it was typed ("Spring Wheat", "spring  wheat"), named in the one style.
+    const key = cropName(crop)?.toLowerCase();
     if (key) counts.set(key, (counts.get(key) ?? 0) + 1);
     else none++;
   }
@@ -52,7 +54,7 @@ export function cropLegend(crops: readonly (string | null | undefined)[]): Legen
   const rank = (c: string) => (order.includes(c) ? order.indexOf(c) : order.length);
   const entries: LegendEntry[] = [...counts]
     .sort(([a], [b]) => rank(a) - rank(b) || a.localeCompare(b))
-    .map(([label, count]) => ({ label, colour: cropColour(label), count }));
+    .map(([key, count]) => ({ label: cropName(key) ?? key, colour: cropColour(key), count }));
   if (none) entries.push({ label: 'Not planned', colour: null, count: none });
   return entries;
 }

@@ -1,31 +1,25 @@
 import { Injectable, computed, inject } from '@angular/core';
 import type { UnitSystem } from '@shared/schemas/auth';
 import { roundTo } from '@shared/round';
-import { acresToHa, ftToM, mToFt } from '@shared/units';
+import { formatArea as sharedArea, formatLength as sharedLength } from '@shared/figures';
+import { ftToM, mToFt } from '@shared/units';
 import { AuthStore } from '../../core/auth/auth-store';
 
-const oneDecimal = new Intl.NumberFormat('en-US', { minimumFractionDigits: 1, maximumFractionDigits: 1 });
-const whole = new Intl.NumberFormat('en-US', { maximumFractionDigits: 0 });
-
 /**
- * An area as the farm reads it: acres for US customary, hectares for metric, one decimal.
+ * An area as the farm reads it: acres for US customary, hectares for metric, one decimal; the
+ * shared figure (shared/figures.ts) that e-mails and CSV files use too.
  * @param acres area in acres
  * @example formatArea(159.64, 'us') // '159.6 ac'
  */
-export function formatArea(acres: number | null | undefined, system: UnitSystem): string {
-  if (acres === null || acres === undefined || !Number.isFinite(acres)) return '—';
-  return system === 'metric' ? `${oneDecimal.format(acresToHa(acres))} ha` : `${oneDecimal.format(acres)} ac`;
-}
+export const formatArea = (acres: number | null | undefined, system: UnitSystem): string => sharedArea(acres, system);
 
 /**
- * A length (clearances, widths) in feet or metres, whole units.
+ * A length on the ground (a hazard's clearance) in whole feet or metres: the shared figure
+ * (shared/figures.ts) that the work-order e-mail uses too.
  * @param metres length in metres, as the API stores it
  * @example formatLength(30.48, 'us') // '100 ft'
  */
-export function formatLength(metres: number | null | undefined, system: UnitSystem): string {
-  if (metres === null || metres === undefined || !Number.isFinite(metres)) return '—';
-  return system === 'metric' ? `${whole.format(metres)} m` : `${whole.format(mToFt(metres))} ft`;
-}
+export const formatLength = (metres: number | null | undefined, system: UnitSystem): string => sharedLength(metres, system);
 
 /** A length typed in the farm's unit (ft or m), in metres for the API, rounded to the centimetre. */
 export function lengthToMetres(value: number, system: UnitSystem): number {

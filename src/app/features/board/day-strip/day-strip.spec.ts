@@ -27,21 +27,21 @@ describe('DayStrip', () => {
   it('when the farm uses US units, then each hour shows °F, mph and inches (NIST SP 811: °F = 1.8 °C + 32, 1 mi = 1.609344 km, 1 in = 25.4 mm)', () => {
     const el = show('us');
     expect([...el.querySelectorAll('thead th[scope="col"]')].map((th) => th.textContent?.trim())).toEqual(['07', '08', '09']);
-    // 10 °C = 50 °F; 12.5 °C = 54.5 → 55 °F; 15 °C = 59 °F.
-    expect(row(el, 'temp')).toEqual(['50°', '55°', '59°']);
-    // 8 km/h = 4.97 → 5 mph; 12 km/h = 7.46 → 7 mph; 30 km/h = 18.64 → 19 mph.
-    expect(row(el, 'wind')).toEqual(['5', '7', '19']);
-    // 2.54 mm = 0.1 in.
-    expect(row(el, 'rain')).toEqual(['0', '0', '0.1']);
-    expect(el.querySelector('tr.wind td.windy')?.textContent?.trim()).toBe('19');
-    expect(el.querySelector('tr.rain td.wet')?.textContent?.trim()).toBe('0.1');
+    // 10 °C = 50 °F; 12.5 °C = 54.5 °F; 15 °C = 59 °F.
+    expect(row(el, 'temp')).toEqual(['50.0', '54.5', '59.0']);
+    // 8 km/h = 4.97 mph; 12 km/h = 7.46 mph; 30 km/h = 18.64 mph; 45 km/h = 27.96 mph.
+    expect(row(el, 'wind')).toEqual(['5.0', '7.5', '18.6']);
+    // 2.54 mm = 0.1 in, to the hundredth as every rain figure in inches.
+    expect(row(el, 'rain')).toEqual(['0.00', '0.00', '0.10']);
+    expect(el.querySelector('tr.wind td.windy')?.textContent?.trim()).toBe('18.6');
+    expect(el.querySelector('tr.rain td.wet')?.textContent?.trim()).toBe('0.10');
   });
 
   it('when the farm uses metric units, then °C, km/h and mm', () => {
     const el = show('metric');
-    expect(row(el, 'temp')).toEqual(['10°', '13°', '15°']);
-    expect(row(el, 'wind')).toEqual(['8', '12', '30']);
-    expect(row(el, 'rain')).toEqual(['0', '0', '2.5']);
+    expect(row(el, 'temp')).toEqual(['10.0', '12.5', '15.0']);
+    expect(row(el, 'wind')).toEqual(['8.0', '12.0', '30.0']);
+    expect(row(el, 'rain')).toEqual(['0.0', '0.0', '2.5']);
   });
 
   it('when read by a screen reader, then the table has a caption with the units and the point, row and column headers, and each hour in words', () => {
@@ -55,7 +55,7 @@ describe('DayStrip', () => {
       'Rain in',
     ]);
     expect(el.querySelectorAll('thead th[scope="col"]')[2].getAttribute('title')).toBe(
-      '09:00, 59 °F, wind 19 mph, gusts 28, rain 0.1 in, 80 % chance',
+      '09:00, 59.0 °F, wind 18.6 mph, gusts 28.0 mph, rain 0.10 in, 80 % chance',
     );
     expect(el.querySelector('.scroller')?.getAttribute('tabindex')).toBe('0');
   });
@@ -67,12 +67,12 @@ describe('DayStrip', () => {
         basis: 'first-field',
         fieldName: 'Home Quarter',
         stale: true,
-        staleReason: 'Forecast from 3 h ago: no newer forecast has arrived',
+        staleReason: 'Forecast from 3.0 h ago: no newer forecast has arrived',
       }),
     );
     expect(el.querySelector('.strip-head')?.textContent?.replace(/\s+/g, ' ')).toContain("at Home Quarter, the farm's first field");
     expect(el.querySelector('.age.stale-forecast')?.textContent?.trim()).toBe(
-      'Stale: Forecast from 3 h ago: no newer forecast has arrived',
+      'Stale: Forecast from 3.0 h ago: no newer forecast has arrived',
     );
   });
 
@@ -88,7 +88,7 @@ describe('DayStrip', () => {
       },
       'metric',
     );
-    expect(cell).toMatchObject({ temperature: '–', wind: '–', rain: '–', windy: false, wet: false });
+    expect(cell).toMatchObject({ temperature: '—', wind: '—', rain: '—', windy: false, wet: false });
     expect(cell.words).toBe('12:00, no temperature, no wind forecast, no rain forecast');
   });
 });

@@ -1,7 +1,7 @@
 import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
 import type { DayStrip as DayStripData, StripHour } from '@shared/schemas/board';
 import type { UnitSystem } from '@shared/schemas/auth';
-import { cToF, kmhToMph, mmToIn } from '@shared/units';
+import { formatPercent, formatRain, formatTemperature, formatWind, weatherNumber, weatherUnit } from '@shared/figures';
 import { DEFAULT_LIMITS } from '@shared/weather/limits';
 import { Units } from '../../../shared/units/units';
 import { freshness } from '../board-weather';
@@ -17,30 +17,30 @@ export interface StripCell {
   wet: boolean;
 }
 
-const dash = '–';
-
-/** One hour as the strip shows it, in the farm's units. */
+/**
+ * One hour as the strip shows it, in the farm's units: bare numbers under a header that names the
+ * unit, with the digits every weather figure has (shared/figures.ts), so the strip reads as the
+ * card's reasons and the run sheet do.
+ */
 export function stripCell(h: StripHour, units: UnitSystem): StripCell {
-  const us = units === 'us';
-  const temp = h.temperatureC === null ? null : Math.round(us ? cToF(h.temperatureC) : h.temperatureC);
-  const wind = h.windSpeedKmh === null ? null : Math.round(us ? kmhToMph(h.windSpeedKmh) : h.windSpeedKmh);
-  const gust = h.windGustKmh === null ? null : Math.round(us ? kmhToMph(h.windGustKmh) : h.windGustKmh);
-  const rain =
-    h.precipitationMm === null ? null : us ? Math.round(mmToIn(h.precipitationMm) * 100) / 100 : Math.round(h.precipitationMm * 10) / 10;
-  const speed = us ? 'mph' : 'km/h';
-  const depth = us ? 'in' : 'mm';
-  const chance = h.precipitationProbabilityPct === null ? '' : `, ${Math.round(h.precipitationProbabilityPct)} % chance`;
+  const chance = h.precipitationProbabilityPct === null ? '' : `, ${formatPercent(h.precipitationProbabilityPct)} chance`;
   const words = [
     h.time,
-    temp === null ? 'no temperature' : `${temp} °${us ? 'F' : 'C'}`,
-    wind === null ? 'no wind forecast' : `wind ${wind} ${speed}${gust === null ? '' : `, gusts ${gust}`}`,
-    rain === null ? 'no rain forecast' : rain > 0 ? `rain ${rain} ${depth}${chance}` : `no rain${chance}`,
+    h.temperatureC === null ? 'no temperature' : formatTemperature(h.temperatureC, units),
+    h.windSpeedKmh === null
+      ? 'no wind forecast'
+      : `wind ${formatWind(h.windSpeedKmh, units)}${h.windGustKmh === null ? '' : `, gusts ${formatWind(h.windGustKmh, units)}`}`,
+    h.precipitationMm === null
+      ? 'no rain forecast'
+      : h.precipitationMm > 0
+        ? `rain ${formatRain(h.precipitationMm, units)}${chance}`
+        : `no rain${chance}`,
   ].join(', ');
   return {
     time: h.time,
-    temperature: temp === null ? dash : `${temp}°`,
-    wind: wind === null ? dash : String(wind),
-    rain: rain === null ? dash : rain > 0 ? String(rain) : '0',
+    temperature: weatherNumber(h.temperatureC, 'temperature', units),
+    wind: weatherNumber(h.windSpeedKmh, 'wind', units),
+    rain: weatherNumber(h.precipitationMm, 'rain', units),
     words,
     // Shaded over the default spraying limit (shared/weather/limits.ts); each card is judged with the farm's own limits.
     windy: h.windSpeedKmh !== null && h.windSpeedKmh > DEFAULT_LIMITS.spraying.windMaxKmh,
@@ -64,9 +64,9 @@ export class DayStrip {
   readonly strip = input.required<DayStripData>();
 
   protected readonly cells = computed(() => this.strip().hours.map((h) => stripCell(h, this.units.system())));
-  protected readonly speedUnit = computed(() => (this.units.system() === 'us' ? 'mph' : 'km/h'));
-  protected readonly rainUnit = computed(() => (this.units.system() === 'us' ? 'in' : 'mm'));
-  protected readonly tempUnit = computed(() => (this.units.system() === 'us' ? '°F' : '°C'));
+  protected readonly speedUnit = computed(() => weatherUnit('wind', this.units.system()).unit);
+  protected readonly rainUnit = computed(() => weatherUnit('rain', this.units.system()).unit);
+  protected readonly tempUnit = computed(() => weatherUnit('temperature', this.units.system()).unit);
   protected readonly where = computed(() => {
     const s = this.strip();
     return s.basis === 'most-fields'

@@ -7,6 +7,7 @@ import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/materia
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
+import { formatPower } from '@shared/figures';
 import { OPERATION_INFO, OPERATIONS, type Operation } from '@shared/operations';
 import type { ImplementKind } from '@shared/plan/implement-defaults';
 import {
@@ -19,7 +20,7 @@ import {
   implementBody,
 } from '@shared/schemas/fleet';
 import { type Observable, startWith } from 'rxjs';
-import { applyServerErrors } from '../../../shared/forms/server-errors';
+import type { FormFields } from '../../../shared/forms/field-labels';
 import { zodValidator } from '../../../shared/forms/zod-validator';
 import { Units } from '../../../shared/units/units';
 import { problemOf } from '../control-problem';
@@ -50,11 +51,16 @@ export function operationsFor(kind: ImplementKind | null): Operation[] {
   return kind ? OPERATIONS.filter((op) => OPERATION_INFO[op].implementKinds.includes(kind)) : [];
 }
 
-/** Where the server's field names go on this form. */
-const SERVER_FIELDS: Record<string, string> = {
-  widthM: 'width',
-  transportWidthM: 'transportWidth',
-  ...Object.fromEntries(OPERATIONS.map((_, i) => [`operations.${i}`, 'operations'])),
+/** Each key of the implement's API body and the box it is typed in, by its label. */
+export const IMPLEMENT_FIELDS: FormFields = {
+  name: { control: 'name', label: 'Name' },
+  kind: { control: 'kind', label: 'Kind' },
+  widthM: { control: 'width', label: 'Working width' },
+  transportWidthM: { control: 'transportWidth', label: 'Transport width' },
+  operations: { control: 'operations', label: 'Operations it does' },
+  machineIds: { control: 'machineIds', label: 'Machines that pull or carry it' },
+  minPowerHp: { control: 'minPowerHp', label: 'Minimum power' },
+  notes: { control: 'notes', label: 'Notes' },
 };
 
 /**
@@ -95,7 +101,7 @@ export class ImplementForm {
   protected readonly kinds = IMPLEMENT_KINDS.map((kind) => ({ kind, label: IMPLEMENT_KIND_LABELS[kind] }));
   protected readonly machines = this.data.machines.map((m) => ({
     id: m.id,
-    label: `${m.name} (${MACHINE_KIND_LABELS[m.kind] ?? m.kind}, ${m.powerHp} hp)`,
+    label: `${m.name} (${MACHINE_KIND_LABELS[m.kind] ?? m.kind}, ${formatPower(m.powerHp)})`,
   }));
   protected readonly problemOf = problemOf;
 
@@ -111,7 +117,8 @@ export class ImplementForm {
     minPowerHp: new FormControl<number | null>(this.initial?.minPowerHp ?? null, { validators: [zodValidator(shape.minPowerHp)] }),
     notes: new FormControl(this.initial?.notes ?? '', { nonNullable: true, validators: [zodValidator(shape.notes)] }),
   });
-  private readonly submission = new FormSubmission(this.form, (err, form) => applyServerErrors(form, err, SERVER_FIELDS));
+  private readonly submission = new FormSubmission(this.form, IMPLEMENT_FIELDS);
+  protected readonly blocked = this.submission.blocked;
   protected readonly busy = this.submission.busy;
   protected readonly error = this.submission.error;
 

@@ -1,3 +1,4 @@
+import { formatPower } from '@shared/figures';
 import { ChangeDetectionStrategy, Component, computed, inject, input, output } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
@@ -80,5 +81,5 @@ export class ImplementsTable {
 
 function pulledBy(i: Implement, names: Map<number, string>): string {
   if (i.machineIds.length) return i.machineIds.map((id) => names.get(id) ?? `machine ${id}`).join(', ');
-  return i.minPowerHp !== null ? `Any tractor of ${i.minPowerHp} hp or more` : 'Any tractor';
+  return i.minPowerHp !== null ? `Any tractor of ${formatPower(i.minPowerHp)} or more` : 'Any tractor';
 }

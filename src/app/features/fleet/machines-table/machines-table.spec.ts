@@ -45,7 +45,7 @@ describe('MachinesTable', () => {
     ]);
     expect(serviceCell(0).querySelector('.chip.soon')?.textContent).toContain('Service due in 12 h');
     expect(serviceCell(1).querySelector('.chip')).toBeNull();
-    expect(serviceCell(1).textContent?.trim()).toBe('Service due in 150 h');
+    expect(serviceCell(1).textContent?.trim()).toBe('Service due in 150.0 h');
     expect(serviceCell(2).textContent?.trim()).toBe('No interval kept');
   });
 

@@ -1,15 +1,15 @@
-import { DecimalPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, input, output } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatTableModule } from '@angular/material/table';
+import { formatEngineHours, formatPower } from '@shared/figures';
 import { MACHINE_KIND_LABELS, type Machine } from '@shared/schemas/fleet';
 
 /** Tractors and self-propelled machines with their meters and when each falls due for service. */
 @Component({
   selector: 'app-machines-table',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [DecimalPipe, MatButtonModule, MatIconModule, MatTableModule],
+  imports: [MatButtonModule, MatIconModule, MatTableModule],
   templateUrl: './machines-table.html',
   styleUrl: './machines-table.scss',
 })
@@ -31,6 +31,9 @@ export class MachinesTable {
     'service',
     ...(this.editable() ? ['actions'] : []),
   ]);
+
+  protected readonly power = formatPower;
+  protected readonly hours = formatEngineHours;
 
   protected kindLabel(m: Machine): string {
     return MACHINE_KIND_LABELS[m.kind] ?? m.kind;

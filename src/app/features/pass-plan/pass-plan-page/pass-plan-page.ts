@@ -1,3 +1,4 @@
+import type { UnitSystem } from '@shared/schemas/auth';
 import { httpResource } from '@angular/common/http';
 import {
   ChangeDetectionStrategy,
@@ -58,6 +59,7 @@ import {
   sameAsSaved,
   settingsBody,
   settingsFromSaved,
+  settingsInUnits,
   settingsProblems,
   toPlanInput,
 } from '../plan-settings';
@@ -168,6 +170,8 @@ export class PassPlanPage implements HasUnsavedChanges {
 
   protected readonly settings = signal<PlanSettings | null>(null);
   private settingsKey: string | null = null;
+  /** The units the form's boxes are in: a switch of the farm's units converts them from the stored values. */
+  private settingsSystem: UnitSystem | null = null;
   protected readonly saving = signal(false);
   protected readonly saveError = signal<string | null>(null);
   /** The person changed a setting since the form was filled or saved. */
@@ -241,8 +245,18 @@ export class PassPlanPage implements HasUnsavedChanges {
         this.saveError.set(null);
         this.serverProblems.set({});
         this.edited.set(false);
+        this.settingsSystem = system;
         this.settings.set(saved && op ? settingsFromSaved(saved, fleet, system) : defaultSettings(op as Operation, fleet, system));
       });
+    });
+
+    // The farm's units switched while the form is open: the boxes follow, the stored figures do not move.
+    effect(() => {
+      const system = this.system();
+      const from = this.settingsSystem;
+      if (from === null || from === system) return;
+      this.settingsSystem = system;
+      untracked(() => this.settings.update((s) => (s ? settingsInUnits(s, from, system) : s)));
     });
 
     // The owner's plan follows every change of the settings (debounced in the planner).

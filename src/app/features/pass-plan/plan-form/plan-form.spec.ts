@@ -101,10 +101,11 @@ describe('PlanForm', () => {
       [...form.querySelectorAll('dt')].map((dt) => [dt.textContent?.trim(), dt.nextElementSibling?.textContent?.trim()]),
     );
     expect(rows).toMatchObject({
-      'Working width': '60 ft',
+      // As every width and speed reads (shared/figures.ts): 0.1 ft, 0.1 mph.
+      'Working width': '60.0 ft',
       Heading: '87.4° (auto: least field time, along an edge when nearly as fast)',
       Coverage: 'Gaps allowed',
-      Speed: '8 mph',
+      Speed: '8.0 mph',
     });
   });
 
@@ -113,7 +114,7 @@ describe('PlanForm', () => {
     fixture.componentRef.setInput('settings', { ...SETTINGS, implementId: 4, width: 60 });
     await fixture.whenStable();
     // 25.6032 m = 84 ft (1 ft = 0.3048 m exactly).
-    expect(form.querySelector('.width-warning')?.textContent).toContain('84 ft heavy harrow works 84 ft; this plan uses 60 ft.');
+    expect(form.querySelector('.width-warning')?.textContent).toContain('84 ft heavy harrow works 84.0 ft; this plan uses 60.0 ft.');
     fixture.componentRef.setInput('settings', { ...SETTINGS, implementId: 4, width: 84 });
     await fixture.whenStable();
     expect(form.querySelector('.width-warning')).toBeNull();
@@ -125,8 +126,8 @@ describe('PlanForm', () => {
     fixture.componentRef.setInput('savedImplement', { name: 'Borrowed harrow', widthM: 21.336 });
     await fixture.whenStable();
     const width = [...form.querySelectorAll('dt')].find((dt) => dt.textContent?.trim() === 'Working width')?.nextElementSibling;
-    expect(width?.textContent).toContain('60 ft');
-    expect(width?.textContent).toContain('Borrowed harrow works 70 ft; this plan uses 60 ft.');
+    expect(width?.textContent).toContain('60.0 ft');
+    expect(width?.textContent).toContain('Borrowed harrow works 70.0 ft; this plan uses 60.0 ft.');
   });
 
   it('when a problem is given for the heading, then the heading box is marked with it as typed', async () => {
@@ -149,7 +150,7 @@ describe('PlanForm', () => {
       [...tr.querySelectorAll('th, td')].map((c) => c.textContent?.replace(/\s+/g, ' ').trim()),
     );
     expect(rows).toEqual([
-      ['90° along an edge auto', '18.0 h', '84', '112', 'In use'],
+      ['90.0° along an edge auto', '18.0 h', '84', '112', 'In use'],
       ['80.5°', '17.9 h', '97', '110', 'Use'],
     ]);
     (form.querySelector('button[aria-label="Use heading 80.5°"]') as HTMLButtonElement).click();

@@ -1,3 +1,4 @@
+import { formatHeading, formatHours, formatSpeed, formatWidth } from '@shared/figures';
 import { ChangeDetectionStrategy, Component, computed, input, model } from '@angular/core';
 import { FormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -17,7 +18,7 @@ import { OPERATION_INFO, type CoverageRule, type Operation } from '@shared/opera
 import { COMMON_PRACTICE, DEFAULT_TURN_SECONDS, implementDefaults, type ImplementKind } from '@shared/plan/implement-defaults';
 import type { UnitSystem } from '@shared/schemas/auth';
 import { IMPLEMENT_KIND_LABELS, type Implement } from '@shared/schemas/fleet';
-import { kindDefaults, type PlanSettings, widthFromMetres } from '../plan-settings';
+import { kindDefaults, type PlanSettings, settingsFigures, widthFromMetres } from '../plan-settings';
 
 /** One-line explanations of the coverage rules. */
 export const COVERAGE_TEXT: Record<CoverageRule, { label: string; hint: string }> = {
@@ -84,14 +85,16 @@ export class PlanForm {
     const own = widthFromMetres(implement.widthM, this.system());
     // Widths are shown to 0.1 ft or 1 cm: anything closer is the same width.
     if (Math.abs(own - s.width) < (this.system() === 'metric' ? 0.005 : 0.05)) return null;
-    const unit = this.lengthUnit();
-    return `${implement.name} works ${own} ${unit}; this plan uses ${s.width} ${unit}. Passes, acres and hours are for ${s.width} ${unit}.`;
+    const plan = this.shown().width;
+    return `${implement.name} works ${formatWidth(implement.widthM, this.system())}; this plan uses ${plan}. Passes, acres and hours are for ${plan}.`;
   });
+  /** The width and speed as text, as every screen writes them (the read-only list, the width warning). */
+  protected readonly shown = computed(() => settingsFigures(this.settings(), this.system()));
   protected readonly offered = computed(() =>
     this.candidates().map((c, i) => ({
       ...c,
       // 180° and 0° are the same passes; the heading box takes 0 to 179°.
-      shown: roundTo(c.headingDeg, 1) % 180,
+      shown: formatHeading(c.headingDeg, 180),
       auto: i === 0,
       inUse: this.headingUsed() !== null && Math.abs(c.headingDeg - this.headingUsed()!) < 1e-6,
     })),
@@ -114,16 +117,18 @@ export class PlanForm {
   protected readonly defaultsText = computed(() => {
     const kind = this.settings().implementKind;
     const d = implementDefaults(kind);
-    const { speed, efficiencyPct } = kindDefaults(kind, this.system());
+    const { efficiencyPct } = kindDefaults(kind, this.system());
     return {
-      kind: `${IMPLEMENT_KIND_LABELS[kind]}: ${speed} ${this.speedUnit()}, ${efficiencyPct} % field efficiency (${d.source}).`,
+      kind: `${IMPLEMENT_KIND_LABELS[kind]}: ${formatSpeed(d.speedMps, this.system())}, ${efficiencyPct} % field efficiency (${d.source}).`,
       turn: `Seconds per turn: ${DEFAULT_TURN_SECONDS} (${COMMON_PRACTICE}).`,
     };
   });
-  protected readonly shownHeading = computed(() => {
+  /** The heading in use as a number for the box: auto's choice to 0.1° (180° is 0°), or the typed one. */
+  protected readonly headingValue = computed(() => {
     const s = this.settings();
     return s.autoHeading ? roundTo(this.headingUsed() ?? s.headingDeg, 1) % 180 : s.headingDeg;
   });
+  protected readonly shownHeading = computed(() => formatHeading(this.headingValue(), 180));
 
   protected patch(change: Partial<PlanSettings>): void {
     this.settings.update((s) => ({ ...s, ...change }));
@@ -139,6 +144,7 @@ export class PlanForm {
       implementId: implement.id,
       implementKind: implement.kind,
       width: widthFromMetres(implement.widthM, this.system()),
+      widthM: implement.widthM,
       ...kindDefaults(implement.kind, this.system()),
     });
   }
@@ -149,7 +155,7 @@ export class PlanForm {
 
   protected toggleAuto(auto: boolean): void {
     // Turning Auto off starts from the heading Auto chose, so the passes do not jump.
-    this.patch(auto ? { autoHeading: true } : { autoHeading: false, headingDeg: this.shownHeading() });
+    this.patch(auto ? { autoHeading: true } : { autoHeading: false, headingDeg: this.headingValue() });
   }
 
   protected slide(event: Event): void {
@@ -165,7 +171,7 @@ export class PlanForm {
   }
 
   protected hours(h: number): string {
-    return Number.isFinite(h) ? `${h.toFixed(1)} h` : '—';
+    return formatHours(h);
   }
 
   protected useDefaults(): void {

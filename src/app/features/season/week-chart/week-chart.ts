@@ -1,10 +1,9 @@
+import { FIGURE_DECIMALS, figure } from '@shared/figures';
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import type { ChartConfiguration } from 'chart.js';
 import { BaseChartDirective } from 'ng2-charts';
 import { CHART } from '../chart-colours';
 import { weekLabel, type WeekChart as WeekChartData } from '../season-shaping';
-
-const oneDecimal = new Intl.NumberFormat('en-US', { maximumFractionDigits: 1 });
 
 /** One operation over the weeks of the season: bars for each week's work, a line for the season to date. */
 @Component({
@@ -23,7 +22,7 @@ export class WeekChart {
   protected readonly description = computed(() => {
     const c = this.chart();
     const busiest = c.busiestWeek ? `; the busiest week began ${weekLabel(c.busiestWeek)}` : '';
-    return `${c.label}: ${oneDecimal.format(c.total)} ${this.unit()} over ${c.weeks.length} weeks from ${weekLabel(c.weeks[0])}${busiest}.`;
+    return `${c.label}: ${figure(c.total, FIGURE_DECIMALS.area)} ${this.unit()} over ${c.weeks.length} weeks from ${weekLabel(c.weeks[0])}${busiest}.`;
   });
 
   protected readonly data = computed(() => {
