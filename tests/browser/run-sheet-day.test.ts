@@ -2,12 +2,11 @@
 // so; after the first read of the day the cautions fold and the first job's Start button shows
 // without scrolling; the finish logs engine hours from the meter apart from clock time; a hazard
 // reported in the middle of the field does not hide under the field's name on the mini-map.
-import bcrypt from 'bcryptjs';
 import type { Page } from 'playwright-core';
 import { dayIn } from '../../shared/calendar';
 import { DEMO_FARM_NAME } from '../../seeds/01_demo_farm';
-import { demo, screenshot, seriousViolations, signIn, startRig, type BrowserRig } from '../support/browser';
-import { rect } from '../support/geo-fixtures';
+import { demo, screenshot, seriousViolations, signIn, startRig, type BrowserRig, openedDialog } from '../support/browser';
+import { createPhoneJob, type PhoneJob } from '../support/phone-job';
 
 const PHONE = { width: 390, height: 844 };
 
@@ -34,79 +33,30 @@ const rectOf = (page: Page, selector: string) =>
 
 describe('The run sheet on a phone in a real browser', () => {
   let rig: BrowserRig;
+  let job: PhoneJob;
   let farmId = 0;
-  let userId = 0;
   let fieldId = 0;
-  let machineId = 0;
   let day = '';
-  const tag = Math.random().toString(36).slice(2, 8);
-  const person = {
-    role: 'operator' as const,
-    name: `Wren Halloway ${tag}`,
-    email: `wren-${tag}@furlong.test`,
-    password: 'phone-morning-pw',
-  };
-  const fieldName = `Phone Test ${tag}`;
+  let tag = '';
+  let fieldName = '';
+  let person: PhoneJob['person'];
 
   beforeAll(async () => {
     rig = await startRig();
-    const db = rig.t.db;
-    const farm = await db('farms').where({ name: DEMO_FARM_NAME }).first('id', 'time_zone');
-    farmId = farm.id;
-    // A day far enough ahead that the demo farm has no board there; published, with this person's one job.
-    day = plus(dayIn(farm.time_zone), 400 + Math.floor(Math.random() * 300));
-    [{ id: userId }] = await db('users')
-      .insert({ email: person.email, name: person.name, password_hash: bcrypt.hashSync(person.password, 4) })
-      .returning('id');
-    const [{ id: membershipId }] = await db('memberships')
-      .insert({ farm_id: farmId, user_id: userId, role: 'operator', status: 'active', joined_at: db.fn.now() })
-      .returning('id');
-    // A small square field (about 80 ac) with a hazard reported at its very centre, where the name sits.
-    const boundary = rect(-97.9, 46.9, 0.0075, 0.005);
-    [{ id: fieldId }] = await db('fields')
-      .insert({ farm_id: farmId, name: fieldName, boundary: JSON.stringify(boundary), area_m2: 80 * 4046.86, acres: 80 })
-      .returning('id');
-    await db('hazards').insert({
-      farm_id: farmId,
-      field_id: fieldId,
-      kind: 'rock',
-      geometry: JSON.stringify({ type: 'Point', coordinates: [-97.9 + 0.00375, 46.9 + 0.0025] }),
-      clearance_m: 3,
-      note: 'Big rock',
-      status: 'reported',
+    const farm = await rig.t.db('farms').where({ name: DEMO_FARM_NAME }).first('time_zone');
+    // A day far enough ahead that the demo farm has no board there; published, with this person's
+    // one job on a small square field with a hazard reported at its very centre, where the name sits.
+    job = await createPhoneJob(rig, {
+      day: plus(dayIn(farm.time_zone), 400 + Math.floor(Math.random() * 300)),
+      name: 'Wren Halloway',
+      corner: [-97.9, 46.9],
+      engineHours: 2781,
+      hazard: { kind: 'rock', at: [-97.9 + 0.00375, 46.9 + 0.0025], clearanceM: 3, note: 'Big rock', status: 'reported' },
     });
-    [{ id: machineId }] = await db('machines')
-      .insert({ farm_id: farmId, name: `4WD ${tag}`, kind: 'tractor-4wd', power_hp: 400, engine_hours: 2781 })
-      .returning('id');
-    const implement = await db('implements').where({ farm_id: farmId }).whereRaw("'harrowing' = any(operations)").first('id');
-    if (!implement) throw new Error('The demo farm has no harrow: run scripts/prepare-db.ts --reset-demo');
-    await db('board_days').insert({ farm_id: farmId, day, version: 1, published_at: db.fn.now() });
-    await db('assignments').insert({
-      farm_id: farmId,
-      day,
-      field_id: fieldId,
-      operation: 'harrowing',
-      operator_id: membershipId,
-      machine_id: machineId,
-      implement_id: implement.id,
-      run_order: 1,
-      acres_planned: 80,
-    });
+    ({ farmId, fieldId, day, tag, fieldName, person } = job);
   });
   afterAll(async () => {
-    const db = rig.t.db;
-    await db('assignment_events')
-      .where({ farm_id: farmId })
-      .whereIn('assignment_id', db('assignments').where({ field_id: fieldId }).select('id'))
-      .delete();
-    await db('assignments').where({ farm_id: farmId, day }).delete();
-    await db('board_changes').where({ farm_id: farmId, day }).delete();
-    await db('board_days').where({ farm_id: farmId, day }).delete();
-    await db('hazards').where({ field_id: fieldId }).delete();
-    await db('fields').where({ id: fieldId }).delete();
-    await db('machines').where({ id: machineId }).delete();
-    await db('memberships').where({ user_id: userId }).delete();
-    await db('users').where({ id: userId }).delete();
+    await job?.remove();
     await rig.close();
   });
 
@@ -146,7 +96,7 @@ describe('The run sheet on a phone in a real browser', () => {
     await phone.goto(`/run-sheet?date=${day}`);
     const panel = phone.locator('mat-expansion-panel').filter({ hasText: fieldName });
     await panel.getByRole('button', { name: 'Report a problem' }).click();
-    const dialog = phone.getByRole('dialog');
+    const dialog = await openedDialog(phone);
     await dialog.getByRole('radio', { name: 'Breakdown' }).check();
     await dialog.getByLabel('What happened').fill(`Hydraulic hose burst ${tag}`);
     await dialog.getByRole('button', { name: 'Send report' }).click();
@@ -189,12 +139,12 @@ describe('The run sheet on a phone in a real browser', () => {
     await page.goto(`/run-sheet?date=${day}`);
     const panel = page.locator('mat-expansion-panel').filter({ hasText: fieldName });
     await panel.locator('[data-action="start"]').click();
-    let dialog = page.getByRole('dialog');
+    let dialog = await openedDialog(page);
     expect(await dialog.getByLabel('Engine hours at the start').inputValue()).toBe('2781');
     await dialog.getByRole('button', { name: 'Start' }).click();
     await dialog.waitFor({ state: 'detached' });
     await panel.locator('[data-action="finish"]').click();
-    dialog = page.getByRole('dialog');
+    dialog = await openedDialog(page);
     await dialog.getByLabel('Engine hours at the end').fill('2789.4');
     // 2789.4 − 2781 = 8.4 h: the worked example of the issue, by plain subtraction.
     await dialog.getByText('8.4 engine hours on this job').waitFor();
@@ -202,7 +152,7 @@ describe('The run sheet on a phone in a real browser', () => {
     await dialog.waitFor({ state: 'detached' });
     const engine = panel.locator('[data-total="engine-hours"] dd');
     await engine.waitFor();
-    expect((await engine.innerText()).replace(/\s+/g, ' ')).toBe('8.4 h meter 2781 → 2789.4 h');
+    expect((await engine.innerText()).replace(/\s+/g, ' ')).toBe('8.4 h meter 2,781.0 h → 2,789.4 h');
     expect(await panel.locator('[data-total="clock-time"] dd').innerText()).toMatch(/^(under a minute|1 min) /);
     expect(await panel.innerText()).not.toMatch(/Worked: 0 h/);
     await panel.locator('.log').scrollIntoViewIfNeeded();

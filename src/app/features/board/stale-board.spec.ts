@@ -1,3 +1,4 @@
+import { DateTime } from 'luxon';
 import { ApiError } from '../../core/http/api-error';
 import { describeChanges, staleBoardOf } from './stale-board';
 import { board } from './testing/board-fixtures';
@@ -23,9 +24,18 @@ describe('staleBoardOf', () => {
   });
 
   it('when changes are described, then each reads who did what, oldest first', () => {
-    const lines = describeChanges([{ ...changes[0], version: 10, summary: 'Published' }, changes[0]]);
+    const lines = describeChanges([{ ...changes[0], version: 10, summary: 'Published' }, changes[0]], 'America/Chicago');
     expect(lines).toHaveLength(2);
     expect(lines[0]).toMatch(/^\d\d:\d\d Ingrid Sorensen: Moved 1 job between operators$/);
     expect(lines[1]).toMatch(/Published$/);
+  });
+
+  it("when changes are described, then their times are the farm's clock, not the machine's", () => {
+    // luxon with IANA zone data: 19:05 UTC in May is 14:05 CDT in Chicago and 13:05 CST in Regina.
+    for (const zone of ['America/Chicago', 'America/Regina']) {
+      const expected = DateTime.fromISO(changes[0].at, { zone }).toFormat('HH:mm');
+      expect(describeChanges(changes, zone)).toEqual([`${expected} Ingrid Sorensen: Moved 1 job between operators`]);
+    }
+    expect(describeChanges(changes, 'America/Regina')[0]).toMatch(/^13:05 /);
   });
 });

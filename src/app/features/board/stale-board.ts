@@ -1,6 +1,6 @@
 import type { Board, BoardChange } from '@shared/schemas/board';
 import { ApiError } from '../../core/http/api-error';
-import { clockTime } from './board-day';
+import { farmTime } from '@shared/farm-time';
 
 export interface StaleBoard {
   message: string;
@@ -17,7 +17,10 @@ export function staleBoardOf(error: unknown): StaleBoard | null {
   return { message: error.message, changes, current };
 }
 
-/** One line per change, in plain words: "14:05 Ingrid Sorensen: Moved North Quarter harrowing to Ada". */
-export function describeChanges(changes: readonly BoardChange[]): string[] {
-  return [...changes].sort((a, b) => a.version - b.version).map((c) => `${clockTime(c.at)} ${c.by}: ${c.summary}`);
+/**
+ * One line per change, in plain words, at the farm's clock (`timeZone`):
+ * "14:05 Ingrid Sorensen: Moved North Quarter harrowing to Ada".
+ */
+export function describeChanges(changes: readonly BoardChange[], timeZone: string | undefined): string[] {
+  return [...changes].sort((a, b) => a.version - b.version).map((c) => `${farmTime(c.at, timeZone)} ${c.by}: ${c.summary}`);
 }

@@ -3,6 +3,8 @@ import { HttpTestingController, provideHttpClientTesting } from '@angular/common
 import { type ComponentFixture, TestBed } from '@angular/core/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import type { FailedJob } from '@shared/schemas/background';
+import { DateTime } from 'luxon';
+import { AuthStore } from '../../../core/auth/auth-store';
 import { errorInterceptor } from '../../../core/http/error.interceptor';
 import { BackgroundJobs } from './background-jobs';
 
@@ -32,6 +34,12 @@ describe('BackgroundJobs', () => {
       ],
     });
     httpTesting = TestBed.inject(HttpTestingController);
+    TestBed.inject(AuthStore).signedInAs({
+      user: { id: 1, email: 'o@example.test', name: 'Ingrid' },
+      farm: { id: 1, name: 'F', units: 'us', timeZone: 'America/Regina' },
+      membershipId: 1,
+      role: 'owner',
+    });
     fixture = TestBed.createComponent(BackgroundJobs);
     el = fixture.nativeElement as HTMLElement;
     fixture.detectChanges();
@@ -57,6 +65,10 @@ describe('BackgroundJobs', () => {
     expect(text).toContain('tomas@example.test');
     expect(text).toContain('after 10 attempts');
     expect(text).toContain('550 mailbox unavailable');
+    // At the farm's clock: 23:40 UTC on July 1 is 17:40 in Regina (UTC-6 all year; luxon, IANA data).
+    const gaveUp = DateTime.fromISO(JOB.failedAt, { zone: 'America/Regina' }).setLocale('en-US').toFormat('LLL d, HH:mm');
+    expect(gaveUp).toBe('Jul 1, 17:40');
+    expect(text).toContain(`Gave up ${gaveUp} after 10 attempts`);
 
     const button = el.querySelector<HTMLButtonElement>('.job button')!;
     expect(button.getAttribute('aria-label')).toBe('Try again: Work order e-mail to tomas@example.test');

@@ -1,10 +1,11 @@
-import { DatePipe } from '@angular/common';
 import { HttpClient, httpResource } from '@angular/common/http';
 import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { failedJobList, type FailedJob } from '@shared/schemas/background';
+import { farmTime } from '@shared/farm-time';
+import { AuthStore } from '../../../core/auth/auth-store';
 import { messageOf } from '../../../core/http/api-error';
 import { API } from '../../../core/http/api-paths';
 
@@ -16,13 +17,19 @@ import { API } from '../../../core/http/api-paths';
 @Component({
   selector: 'app-background-jobs',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [DatePipe, MatButtonModule, MatProgressBarModule],
+  imports: [MatButtonModule, MatProgressBarModule],
   templateUrl: './background-jobs.html',
   styleUrl: './background-jobs.scss',
 })
 export class BackgroundJobs {
   private readonly http = inject(HttpClient);
   private readonly snackBar = inject(MatSnackBar);
+  private readonly auth = inject(AuthStore);
+
+  /** When a job gave up, at the farm's clock: "May 15, 14:05". */
+  protected when(iso: string): string {
+    return farmTime(iso, this.auth.farm()?.timeZone, 'stamp');
+  }
 
   protected readonly failed = httpResource(() => API.backgroundFailed, { parse: (v) => failedJobList.parse(v) });
   protected readonly jobs = computed<FailedJob[]>(() => (this.failed.hasValue() ? this.failed.value().jobs : []));

@@ -12,10 +12,19 @@ import type { UnitSystem } from '@shared/schemas/auth';
 import { type FarmSettings, timeZone } from '@shared/schemas/farm';
 import { AuthStore } from '../../../core/auth/auth-store';
 import { messageOf } from '../../../core/http/api-error';
+import type { FormFields } from '../../../shared/forms/field-labels';
 import { FormSubmission } from '../../../shared/forms/form-submission';
 import { zodValidator } from '../../../shared/forms/zod-validator';
 import { FARM_URL, FarmApi } from '../farm-api';
 import { clockIn, timeZoneChoices } from './time-zones';
+
+/** Each key of the farm settings's API body and the box it is typed in, by its label. */
+export const FARM_SETTINGS_FIELDS: FormFields = {
+  name: { control: 'name', label: 'Farm name' },
+  units: { control: 'units', label: 'Units' },
+  dayHoursLimit: { control: 'dayHoursLimit', label: 'Hours in a working day' },
+  timeZone: { control: 'timeZone', label: 'Time zone' },
+};
 
 /**
  * The owner's settings for the farm as a whole: its name, units, how many hours one person may be
@@ -46,9 +55,10 @@ export class FarmSettingsForm {
     dayHoursLimit: new FormControl(12, { nonNullable: true, validators: [Validators.required, Validators.min(1), Validators.max(24)] }),
     timeZone: new FormControl('America/Chicago', { nonNullable: true, validators: [Validators.required, zodValidator(timeZone)] }),
   });
-  private readonly submission = new FormSubmission(this.form);
+  private readonly submission = new FormSubmission(this.form, FARM_SETTINGS_FIELDS);
   protected readonly busy = this.submission.busy;
   protected readonly error = this.submission.error;
+  protected readonly blocked = this.submission.blocked;
 
   private readonly zones = timeZoneChoices();
   private readonly typedZone = toSignal(this.form.controls.timeZone.valueChanges, { initialValue: this.form.controls.timeZone.value });

@@ -1,6 +1,7 @@
 import { provideHttpClient, withInterceptors } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
+import { DateTime } from 'luxon';
 import { provideRouter } from '@angular/router';
 import type { FieldReport, FieldReports } from '@shared/schemas/run-sheet';
 import { AuthStore } from '../../../core/auth/auth-store';
@@ -53,6 +54,12 @@ describe('ReportsPage', () => {
     const links = [...items[0].querySelectorAll('a')].map((a) => a.getAttribute('href'));
     expect(links).toEqual(['/board?date=2031-05-15', '/fields/107']);
     expect(el.querySelector('[data-machine-down]')?.textContent).toContain('4WD 620');
+    // At the farm's clock (America/Chicago), whatever the machine's zone: 14:00 UTC on
+    // 2031-05-15 is 09:00 CDT (luxon with IANA zone data gives the same).
+    const when = DateTime.fromISO('2031-05-15T14:00:00.000Z', { zone: 'America/Chicago' }).setLocale('en-US').toFormat('ccc, LLL d, HH:mm');
+    expect(when).toBe('Thu, May 15, 09:00');
+    expect(items[0].textContent).toContain(`Tomas Reyes · ${when}`);
+    expect(el.querySelector('[data-machine-down]')?.textContent).toContain(`since ${when}`);
     http.verify();
   });
 

@@ -3,8 +3,10 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
+import { farmTime } from '@shared/farm-time';
 import { OPERATION_INFO } from '@shared/operations';
 import type { FieldReport } from '@shared/schemas/run-sheet';
+import { AuthStore } from '../../../core/auth/auth-store';
 import { messageOf } from '../../../core/http/api-error';
 import { FieldReportsStore } from '../../../core/layout/field-reports';
 
@@ -14,14 +16,6 @@ const KIND: Record<FieldReport['kind'], { label: string; icon: string }> = {
   other: { label: 'Problem', icon: 'report' },
 };
 
-const WHEN = new Intl.DateTimeFormat('en-US', {
-  weekday: 'short',
-  month: 'short',
-  day: 'numeric',
-  hour: '2-digit',
-  minute: '2-digit',
-  hourCycle: 'h23',
-});
 const DAY = new Intl.DateTimeFormat('en-US', { weekday: 'short', month: 'short', day: 'numeric', timeZone: 'UTC' });
 
 /**
@@ -37,6 +31,7 @@ const DAY = new Intl.DateTimeFormat('en-US', { weekday: 'short', month: 'short',
 })
 export class ReportsPage {
   protected readonly store = inject(FieldReportsStore);
+  private readonly auth = inject(AuthStore);
   protected readonly busy = signal<number | null>(null);
   protected readonly failure = signal<string | null>(null);
 
@@ -48,8 +43,9 @@ export class ReportsPage {
     return OPERATION_INFO[r.job.operation].label.toLowerCase();
   }
 
+  /** When a report came in, at the farm's clock: "Thu, May 15, 14:05". */
   protected when(iso: string): string {
-    return WHEN.format(new Date(iso));
+    return farmTime(iso, this.auth.farm()?.timeZone, 'weekday');
   }
 
   protected day(date: string): string {
