@@ -5,16 +5,21 @@
 import { DateTime } from 'luxon';
 import { DAY_START_MIN, type BoardWeather, type CardWeather, type DayStrip } from '../../shared/schemas/board';
 import { seasonOf } from '../jobs/progress';
-import { judgeHour, judgeWindow, type WeatherHour } from '../../shared/weather/rules';
-import { WEATHER_OPERATIONS, type WeatherOperation } from '../../shared/weather/limits';
+import type { UnitSystem } from '../../shared/schemas/auth';
+import { judgeOperation, judgeWindow, type Verdict } from '../../shared/weather/rules';
+import { WEATHER_OPERATIONS, type SeedCrop, type WeatherLimits, type WeatherOperation } from '../../shared/weather/limits';
 import type { Tx } from '../db/knex';
 import { logMessage } from '../http/errors';
-import { weatherOfFields, type FieldsWeather, type StoredForecast } from '../weather/weather.service';
+import { farmLimits, weatherOfFields, type FieldsWeather, type StoredForecast } from '../weather/weather.service';
+import { FORECAST_DAYS } from '../weather/forecast.client';
 import { formatMinutes } from './clock';
-import type { ConflictCard } from './conflicts';
+import { weatherWindowOf, type ConflictCard } from './conflicts';
 import type { DayContext } from './day-context';
 
-export const NO_WEATHER: BoardWeather = { cards: [], strip: null };
+export const NO_WEATHER: BoardWeather = { cards: [], strip: null, note: null };
+
+/** What the board says on a day the stored forecasts do not reach. */
+export const BEYOND_FORECAST = `No forecast yet: forecasts reach ${FORECAST_DAYS} days ahead`;
 
 const isWeatherOperation = (op: string): op is WeatherOperation => (WEATHER_OPERATIONS as readonly string[]).includes(op);
 
@@ -24,23 +29,55 @@ export const workingDay = (dayHoursLimit: number): { start: number; end: number 
   end: DAY_START_MIN + Math.round(dayHoursLimit * 60),
 });
 
-/** Minutes after the day's midnight of a forecast hour written with its offset (may be negative, or past 24:00). */
-function minutesOf(day: DateTime, time: string): number {
-  return Math.round(DateTime.fromISO(time, { setZone: true }).diff(day, 'minutes').minutes);
-}
-
 /**
  * The hours a window covers: each forecast hour from the one the window starts in up to, not
- * including, the one it ends at (07:30–12:00 → 07:00 … 11:00), as indexes into `hours`.
+ * including, the one it ends at (07:30–12:00 → 07:00 … 11:00), as indexes into the hours.
+ * `minutes`: each hour's minutes after the day's midnight (may be negative, or past 24:00).
  */
-function hoursIn(hours: readonly WeatherHour[], midnight: DateTime, window: { start: number; end: number }): number[] {
+function hoursIn(minutes: readonly number[], window: { start: number; end: number }): number[] {
   const from = Math.floor(window.start / 60) * 60;
   const out: number[] = [];
-  hours.forEach((h, i) => {
-    const m = minutesOf(midnight, h.time);
+  minutes.forEach((m, i) => {
     if (m >= from && m < window.end) out.push(i);
   });
   return out;
+}
+
+/**
+ * One board read's view of the stored forecasts: each point's hours as minutes after the day's
+ * midnight (worked out once per point, not once per card), and each verdict judged once per
+ * point, operation, crop and hour however many cards ask for it (cards on neighbouring fields
+ * share a point, and windows overlap).
+ */
+class DayForecasts {
+  private readonly minutes = new Map<string, number[]>();
+  private readonly verdicts = new Map<string, Verdict>();
+
+  constructor(
+    private readonly w: FieldsWeather,
+    private readonly midnightMs: number,
+    private readonly units: UnitSystem,
+  ) {}
+
+  minutesOf(point: string, forecast: StoredForecast): number[] {
+    let m = this.minutes.get(point);
+    if (!m) {
+      // Elapsed minutes since midnight, as the hours' instants differ from it (Date.parse reads the offset).
+      m = forecast.hours.map((h) => Math.round((Date.parse(h.time) - this.midnightMs) / 60_000));
+      this.minutes.set(point, m);
+    }
+    return m;
+  }
+
+  verdict(point: string, forecast: StoredForecast, i: number, op: WeatherOperation, crop: SeedCrop | null): Verdict {
+    const key = `${point}|${op}|${op === 'seeding' ? crop : ''}|${i}`;
+    let v = this.verdicts.get(key);
+    if (!v) {
+      v = judgeOperation(op, forecast.hours, i, this.w.limits, this.units, crop, forecast.place);
+      this.verdicts.set(key, v);
+    }
+    return v;
+  }
 }
 
 const staleFields = (f: StoredForecast) => ({
@@ -51,17 +88,18 @@ const staleFields = (f: StoredForecast) => ({
   staleAfter: f.staleAfter.toISOString(),
 });
 
-function cardWeather(c: ConflictCard, ctx: DayContext, w: FieldsWeather, midnight: DateTime): CardWeather | null {
+function cardWeather(c: ConflictCard, ctx: DayContext, w: FieldsWeather, day: DayForecasts): CardWeather | null {
   const op = c.a.operation;
   if (!isWeatherOperation(op)) return null;
   const field = w.fields.get(c.a.field.id);
   const forecast = field ? w.points.get(field.point) : null;
   if (!field || !forecast) return null;
-  const window = c.window ?? workingDay(ctx.farm.dayHoursLimit);
-  const at = hoursIn(forecast.hours, midnight, window);
+  const own = weatherWindowOf(c);
+  const window = own ?? workingDay(ctx.farm.dayHoursLimit);
+  const at = hoursIn(day.minutesOf(field.point, forecast), window);
   // A forecast that does not reach this day (or the window): no verdict rather than a guess.
   if (!at.length) return null;
-  const v = judgeWindow(at.map((i) => judgeHour(forecast.hours, i, w.limits, ctx.farm.units, field.crop)[op]));
+  const v = judgeWindow(at.map((i) => day.verdict(field.point, forecast, i, op, field.crop)));
   return {
     assignmentId: c.a.id,
     verdict: v.verdict,
@@ -69,7 +107,7 @@ function cardWeather(c: ConflictCard, ctx: DayContext, w: FieldsWeather, midnigh
     reasons: v.reasons,
     from: formatMinutes(window.start),
     to: formatMinutes(window.end),
-    over: c.window ? 'card' : 'working-day',
+    over: own ? 'card' : 'working-day',
     blocking: w.limits[op].blocking,
     ...staleFields(forecast),
   };
@@ -97,7 +135,7 @@ function stripPoint(ctx: DayContext, w: FieldsWeather): { point: string; fieldNa
   return first ? { point: first.point, fieldName: first.name, basis: 'first-field' } : null;
 }
 
-function dayStrip(ctx: DayContext, w: FieldsWeather, midnight: DateTime): DayStrip | null {
+function dayStrip(ctx: DayContext, w: FieldsWeather, day: DayForecasts): DayStrip | null {
   const where = stripPoint(ctx, w);
   const forecast = where ? w.points.get(where.point) : null;
   if (!where || !forecast) return null;
@@ -105,7 +143,7 @@ function dayStrip(ctx: DayContext, w: FieldsWeather, midnight: DateTime): DayStr
   const work = workingDay(ctx.farm.dayHoursLimit);
   const start = Math.max(0, Math.min(work.start, ...ctx.cards.map((c) => c.start)));
   const end = Math.min(24 * 60, Math.max(work.end, ...ctx.cards.map((c) => c.end)));
-  const hours = hoursIn(forecast.hours, midnight, { start, end }).map((i) => {
+  const hours = hoursIn(day.minutesOf(where.point, forecast), { start, end }).map((i) => {
     const h = forecast.hours[i];
     return {
       time: h.time.slice(11, 16),
@@ -120,6 +158,19 @@ function dayStrip(ctx: DayContext, w: FieldsWeather, midnight: DateTime): DayStr
   return { basis: where.basis, fieldName: where.fieldName, ...staleFields(forecast), hours };
 }
 
+/**
+ * The forecast hours a day's verdicts can look at, and no more (the board reads them on every
+ * miss of its cache): from as many hours before midnight as the farm's rules look back for rain
+ * (straw or crop still wet), to the end of the latest window plus the hours spraying looks ahead
+ * for rain, and an hour's slack for a window ending inside an hour.
+ */
+export function hoursToRead(ctx: DayContext, midnightMs: number, limits: WeatherLimits): { from: Date; to: Date } {
+  const back = Math.max(limits.harrowing.wetAfterRainHours, limits.swathing.afterRainHours, limits.combining.afterRainHours);
+  const lastMin = Math.max(24 * 60, workingDay(ctx.farm.dayHoursLimit).end, ...ctx.cards.map((c) => c.end));
+  const ahead = limits.spraying.rainFreeHours + 1;
+  return { from: new Date(midnightMs - back * 3_600_000), to: new Date(midnightMs + lastMin * 60_000 + ahead * 3_600_000) };
+}
+
 /** The day's weather, or none (logged by the caller's `onError`) when it cannot be read. */
 export async function loadDayWeather(
   db: Tx,
@@ -128,20 +179,25 @@ export async function loadDayWeather(
 ): Promise<BoardWeather> {
   const read = async (q: Tx): Promise<BoardWeather> => {
     const midnight = DateTime.fromISO(ctx.day, { zone: ctx.farm.timeZone }).startOf('day');
-    // A day before and after: the rules look back for rain (hours after it) and ahead (rain-free hours).
+    const limits = await farmLimits(q, ctx.farmId);
     const w = await weatherOfFields(q, ctx.farmId, [...new Set(ctx.cards.map((c) => c.a.field.id))], {
-      from: midnight.minus({ days: 1 }).toJSDate(),
-      to: midnight.plus({ days: 2 }).toJSDate(),
+      ...hoursToRead(ctx, midnight.toMillis(), limits),
       timeZone: ctx.farm.timeZone,
       season: seasonOf(ctx.day),
       now: options.now,
+      limits,
     });
+    const day = new DayForecasts(w, midnight.toMillis(), ctx.farm.units);
     const cards: CardWeather[] = [];
     for (const c of ctx.cards) {
-      const cw = cardWeather(c, ctx, w, midnight);
+      const cw = cardWeather(c, ctx, w, day);
       if (cw) cards.push(cw);
     }
-    return { cards, strip: dayStrip(ctx, w, midnight) };
+    const strip = dayStrip(ctx, w, day);
+    // No strip, and the newest forecasts end before the day begins: say why, not just nothing.
+    const ends = [...w.points.values()].flatMap((f) => (f?.lastHour ? [f.lastHour.getTime()] : []));
+    const beyond = !strip && ends.length > 0 && Math.max(...ends) < midnight.toMillis();
+    return { cards, strip, note: beyond ? BEYOND_FORECAST : null };
   };
   try {
     // Inside a transaction, a savepoint: a failed weather read must not spoil the caller's work.

@@ -9,6 +9,8 @@ export interface CaughtMail {
   subject: string;
   text: string;
   html: string;
+  /** Files sent with the message, decoded. */
+  attachments: Array<{ filename: string; contentType: string; content: Buffer }>;
   receivedAt: Date;
 }
 
@@ -43,6 +45,7 @@ export class FakeMailServer {
                 subject: mail.subject ?? '',
                 text: mail.text ?? '',
                 html: typeof mail.html === 'string' ? mail.html : '',
+                attachments: mail.attachments.map((a) => ({ filename: a.filename ?? '', contentType: a.contentType, content: a.content })),
                 receivedAt: new Date(),
               };
               this.messages.push(caught);

@@ -8,7 +8,7 @@
 // where the hours start, and `mode` for a service that is down, slow or answers garbage.
 // `npm start` starts one on loopback (FAKE_WEATHER_SCENARIO picks its scenario); tests start their own.
 import http from 'node:http';
-import type { AddressInfo } from 'node:net';
+import { closeNow, listenOnLoopback } from '../http/loopback';
 import { Builder } from 'flatbuffers';
 import { Model } from './generated/model';
 import { Unit } from './generated/unit';
@@ -63,19 +63,66 @@ function dewPoint(t: number, rh: number): number {
 }
 
 /**
- * The scenario's hour: `day` counts from the first day of the forecast (0 = today), `solarHour`
- * is the hour by the sun at the location (UTC + longitude / 15), which drives the day's cycle.
+ * Monthly mean air temperature, °C, at 50° N, January … December, and the half-range of a day's
+ * swing around it: invented for the local fake, shaped like northern-plains climate normals; not a
+ * published table. May stays near what the scenarios always had (about 10–20 °C), so a test set in
+ * May reads the values it was written for.
  */
-export function scenarioHour(scenario: Scenario, day: number, solarHour: number): ScenarioHour {
+const MONTHLY_MEAN_C = [-16, -13, -6, 5, 15.5, 19, 21, 20, 14, 6, -4, -13];
+const MONTHLY_SWING_C = [4, 4, 4.5, 5, 5, 5.5, 6, 6, 5.5, 5, 4, 4];
+/** Colder by this much per degree of latitude poleward of 50° (invented, the plains' rough north–south gradient). */
+const PER_DEGREE_C = 0.8;
+
+/** The season at a place on a day: the day's mean air temperature, its half-range, and the soil's mean near seeding depth. */
+export interface Season {
+  airC: number;
+  swingC: number;
+  soilC: number;
+}
+
+/**
+ * The season on `day` (UTC) at `latitude`: the monthly table read at mid-months and interpolated
+ * between them by day, colder poleward (the table's latitude effect is held to 35–65°), the seasons
+ * turned half a year round south of the equator. The soil near seeding depth follows the air 4 °C
+ * cooler while the air is above freezing; under frost (snow cover) it stays near 0 °C (invented,
+ * shaped like what soil does; not a published model).
+ */
+export function seasonAt(latitude: number, day: Date): Season {
+  const year = day.getUTCFullYear();
+  const month = day.getUTCMonth() + (latitude < 0 ? 6 : 0);
+  const daysIn = (m: number) => new Date(Date.UTC(year, m + 1, 0)).getUTCDate();
+  // Position in months from mid-January: mid-month (day 15.5 of 31) is a whole number.
+  const t = month + (day.getUTCDate() - 0.5 - daysIn(day.getUTCMonth()) / 2) / daysIn(day.getUTCMonth());
+  const at = (table: readonly number[]) => {
+    const i = Math.floor(t);
+    const f = t - i;
+    const a = table[((i % 12) + 12) % 12];
+    const b = table[(((i + 1) % 12) + 12) % 12];
+    return a + (b - a) * f;
+  };
+  const poleward = Math.min(65, Math.max(35, Math.abs(latitude))) - 50;
+  const airC = at(MONTHLY_MEAN_C) - PER_DEGREE_C * poleward;
+  return { airC, swingC: at(MONTHLY_SWING_C), soilC: Math.max(airC - 4, airC / 4 - 1) };
+}
+
+/**
+ * The scenario's hour: `day` counts from the first day of the forecast (0 = today), `solarHour`
+ * is the hour by the sun at the location (UTC + longitude / 15), which drives the day's cycle;
+ * `season` sets the temperatures of the date and latitude asked. Each scenario keeps its own
+ * features in every season: wind in the afternoon, rain tomorrow morning, a morning colder than the
+ * season's and damp, light wind under a clear evening sky.
+ */
+export function scenarioHour(scenario: Scenario, day: number, solarHour: number, season: Season): ScenarioHour {
   // A day's swing: 1 at 15:00 by the sun, −1 at 03:00.
   const swing = Math.sin(((solarHour - 9) / 24) * 2 * Math.PI);
-  let t = 16 + 4 * swing;
+  let t = season.airC + season.swingC * swing;
   let rh = 62 - 10 * swing;
   let rain = 0;
   let chance = 5;
   let wind = 10 + 2 * swing;
   let cloud = 40;
-  let soil = 11 + 1.5 * swing;
+  // Frozen ground barely follows the day.
+  let soil = season.soilC + (season.soilC > 0 ? 1.5 : 0.5) * swing;
   const afternoon = solarHour >= 12 && solarHour < 18;
   const evening = solarHour >= 17 || solarHour < 9;
   switch (scenario) {
@@ -96,9 +143,10 @@ export function scenarioHour(scenario: Scenario, day: number, solarHour: number)
       }
       break;
     case 'cold-morning':
-      t = 7 + 6 * swing;
+      // 8 °C under the season's mean, with a wider swing: in mid-May about 1–13 °C, soil about 2–6 °C.
+      t = season.airC - 8 + 6 * swing;
       rh = 80 - 15 * swing;
-      soil = 4 + 2 * swing;
+      soil = season.soilC - 6.5 + 2 * swing;
       if (solarHour >= 4 && solarHour < 9) rh = 97;
       break;
     case 'calm-clear-evening':
@@ -123,19 +171,20 @@ export function scenarioHour(scenario: Scenario, day: number, solarHour: number)
 /** The first hour the service answers: midnight UTC of `now`'s day (it answers whole days, timezone GMT). */
 export const forecastStart = (now: Date): number => Math.floor(now.getTime() / 86_400_000) * 86_400;
 
-/** A scenario's hours at a location, as the fake sends them (float32, wind in `windUnit`). */
+/** A scenario's hours at a location, as the fake sends them (float32, wind in `windUnit`), in the season of each day there. */
 export function scenarioHours(
   scenario: Scenario,
-  longitude: number,
+  place: { latitude: number; longitude: number },
   now: Date,
   days = 7,
   windUnit: 'kmh' | 'ms' = 'kmh',
 ): { start: number; hours: ScenarioHour[] } {
   const start = forecastStart(now);
   const hours: ScenarioHour[] = [];
+  const seasons = Array.from({ length: days }, (_, d) => seasonAt(place.latitude, new Date((start + d * 86_400) * 1000)));
   for (let k = 0; k < days * 24; k++) {
-    const solar = ((((k % 24) + longitude / 15) % 24) + 24) % 24;
-    const h = scenarioHour(scenario, Math.floor(k / 24), solar);
+    const solar = ((((k % 24) + place.longitude / 15) % 24) + 24) % 24;
+    const h = scenarioHour(scenario, Math.floor(k / 24), solar, seasons[Math.floor(k / 24)]);
     if (windUnit === 'ms') {
       h.wind_speed_10m /= 3.6;
       h.wind_gusts_10m /= 3.6;
@@ -179,13 +228,8 @@ export class FakeForecastServer {
 
   async start(port = 0): Promise<number> {
     const server = http.createServer((req, res) => this.answer(req, res));
-    await new Promise<void>((resolve, reject) => {
-      server.once('error', reject);
-      server.listen(port, '127.0.0.1', () => resolve());
-    });
-    server.on('error', () => undefined);
+    this.port = await listenOnLoopback(server, port);
     this.server = server;
-    this.port = (server.address() as AddressInfo).port;
     return this.port;
   }
 
@@ -195,8 +239,7 @@ export class FakeForecastServer {
     for (const res of this.hanging) res.destroy();
     this.hanging.clear();
     if (!server) return;
-    server.closeAllConnections();
-    await new Promise<void>((resolve) => server.close(() => resolve()));
+    await closeNow(server);
   }
 
   private answer(req: http.IncomingMessage, res: http.ServerResponse): void {
@@ -239,7 +282,7 @@ export class FakeForecastServer {
 
   /** One location's size-prefixed WeatherApiResponse. */
   private message(latitude: number, longitude: number, locationId: number, names: string[], days: number, windUnit: 'kmh' | 'ms'): Buffer {
-    const { start, hours } = scenarioHours(this.scenarioOf(latitude, longitude), longitude, this.now, days, windUnit);
+    const { start, hours } = scenarioHours(this.scenarioOf(latitude, longitude), { latitude, longitude }, this.now, days, windUnit);
     const b = new Builder(4096);
     const variables = names.map((name) => {
       const known = KNOWN[name];

@@ -89,6 +89,8 @@ export interface ForecastOptions {
 
 /** The most locations in one request (the service's documented list limit is far above what one farm needs). */
 export const MAX_POINTS_PER_REQUEST = 100;
+/** How many days ahead forecasts are asked for (the screens say so on a day past them). */
+export const FORECAST_DAYS = 7;
 
 /**
  * Hourly forecasts for `points`, in the same order, from the service at `url`. One request for
@@ -99,7 +101,7 @@ export const MAX_POINTS_PER_REQUEST = 100;
 export async function fetchForecasts(
   url: string,
   points: readonly { latitude: number; longitude: number }[],
-  { timeoutMs = 15_000, days = 7 }: ForecastOptions = {},
+  { timeoutMs = 15_000, days = FORECAST_DAYS }: ForecastOptions = {},
 ): Promise<PointForecast[]> {
   if (!points.length) return [];
   if (points.length > MAX_POINTS_PER_REQUEST) throw new Error(`at most ${MAX_POINTS_PER_REQUEST} points per request`);

@@ -30,6 +30,8 @@ export class WeatherWorker {
   private pollTimer: NodeJS.Timeout | null = null;
   private scheduleTimer: NodeJS.Timeout | null = null;
   private running: Promise<number> | null = null;
+  /** A round of queueing under way: stop() waits for it, so closing the pool never cuts it off. */
+  private scheduling: Promise<void> | null = null;
   private readonly boss: PgBoss;
   private readonly log: Logger;
   private readonly scheduleMs: number;
@@ -49,9 +51,11 @@ export class WeatherWorker {
     if (this.pollTimer) return;
     this.log.info({ scheduleMs: this.scheduleMs }, 'weather worker started');
     const schedule = () => {
-      void this.schedule()
+      this.scheduling = this.schedule()
+        .then(() => undefined)
         .catch((err: unknown) => this.log.warn({ error: logMessage(err) }, 'weather refresh jobs could not be queued'))
         .finally(() => {
+          this.scheduling = null;
           if (this.scheduleTimer) this.scheduleTimer = setTimeout(schedule, this.scheduleMs);
         });
     };
@@ -70,6 +74,7 @@ export class WeatherWorker {
     if (this.pollTimer) clearTimeout(this.pollTimer);
     if (this.scheduleTimer) clearTimeout(this.scheduleTimer);
     this.pollTimer = this.scheduleTimer = null;
+    await this.scheduling;
     await this.running?.catch(() => undefined);
   }
 

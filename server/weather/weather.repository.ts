@@ -203,6 +203,8 @@ export type PointHourRow = {
   last_error: string | null;
   forecast_id: number | null;
   fetched_at: Date | null;
+  /** The forecast's last hour (of all its hours, not only those asked for). */
+  last_time: Date | null;
   time: Date | null;
 } & HourValues;
 
@@ -221,7 +223,8 @@ export async function newestHoursOfCells(
   if (!cells.length) return [];
   return db('weather_points as p')
     .joinRaw(
-      'LEFT JOIN LATERAL (SELECT f.id, f.fetched_at FROM weather_forecasts f WHERE f.point_id = p.id ORDER BY f.issued_at DESC, f.id DESC LIMIT 1) nf ON true',
+      'LEFT JOIN LATERAL (SELECT f.id, f.fetched_at, (SELECT max(wh.time) FROM weather_hours wh WHERE wh.forecast_id = f.id) AS last_time ' +
+        'FROM weather_forecasts f WHERE f.point_id = p.id ORDER BY f.issued_at DESC, f.id DESC LIMIT 1) nf ON true',
     )
     .leftJoin('weather_hours as h', (j) => {
       j.on('h.forecast_id', 'nf.id')
@@ -243,6 +246,7 @@ export async function newestHoursOfCells(
       'p.last_error',
       'nf.id as forecast_id',
       'nf.fetched_at',
+      'nf.last_time',
       'h.time',
       ...HOURLY.map((h) => `h.${h.column}`),
     );

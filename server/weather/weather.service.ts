@@ -4,6 +4,7 @@ import { DateTime } from 'luxon';
 import type { UnitSystem } from '../../shared/schemas/auth';
 import type { FieldForecast, ForecastHour, WeatherLimitsAnswer } from '../../shared/schemas/weather';
 import { yearIn } from '../../shared/calendar';
+import { formatAge } from '../../shared/figures';
 import { roundTo } from '../../shared/round';
 import { boundaryCentre, gridCellOf, type GridCell } from '../../shared/weather/grid';
 import {
@@ -15,6 +16,7 @@ import {
   type WeatherLimits,
 } from '../../shared/weather/limits';
 import { judgeHour, type WeatherHour } from '../../shared/weather/rules';
+import type { Place } from '../../shared/weather/sun';
 import { deltaTC } from '../../shared/weather/wet-bulb';
 import type { Db, Tx } from '../db/knex';
 import { AppError } from '../http/errors';
@@ -128,14 +130,15 @@ export async function refreshFarmWeather(db: Db, farmId: number, options: Refres
   return outcome;
 }
 
-/** The farm's limits: the owner's, with the defaults for anything not set (a key added later). */
+/** The farm's limits: the owner's, with the defaults for anything not set (a key added later), and no key that is gone. */
 export async function farmLimits(db: Tx, farmId: number): Promise<WeatherLimits> {
   const stored = (await storedLimits(db, farmId)) ?? {};
   const merged = {} as Record<string, unknown>;
   for (const op of WEATHER_OPERATIONS) {
     const mine = (stored[op] ?? {}) as Record<string, unknown>;
     const base = DEFAULT_LIMITS[op] as unknown as Record<string, unknown>;
-    merged[op] = { ...base, ...mine };
+    // Only today's keys: a limit that was replaced (inversion hours once were clock hours) is dropped.
+    merged[op] = Object.fromEntries(Object.keys(base).map((k) => [k, k in mine ? mine[k] : base[k]]));
   }
   const seeding = merged.seeding as WeatherLimits['seeding'];
   seeding.soilMinC = { ...DEFAULT_LIMITS.seeding.soilMinC, ...(stored.seeding?.soilMinC ?? {}) };
@@ -154,9 +157,8 @@ export async function changeLimits(db: Tx, farmId: number, limits: WeatherLimits
 const r2 = (n: number | null): number | null => (n === null ? null : roundTo(n, 2));
 const kmh = (ms: number | null): number | null => (ms === null ? null : roundTo(ms * 3.6, 2));
 
-/** Hours since a forecast was fetched, in words: "40 min", "2.5 h". */
-const ageText = (ageMs: number): string =>
-  ageMs < 3_600_000 ? `${Math.max(0, Math.round(ageMs / 60_000))} min` : `${roundTo(ageMs / 3_600_000, 1)} h`;
+/** How long ago a forecast was fetched, as every screen writes it (shared/figures.ts): "40 min", "2.5 h". */
+const ageText = (ageMs: number): string => formatAge(ageMs / 60_000);
 
 /** Why a stored forecast is stale (a failure since it was fetched, or none newer for two hours), or null. */
 function staleReasonOf(fetchedAt: Date, lastFailureAt: Date | null, lastError: string | null, now: Date): string | null {
@@ -179,8 +181,30 @@ interface StoredHourColumns {
   cloud_cover_pct: number | null;
   soil_temperature_c: number | null;
 }
-const weatherHourOf = (h: StoredHourColumns, time: Date, timeZone: string): WeatherHour => ({
-  time: DateTime.fromJSDate(time, { zone: timeZone }).toISO({ suppressMilliseconds: true })!,
+const luxonIso = (ms: number, timeZone: string): string =>
+  DateTime.fromMillis(ms, { zone: timeZone }).toISO({ suppressMilliseconds: true })!;
+
+/**
+ * Writes instants of a run of hours on the farm's clock, exactly as luxon's ISO form
+ * ("2026-05-14T10:00:00-05:00"). Working out a zone's offset is the costly part of that, and a
+ * run of a few days has one offset unless a clock change falls inside it: when the first and last
+ * instants share one, it is worked out once; otherwise every instant goes through luxon.
+ */
+export function clockWriter(timeZone: string, firstMs: number, lastMs: number): (ms: number) => string {
+  const first = DateTime.fromMillis(firstMs, { zone: timeZone });
+  const last = DateTime.fromMillis(lastMs, { zone: timeZone });
+  if (!first.isValid || first.offset !== last.offset) return (ms) => luxonIso(ms, timeZone);
+  const shift = first.offset * 60_000;
+  const suffix = first.toISO({ suppressMilliseconds: true })!.slice(19);
+  return (ms) => (ms % 1000 === 0 ? new Date(ms + shift).toISOString().slice(0, 19) + suffix : luxonIso(ms, timeZone));
+}
+
+/** A writer for the times of some stored rows (see clockWriter). */
+const writerFor = (times: readonly Date[], timeZone: string): ((ms: number) => string) =>
+  times.length ? clockWriter(timeZone, times[0].getTime(), times[times.length - 1].getTime()) : (ms) => luxonIso(ms, timeZone);
+
+const weatherHourOf = (h: StoredHourColumns, time: Date, write: (ms: number) => string): WeatherHour => ({
+  time: write(time.getTime()),
   temperatureC: r2(h.temperature_c),
   relativeHumidityPct: r2(h.relative_humidity_pct),
   dewPointC: r2(h.dew_point_c),
@@ -230,12 +254,16 @@ export async function fieldForecast(
   const ageMs = now.getTime() - forecast.fetched_at.getTime();
   const staleReason = staleReasonOf(forecast.fetched_at, point.last_failure_at, point.last_error, now);
   const rows = await forecastHours(db, forecast.id);
-  const hours = rows.map((h) => weatherHourOf(h, h.time, who.timeZone));
+  const write = writerFor(
+    rows.map((h) => h.time),
+    who.timeZone,
+  );
+  const hours = rows.map((h) => weatherHourOf(h, h.time, write));
   const limits = await farmLimits(db, who.farmId);
   const judged: ForecastHour[] = hours.map((h, i) => ({
     ...h,
     deltaTC: h.temperatureC === null || h.relativeHumidityPct === null ? null : roundTo(deltaTC(h.temperatureC, h.relativeHumidityPct), 2),
-    verdicts: judgeHour(hours, i, limits, who.units, crop),
+    verdicts: judgeHour(hours, i, limits, who.units, crop, cell),
   }));
   return {
     ...base,
@@ -257,6 +285,10 @@ export interface StoredForecast {
   staleReason: string | null;
   /** When it turns stale by age alone. */
   staleAfter: Date;
+  /** The forecast point (its sunrise and sunset bound spraying's inversion hours). */
+  place: Place;
+  /** The forecast's last hour, however far past the range asked for. */
+  lastHour: Date | null;
   /** Its hours in the range asked for, in time order, times in the farm's zone. */
   hours: WeatherHour[];
 }
@@ -273,19 +305,26 @@ export interface FieldsWeather {
 }
 
 const pointKey = (latIndex: number, lonIndex: number): string => `${latIndex},${lonIndex}`;
-function storedForecastOf(rows: readonly PointHourRow[], timeZone: string, now: Date): StoredForecast | null {
+function storedForecastOf(rows: readonly PointHourRow[], cell: GridCell, timeZone: string, now: Date): StoredForecast | null {
   const first = rows[0];
   if (!first.forecast_id || !first.fetched_at) return null;
   const fetchedAt = first.fetched_at;
   const ageMs = now.getTime() - fetchedAt.getTime();
   const staleReason = staleReasonOf(fetchedAt, first.last_failure_at, first.last_error, now);
-  const hours = rows.filter((h) => h.time !== null).map((h) => weatherHourOf(h, h.time!, timeZone));
+  const timed = rows.filter((h): h is PointHourRow & { time: Date } => h.time !== null);
+  const write = writerFor(
+    timed.map((h) => h.time),
+    timeZone,
+  );
+  const hours = timed.map((h) => weatherHourOf(h, h.time, write));
   return {
     fetchedAt,
     ageMinutes: Math.max(0, Math.floor(ageMs / 60_000)),
     stale: staleReason !== null,
     staleReason,
     staleAfter: new Date(fetchedAt.getTime() + STALE_AFTER_MS),
+    place: { latitude: cell.latitude, longitude: cell.longitude },
+    lastHour: first.last_time,
     hours,
   };
 }
@@ -299,7 +338,7 @@ export async function weatherOfFields(
   db: Tx,
   farmId: number,
   fieldIds: readonly number[],
-  options: { from: Date; to: Date; timeZone: string; season: number; now?: Date },
+  options: { from: Date; to: Date; timeZone: string; season: number; now?: Date; limits?: WeatherLimits },
 ): Promise<FieldsWeather> {
   const now = options.now ?? new Date();
   const boundaries = await boundariesForBoard(db, farmId, fieldIds);
@@ -323,9 +362,9 @@ export async function weatherOfFields(
     else byPoint.set(key, [r]);
   }
   const points: FieldsWeather['points'] = new Map();
-  for (const key of cells.keys()) {
+  for (const [key, cell] of cells) {
     const list = byPoint.get(key);
-    points.set(key, list ? storedForecastOf(list, options.timeZone, now) : null);
+    points.set(key, list ? storedForecastOf(list, cell, options.timeZone, now) : null);
   }
-  return { fields, firstFieldId: boundaries[0]?.id ?? null, points, limits: await farmLimits(db, farmId) };
+  return { fields, firstFieldId: boundaries[0]?.id ?? null, points, limits: options.limits ?? (await farmLimits(db, farmId)) };
 }

@@ -12,7 +12,8 @@ const between = (what: string, min: number, max: number, unit: string) =>
     .min(min, `${what} must be at least ${min}${unit}`)
     .max(max, `${what} must be at most ${max}${unit}`);
 const hours = (what: string) => between(what, 0, 48, ' hours').int(`${what} must be whole hours`);
-const hourOfDay = (what: string) => between(what, 0, 23, '').int(`${what} must be a whole hour, 0 to 23`);
+/** Hours before sunset or after sunrise: up to 6, past which the two would meet on a short winter day. */
+const aroundSun = (what: string) => between(what, 0, 6, ' hours').int(`${what} must be whole hours`);
 const blocking = z.boolean({ message: 'Say whether a no-go forecast blocks the board (true or false)' });
 
 const sprayingLimits = z
@@ -28,8 +29,8 @@ const sprayingLimits = z
     deltaTCautionMaxC: between('The highest Delta T with caution', 1, 25, ' °C'),
     inversionWindKmh: between('The inversion wind', 0, 30, ' km/h'),
     inversionCloudMaxPct: between('The clear-sky cloud cover', 0, 100, ' %'),
-    inversionFromHour: hourOfDay('The hour inversions start'),
-    inversionUntilHour: hourOfDay('The hour inversions end'),
+    inversionBeforeSunsetHours: aroundSun('The inversion hours before sunset'),
+    inversionAfterSunriseHours: aroundSun('The inversion hours after sunrise'),
   })
   .refine((l) => l.windMinKmh < l.windMaxKmh, { message: 'The lowest wind must be below the highest', path: ['windMaxKmh'] })
   .refine((l) => l.deltaTMinC < l.deltaTGoodMaxC && l.deltaTGoodMaxC <= l.deltaTCautionMaxC, {

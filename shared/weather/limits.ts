@@ -36,10 +36,10 @@ export interface SprayingLimits {
   inversionWindKmh: number;
   /** … with cloud cover at or under this (clear sky) … */
   inversionCloudMaxPct: number;
-  /** … from this local hour (late afternoon) … */
-  inversionFromHour: number;
-  /** … until this local hour the next morning (mid-morning), not included. */
-  inversionUntilHour: number;
+  /** … from this many hours before sunset at the field … */
+  inversionBeforeSunsetHours: number;
+  /** … until this many hours after the next sunrise, not included. */
+  inversionAfterSunriseHours: number;
 }
 
 export interface HarrowingLimits {
@@ -112,8 +112,8 @@ export const DEFAULT_LIMITS: WeatherLimits = {
     deltaTCautionMaxC: 10,
     inversionWindKmh: mphToKmh(3),
     inversionCloudMaxPct: 30,
-    inversionFromHour: 16,
-    inversionUntilHour: 10,
+    inversionBeforeSunsetHours: 2,
+    inversionAfterSunriseHours: 2,
   },
   swathing: { blocking: false, rainMm: 0.2, afterRainHours: 4, humidityCautionPct: 90, dewSpreadC: 2 },
   combining: { blocking: false, rainMm: 0.2, afterRainHours: 12, humidityCautionPct: 70, dewSpreadC: 2 },
@@ -126,7 +126,12 @@ const WIND_SOURCE: LimitSource = {
     '(National Pesticide Stewardship Alliance, "Evaluate the Weather"). The product label comes first.',
 };
 const DELTA_T_SOURCE = MEMORY('Delta T 2 to 8 °C good, 8 to 10 °C caution, under 2 or over 10 °C no-go: GRDC spray-application guidance');
-const INVERSION_SOURCE = COMMON('Inversions form under clear sky and light wind from late afternoon until mid-morning');
+const INVERSION_SOURCE = COMMON(
+  'Inversions form under clear sky and light wind as the ground cools before sunset and last until it warms after sunrise',
+);
+const INVERSION_HOURS_SOURCE = COMMON(
+  'From 2 hours before sunset until 2 hours after sunrise at the field (sunrise and sunset computed for its place and date)',
+);
 const BLOCKING_SOURCE = COMMON('A no-go forecast warns on the board unless the owner makes it blocking');
 
 type SourcesOf<T> = { [K in keyof T]: T[K] extends Record<string, number> ? { [C in keyof T[K]]: LimitSource } : LimitSource };
@@ -163,8 +168,8 @@ export const LIMIT_SOURCES: { [O in WeatherOperation]: SourcesOf<WeatherLimits[O
     deltaTCautionMaxC: DELTA_T_SOURCE,
     inversionWindKmh: INVERSION_SOURCE,
     inversionCloudMaxPct: INVERSION_SOURCE,
-    inversionFromHour: INVERSION_SOURCE,
-    inversionUntilHour: INVERSION_SOURCE,
+    inversionBeforeSunsetHours: INVERSION_HOURS_SOURCE,
+    inversionAfterSunriseHours: INVERSION_HOURS_SOURCE,
   },
   swathing: {
     blocking: BLOCKING_SOURCE,

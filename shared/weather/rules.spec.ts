@@ -2,9 +2,12 @@ import { mphToKmh } from '../units';
 import { boundaryCentre, gridCellOf } from './grid';
 import { DEFAULT_LIMITS, LIMIT_SOURCES, SPRAY_LABEL_CAUTION, seedCropOf, WEATHER_OPERATIONS } from './limits';
 import { judgeHarrowing, judgeHarvest, judgeHour, judgeSeeding, judgeSpraying, judgeWindow, type WeatherHour } from './rules';
+import { sunDayAt } from './sun';
 import { deltaTC } from './wet-bulb';
 
 const L = DEFAULT_LIMITS;
+/** The forecast point of the hours below: 50° N, 100° W (the farm's clock is UTC−5 in May). */
+const PLACE = { latitude: 50, longitude: -100 };
 
 /** A day of hours that are good for everything, from midnight at UTC−5; `change` edits some. */
 function day(change: Record<number, Partial<WeatherHour>> = {}): WeatherHour[] {
@@ -26,39 +29,39 @@ function day(change: Record<number, Partial<WeatherHour>> = {}): WeatherHour[] {
 
 describe('the good day used below', () => {
   it('when nothing is changed, then every operation is go (the spraying verdict keeps only the label caution)', () => {
-    const v = judgeHour(day(), 10, L, 'us', 'canola');
+    const v = judgeHour(day(), 10, L, 'us', 'canola', PLACE);
     for (const op of WEATHER_OPERATIONS) expect(v[op].verdict).toBe('go');
     expect(v.spraying.reasons).toEqual([SPRAY_LABEL_CAUTION]);
   });
 });
 
 describe('spraying', () => {
-  const spray = (h: Record<number, Partial<WeatherHour>>, i = 10) => judgeSpraying(day(h), i, L.spraying, 'us');
+  const spray = (h: Record<number, Partial<WeatherHour>>, i = 10) => judgeSpraying(day(h), i, L.spraying, 'us', PLACE);
 
   it('when wind is exactly 10 mph, then go; just over, then no-go with the reason in words (labels as reported by extension: 3–10 mph)', () => {
     expect(spray({ 10: { windSpeedKmh: mphToKmh(10) } }).verdict).toBe('go');
     const over = spray({ 10: { windSpeedKmh: mphToKmh(10.1) } });
     expect(over.verdict).toBe('no-go');
-    expect(over.reasons[0]).toBe('wind 10.1 mph at 10:00, above the spraying limit of 10 mph');
+    expect(over.reasons[0]).toBe('wind 10.1 mph at 10:00, above the spraying limit of 10.0 mph');
   });
 
   it('when wind is exactly 3 mph, then go; just under, then no-go (labels as reported by extension; NPSA "Evaluate the Weather": not under 3 mph)', () => {
     expect(spray({ 10: { windSpeedKmh: mphToKmh(3) } }).verdict).toBe('go');
     const under = spray({ 10: { windSpeedKmh: mphToKmh(2.9) } });
     expect(under.verdict).toBe('no-go');
-    expect(under.reasons[0]).toBe('wind 2.9 mph at 10:00, below the spraying minimum of 3 mph');
+    expect(under.reasons[0]).toBe('wind 2.9 mph at 10:00, below the spraying minimum of 3.0 mph');
   });
 
   it('when gusts pass the limit while the mean wind is inside it, then caution (common practice, no published source)', () => {
     const v = spray({ 10: { windGustKmh: mphToKmh(15) } });
     expect(v.verdict).toBe('caution');
-    expect(v.reasons[0]).toMatch(/^gusts 15 mph at 10:00/);
+    expect(v.reasons[0]).toMatch(/^gusts 15.0 mph at 10:00/);
   });
 
   it('when rain comes exactly 4 h after the hour, then no-go; 5 h after, then go (rain-free hours: common practice, no published source)', () => {
     const at4 = spray({ 14: { precipitationMm: 0.2 } });
     expect(at4.verdict).toBe('no-go');
-    expect(at4.reasons[0]).toBe('rain 0.01 in at 14:00, within 4 h of spraying at 10:00');
+    expect(at4.reasons[0]).toBe('rain 0.01 in at 14:00, within 4.0 h of spraying at 10:00');
     expect(spray({ 15: { precipitationMm: 5 } }).verdict).toBe('go');
     // Just under the amount that counts as rain.
     expect(spray({ 12: { precipitationMm: 0.19 } }).verdict).toBe('go');
@@ -67,18 +70,20 @@ describe('spraying', () => {
   it('when Delta T is in the bands, then 2–8 go, 8–10 caution, over 10 or under 2 no-go (GRDC spray-application guidance, from memory)', () => {
     // Delta T of 20 °C and 50 % is 6.3 °C (Stull 2011 worked example): exactly at a good limit of 6.3 → go, just above → caution.
     const dt = deltaTC(20, 50);
-    const at = judgeSpraying(day(), 10, { ...L.spraying, deltaTGoodMaxC: dt }, 'metric');
+    const at = judgeSpraying(day(), 10, { ...L.spraying, deltaTGoodMaxC: dt }, 'metric', PLACE);
     expect(at.verdict).toBe('go');
-    const over = judgeSpraying(day(), 10, { ...L.spraying, deltaTGoodMaxC: dt - 0.01 }, 'metric');
+    const over = judgeSpraying(day(), 10, { ...L.spraying, deltaTGoodMaxC: dt - 0.01 }, 'metric', PLACE);
     expect(over.verdict).toBe('caution');
     expect(over.reasons[0]).toMatch(/^Delta T 6.3 °C at 10:00, over 6.3 °C/);
     // The same at the no-go edges.
-    expect(judgeSpraying(day(), 10, { ...L.spraying, deltaTCautionMaxC: dt, deltaTGoodMaxC: dt - 1 }, 'metric').verdict).toBe('caution');
-    expect(judgeSpraying(day(), 10, { ...L.spraying, deltaTCautionMaxC: dt - 0.01, deltaTGoodMaxC: dt - 1 }, 'metric').verdict).toBe(
+    expect(judgeSpraying(day(), 10, { ...L.spraying, deltaTCautionMaxC: dt, deltaTGoodMaxC: dt - 1 }, 'metric', PLACE).verdict).toBe(
+      'caution',
+    );
+    expect(judgeSpraying(day(), 10, { ...L.spraying, deltaTCautionMaxC: dt - 0.01, deltaTGoodMaxC: dt - 1 }, 'metric', PLACE).verdict).toBe(
       'no-go',
     );
-    expect(judgeSpraying(day(), 10, { ...L.spraying, deltaTMinC: dt }, 'metric').verdict).toBe('go');
-    expect(judgeSpraying(day(), 10, { ...L.spraying, deltaTMinC: dt + 0.01 }, 'metric').verdict).toBe('no-go');
+    expect(judgeSpraying(day(), 10, { ...L.spraying, deltaTMinC: dt }, 'metric', PLACE).verdict).toBe('go');
+    expect(judgeSpraying(day(), 10, { ...L.spraying, deltaTMinC: dt + 0.01 }, 'metric', PLACE).verdict).toBe('no-go');
     // With the default bands: hot and dry (30 °C, 20 %) is over 10; humid (15 °C, 92 %) is under 2.
     expect(deltaTC(30, 20)).toBeGreaterThan(10);
     expect(spray({ 10: { temperatureC: 30, relativeHumidityPct: 20 } }).verdict).toBe('no-go');
@@ -86,18 +91,84 @@ describe('spraying', () => {
     expect(spray({ 10: { temperatureC: 15, relativeHumidityPct: 92 } }).verdict).toBe('no-go');
   });
 
-  it('when wind is light under clear sky from late afternoon to mid-morning, then inversion risk (common practice, no published source)', () => {
+  describe('inversion risk: wind under 3 mph with clear sky from 2 h before sunset to 2 h after sunrise at the field (common practice, no published source)', () => {
     const calmClear = { windSpeedKmh: mphToKmh(2), cloudCoverPct: 30 };
-    const evening = spray({ 18: calmClear }, 18);
-    expect(evening.verdict).toBe('no-go');
-    expect(evening.reasons[0]).toMatch(/^inversion risk at 18:00: wind 2 mph under clear sky \(30 % cloud\)/);
-    // 16:00 is the first hour of the window and 09:00 the last; 10:00 and 15:00 are outside.
-    expect(spray({ 16: calmClear }, 16).reasons[0]).toMatch(/^inversion risk/);
-    expect(spray({ 9: calmClear }, 9).reasons[0]).toMatch(/^inversion risk/);
-    expect(spray({ 10: calmClear }, 10).reasons[0]).toMatch(/^wind 2 mph at 10:00, below/);
-    expect(spray({ 15: calmClear }, 15).reasons[0]).toMatch(/^wind 2 mph at 15:00, below/);
-    // Cloud just over the clear-sky limit: no inversion reason.
-    expect(spray({ 18: { ...calmClear, cloudCoverPct: 31 } }, 18).reasons.some((r) => r.startsWith('inversion'))).toBe(false);
+    const MIN = 60_000;
+    const H = 3_600_000;
+    /** An instant written on a clock `offsetH` hours from UTC, as the forecast hours are: 2026-06-21T19:52:00-05:00. */
+    const onClock = (ms: number, offsetH: number, to: 'up' | 'nearest' = 'up') => {
+      // Up to the whole minute, so an instant on or after a limit stays on or after it.
+      const whole = (to === 'up' ? Math.ceil(ms / MIN) : Math.round(ms / MIN)) * MIN;
+      const local = new Date(whole + offsetH * H).toISOString().slice(0, 19);
+      return `${local}${offsetH < 0 ? '-' : '+'}${String(Math.abs(offsetH)).padStart(2, '0')}:00`;
+    };
+    /** The spraying verdict of one calm, clear hour at `time` (its neighbours good). */
+    const sprayAt = (time: string) => {
+      const hours = day({ 10: { ...calmClear, time } });
+      return judgeSpraying(hours, 10, L.spraying, 'us', PLACE);
+    };
+    const inversion = (time: string) => sprayAt(time).reasons.find((r) => r.startsWith('inversion risk'));
+    // Sunrise and sunset at 50° N, 100° W, from suncalc (checked against the NOAA equations in sun.spec.ts).
+    const june = sunDayAt(Date.parse('2026-06-21T18:40:00Z'), PLACE);
+    const december = sunDayAt(Date.parse('2026-12-21T18:40:00Z'), PLACE);
+
+    it('when the hour is a minute before or at 2 h before sunset, then outside and inside, with the sunset named on the farm’s clock', () => {
+      const from = june.sunset! - 2 * H;
+      expect(inversion(onClock(from - MIN, -5))).toBeUndefined();
+      const at = onClock(from, -5);
+      expect(inversion(at)).toBe(
+        `inversion risk at ${at.slice(11, 16)}: wind 2.0 mph under clear sky (30 % cloud), from 2.0 h before sunset (${onClock(june.sunset!, -5, 'nearest').slice(11, 16)})`,
+      );
+      expect(sprayAt(at).verdict).toBe('no-go');
+    });
+
+    it('when the hour is a minute before or at 2 h after sunrise, then inside and outside', () => {
+      const until = sunDayAt(june.sunrise! + 24 * H, PLACE).sunrise! + 2 * H;
+      expect(inversion(onClock(until - MIN, -5))).toMatch(/, until 2.0 h after sunrise \(0\d:\d\d\)$/);
+      expect(inversion(onClock(until, -5))).toBeUndefined();
+    });
+
+    it('when it is a June day at 50° N, then 17:00 and 19:00 are not yet inversion hours and 08:00 no longer is (sunset near 21:50, sunrise near 05:30)', () => {
+      // The farm's clock in June is UTC−5; the hours a fixed 16:00–10:00 window would have flagged.
+      expect(onClock(june.sunset!, -5, 'nearest').slice(11, 16)).toMatch(/^21:5\d$/);
+      for (const t of [
+        '2026-06-21T17:00:00-05:00',
+        '2026-06-21T19:00:00-05:00',
+        '2026-06-22T08:00:00-05:00',
+        '2026-06-22T09:00:00-05:00',
+      ]) {
+        expect(inversion(t)).toBeUndefined();
+        // Still no-go, for the wind under the spraying minimum.
+        expect(sprayAt(t).reasons[0]).toMatch(/^wind 2.0 mph at \d\d:00, below the spraying minimum/);
+      }
+      for (const t of ['2026-06-21T20:00:00-05:00', '2026-06-22T02:00:00-05:00', '2026-06-22T07:00:00-05:00'])
+        expect(inversion(t)).toMatch(/^inversion risk/);
+    });
+
+    it('when it is a December day at 50° N, then 15:00 is already an inversion hour (sunset near 16:50 on a UTC−6 clock)', () => {
+      expect(onClock(december.sunset!, -6, 'nearest').slice(11, 16)).toMatch(/^16:[45]\d$/);
+      expect(inversion('2026-12-21T15:00:00-06:00')).toMatch(/^inversion risk at 15:00: .*from 2.0 h before sunset \(16:[45]\d\)$/);
+      expect(inversion('2026-12-21T14:00:00-06:00')).toBeUndefined();
+    });
+
+    it('when the cloud is just over the clear-sky limit or the wind reaches 3 mph, then no inversion reason', () => {
+      const night = '2026-06-21T23:00:00-05:00';
+      expect(inversion(night)).toMatch(/^inversion risk/);
+      expect(
+        judgeSpraying(day({ 10: { ...calmClear, cloudCoverPct: 31, time: night } }), 10, L.spraying, 'us', PLACE).reasons[0],
+      ).not.toMatch(/^inversion/);
+      expect(
+        judgeSpraying(day({ 10: { windSpeedKmh: mphToKmh(3), cloudCoverPct: 0, time: night } }), 10, L.spraying, 'us', PLACE).reasons[0],
+      ).not.toMatch(/^inversion/);
+    });
+
+    it('when the owner sets 0 h, then the window is sunset to sunrise', () => {
+      const lim = { ...L.spraying, inversionBeforeSunsetHours: 0, inversionAfterSunriseHours: 0 };
+      const judge = (ms: number) =>
+        judgeSpraying(day({ 10: { ...calmClear, time: onClock(ms, -5) } }), 10, lim, 'us', PLACE).reasons[0].startsWith('inversion');
+      expect(judge(june.sunset! - MIN)).toBe(false);
+      expect(judge(june.sunset!)).toBe(true);
+    });
   });
 
   it('when any spraying verdict is given, then the label caution goes with it, last', () => {
@@ -110,8 +181,8 @@ describe('spraying', () => {
   });
 
   it('when the farm is metric, then the reason is in km/h', () => {
-    expect(judgeSpraying(day({ 10: { windSpeedKmh: 20 } }), 10, L.spraying, 'metric').reasons[0]).toBe(
-      'wind 20 km/h at 10:00, above the spraying limit of 16.1 km/h',
+    expect(judgeSpraying(day({ 10: { windSpeedKmh: 20 } }), 10, L.spraying, 'metric', PLACE).reasons[0]).toBe(
+      'wind 20.0 km/h at 10:00, above the spraying limit of 16.1 km/h',
     );
   });
 });
@@ -127,7 +198,7 @@ describe('harrowing straw (common practice, no published source; the owner sets 
   it('when it rained 6 h before, then no-go (straw wet); 7 h before, then go', () => {
     const v = harrow({ 4: { precipitationMm: 1 } });
     expect(v.verdict).toBe('no-go');
-    expect(v.reasons[0]).toBe('straw still wet at 10:00 from rain at 04:00 (within 6 h)');
+    expect(v.reasons[0]).toBe('straw still wet at 10:00 from rain at 04:00 (within 6.0 h)');
     expect(harrow({ 3: { precipitationMm: 1 } }).verdict).toBe('go');
   });
 
@@ -139,7 +210,7 @@ describe('harrowing straw (common practice, no published source; the owner sets 
   it('when colder than 5 °C, then caution; exactly 5 °C, then go', () => {
     const cold = harrow({ 10: { temperatureC: 4.9, dewPointC: -5 } });
     expect(cold.verdict).toBe('caution');
-    expect(cold.reasons[0]).toBe('cold at 10:00: 4.9 °C, under 5 °C; straw stays tough');
+    expect(cold.reasons[0]).toBe('cold at 10:00: 4.9 °C, under 5.0 °C; straw stays tough');
     expect(harrow({ 10: { temperatureC: 5, dewPointC: -5 } }).verdict).toBe('go');
   });
 });
@@ -152,7 +223,7 @@ describe('seeding', () => {
     expect(seed({ 10: { soilTemperatureC: 5 } }).verdict).toBe('go');
     const cold = seed({ 10: { soilTemperatureC: 4.99 } });
     expect(cold.verdict).toBe('no-go');
-    expect(cold.reasons[0]).toBe('soil 41 °F at 10:00, under the canola minimum of 41 °F');
+    expect(cold.reasons[0]).toBe('soil 41.0 °F at 10:00, under the canola minimum of 41.0 °F');
   });
 
   it('when the crop is barley, then its own minimum of 3 °C applies (from memory)', () => {
@@ -202,9 +273,9 @@ describe('swathing and combining (common practice, no published source; the owne
 describe('a window of hours', () => {
   it('when one hour is no-go, then the window is no-go with that hour’s reason first and the label caution last', () => {
     const hours = day({ 14: { windSpeedKmh: mphToKmh(14) } });
-    const v = judgeWindow([10, 12, 14, 16].map((i) => judgeSpraying(hours, i, L.spraying, 'us')));
+    const v = judgeWindow([10, 12, 14, 16].map((i) => judgeSpraying(hours, i, L.spraying, 'us', PLACE)));
     expect(v.verdict).toBe('no-go');
-    expect(v.reasons[0]).toBe('wind 14 mph at 14:00, above the spraying limit of 10 mph');
+    expect(v.reasons[0]).toBe('wind 14.0 mph at 14:00, above the spraying limit of 10.0 mph');
     expect(v.reasons[v.reasons.length - 1]).toBe(SPRAY_LABEL_CAUTION);
   });
 

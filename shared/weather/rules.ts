@@ -5,7 +5,7 @@
 // Precipitation of an hour is the forecast's sum over the hour before its time (as the forecast
 // service gives it), so "rain at 14:00" is rain between 13:00 and 14:00.
 import type { UnitSystem } from '../schemas/auth';
-import { roundTo } from '../round';
+import { formatHours, formatPercent, formatRain, formatTemperature, formatTemperatureDifference, formatWind } from '../figures';
 import {
   SPRAY_LABEL_CAUTION,
   type HarrowingLimits,
@@ -17,6 +17,7 @@ import {
   type WeatherOperation,
   WEATHER_OPERATIONS,
 } from './limits';
+import { inversionHours, type InversionHours, type Place } from './sun';
 import { deltaTC } from './wet-bulb';
 
 /** One forecast hour as the rules read it (the API's hour without its verdicts). */
@@ -46,20 +47,18 @@ const RANK: Record<VerdictLevel, number> = { go: 0, caution: 1, 'no-go': 2 };
 
 /** The hour of a time written with its offset: "10:00" of 2026-05-14T10:00:00-05:00 (the farm's clock). */
 export const clockOf = (time: string): string => time.slice(11, 16);
-/** The local hour (0–23) of a time written with its offset. */
-export const localHourOf = (time: string): number => Number(time.slice(11, 13));
+/** An instant (ms) on the clock of a time written with its offset ("+02:00", "-05:00" or "Z"): "21:32". */
+export function clockAt(ms: number, time: string): string {
+  const m = /([+-])(\d\d):(\d\d)$/.exec(time);
+  const offsetMin = m ? (m[1] === '-' ? -1 : 1) * (Number(m[2]) * 60 + Number(m[3])) : 0;
+  return new Date(Math.round((ms + offsetMin * 60_000) / 60_000) * 60_000).toISOString().slice(11, 16);
+}
 
-const num = (n: number, digits = 1): string => String(roundTo(n, digits));
-const KMH_PER_MPH = 1.609344;
-/** A speed in the farm's units. */
-export const speedText = (kmh: number, units: UnitSystem): string =>
-  units === 'us' ? `${num(kmh / KMH_PER_MPH)} mph` : `${num(kmh)} km/h`;
-/** A temperature in the farm's units. */
-export const temperatureText = (c: number, units: UnitSystem): string => (units === 'us' ? `${num((c * 9) / 5 + 32)} °F` : `${num(c)} °C`);
-/** A temperature difference in the farm's units. */
-export const differenceText = (c: number, units: UnitSystem): string => (units === 'us' ? `${num((c * 9) / 5)} °F` : `${num(c)} °C`);
-/** A rain amount in the farm's units. */
-export const rainText = (mm: number, units: UnitSystem): string => (units === 'us' ? `${num(mm / 25.4, 2)} in` : `${num(mm)} mm`);
+/** Every figure in a reason is written by shared/figures.ts, as the screens write the forecast hours. */
+const speedText = formatWind;
+const temperatureText = formatTemperature;
+const differenceText = formatTemperatureDifference;
+const rainText = formatRain;
 
 /** Collects reasons by level and gives the verdict: the worst level, its reasons first. */
 class Judgement {
@@ -85,24 +84,32 @@ function rainBefore(hours: readonly WeatherHour[], i: number, hoursBack: number,
   return null;
 }
 
+/** Why the hour is in the inversion window, with the sun's time on the hour's own clock. */
+function inversionWhen(when: Exclude<InversionHours, { inside: false }>, time: string, lim: SprayingLimits): string {
+  if (when.side === 'polar-night') return 'the sun does not rise today';
+  if (when.side === 'evening') return `from ${formatHours(lim.inversionBeforeSunsetHours)} before sunset (${clockAt(when.sunset, time)})`;
+  return `until ${formatHours(lim.inversionAfterSunriseHours)} after sunrise (${clockAt(when.sunrise, time)})`;
+}
+
 /**
  * Spraying: wind inside the label window, no rain from the hour through `rainFreeHours` after it,
- * Delta T in the good band, no inversion risk. Always ends with SPRAY_LABEL_CAUTION.
+ * Delta T in the good band, no inversion risk (light wind under clear sky from some hours before
+ * sunset at `place` until some hours after sunrise). Always ends with SPRAY_LABEL_CAUTION.
  */
-export function judgeSpraying(hours: readonly WeatherHour[], i: number, lim: SprayingLimits, units: UnitSystem): Verdict {
+export function judgeSpraying(hours: readonly WeatherHour[], i: number, lim: SprayingLimits, units: UnitSystem, place: Place): Verdict {
   const h = hours[i];
   const at = clockOf(h.time);
   const j = new Judgement();
   const wind = h.windSpeedKmh;
   if (wind === null) j.careful(`no wind forecast at ${at}`);
   else {
-    const localHour = localHourOf(h.time);
-    const evening =
-      lim.inversionFromHour > lim.inversionUntilHour
-        ? localHour >= lim.inversionFromHour || localHour < lim.inversionUntilHour
-        : localHour >= lim.inversionFromHour && localHour < lim.inversionUntilHour;
-    if (wind < lim.inversionWindKmh && h.cloudCoverPct !== null && h.cloudCoverPct <= lim.inversionCloudMaxPct && evening)
-      j.no(`inversion risk at ${at}: wind ${speedText(wind, units)} under clear sky (${num(h.cloudCoverPct, 0)} % cloud)`);
+    if (wind < lim.inversionWindKmh && h.cloudCoverPct !== null && h.cloudCoverPct <= lim.inversionCloudMaxPct) {
+      const when = inversionHours(Date.parse(h.time), place, lim.inversionBeforeSunsetHours, lim.inversionAfterSunriseHours);
+      if (when.inside)
+        j.no(
+          `inversion risk at ${at}: wind ${speedText(wind, units)} under clear sky (${formatPercent(h.cloudCoverPct)} cloud), ${inversionWhen(when, h.time, lim)}`,
+        );
+    }
     if (wind > lim.windMaxKmh)
       j.no(`wind ${speedText(wind, units)} at ${at}, above the spraying limit of ${speedText(lim.windMaxKmh, units)}`);
     else if (wind < lim.windMinKmh)
@@ -115,7 +122,9 @@ export function judgeSpraying(hours: readonly WeatherHour[], i: number, lim: Spr
   for (let k = i; k <= i + lim.rainFreeHours && k < hours.length; k++) {
     const r = hours[k];
     if (isRain(r, lim.rainMm)) {
-      j.no(`rain ${rainText(r.precipitationMm!, units)} at ${clockOf(r.time)}, within ${lim.rainFreeHours} h of spraying at ${at}`);
+      j.no(
+        `rain ${rainText(r.precipitationMm!, units)} at ${clockOf(r.time)}, within ${formatHours(lim.rainFreeHours)} of spraying at ${at}`,
+      );
       rainSeen = true;
       break;
     }
@@ -124,7 +133,9 @@ export function judgeSpraying(hours: readonly WeatherHour[], i: number, lim: Spr
     for (let k = i; k <= i + lim.rainFreeHours && k < hours.length; k++) {
       const p = hours[k].precipitationProbabilityPct;
       if (p !== null && p >= lim.rainChanceCautionPct) {
-        j.careful(`${num(p, 0)} % chance of rain at ${clockOf(hours[k].time)}, within ${lim.rainFreeHours} h of spraying at ${at}`);
+        j.careful(
+          `${formatPercent(p)} chance of rain at ${clockOf(hours[k].time)}, within ${formatHours(lim.rainFreeHours)} of spraying at ${at}`,
+        );
         break;
       }
     }
@@ -150,7 +161,7 @@ export function judgeHarrowing(hours: readonly WeatherHour[], i: number, lim: Ha
   if (isRain(h, lim.rainMm)) j.no(`rain ${rainText(h.precipitationMm!, units)} at ${at}: wet straw does not spread`);
   else {
     const before = rainBefore(hours, i, lim.wetAfterRainHours, lim.rainMm);
-    if (before) j.no(`straw still wet at ${at} from rain at ${clockOf(before.time)} (within ${lim.wetAfterRainHours} h)`);
+    if (before) j.no(`straw still wet at ${at} from rain at ${clockOf(before.time)} (within ${formatHours(lim.wetAfterRainHours)})`);
   }
   if (h.temperatureC !== null && h.dewPointC !== null && h.temperatureC - h.dewPointC <= lim.dewSpreadC)
     j.no(`dew on the straw at ${at}: air ${temperatureText(h.temperatureC, units)}, dew point ${temperatureText(h.dewPointC, units)}`);
@@ -198,10 +209,12 @@ export function judgeHarvest(
   if (isRain(h, lim.rainMm)) j.no(`rain ${rainText(h.precipitationMm!, units)} at ${at}: no ${operation} in rain`);
   else {
     const before = rainBefore(hours, i, lim.afterRainHours, lim.rainMm);
-    if (before) j.no(`crop still wet at ${at} from rain at ${clockOf(before.time)} (within ${lim.afterRainHours} h)`);
+    if (before) j.no(`crop still wet at ${at} from rain at ${clockOf(before.time)} (within ${formatHours(lim.afterRainHours)})`);
   }
   if (h.relativeHumidityPct !== null && h.relativeHumidityPct >= lim.humidityCautionPct)
-    j.careful(`humidity ${num(h.relativeHumidityPct, 0)} % at ${at}, at or above ${num(lim.humidityCautionPct, 0)} %: crop may be tough`);
+    j.careful(
+      `humidity ${formatPercent(h.relativeHumidityPct)} at ${at}, at or above ${formatPercent(lim.humidityCautionPct)}: crop may be tough`,
+    );
   if (h.temperatureC !== null && h.dewPointC !== null && h.temperatureC - h.dewPointC <= lim.dewSpreadC)
     j.careful(`dew likely at ${at}: air ${temperatureText(h.temperatureC, units)}, dew point ${temperatureText(h.dewPointC, units)}`);
   return j.verdict();
@@ -209,21 +222,45 @@ export function judgeHarvest(
 
 export type Verdicts = Record<WeatherOperation, Verdict>;
 
-/** Every operation's verdict for hour `i`. `crop`: the field's crop this season, for seeding. */
+/**
+ * One operation's verdict for hour `i`. `crop`: the field's crop this season, for seeding;
+ * `place`: the forecast point, whose sunrise and sunset bound spraying's inversion hours.
+ */
+export function judgeOperation(
+  operation: WeatherOperation,
+  hours: readonly WeatherHour[],
+  i: number,
+  limits: WeatherLimits,
+  units: UnitSystem,
+  crop: SeedCrop | null,
+  place: Place,
+): Verdict {
+  switch (operation) {
+    case 'harrowing':
+      return judgeHarrowing(hours, i, limits.harrowing, units);
+    case 'seeding':
+      return judgeSeeding(hours, i, limits.seeding, units, crop);
+    case 'spraying':
+      return judgeSpraying(hours, i, limits.spraying, units, place);
+    case 'swathing':
+      return judgeHarvest(hours, i, limits.swathing, units, 'swathing');
+    case 'combining':
+      return judgeHarvest(hours, i, limits.combining, units, 'combining');
+  }
+}
+
+/** Every operation's verdict for hour `i` (see judgeOperation). */
 export function judgeHour(
   hours: readonly WeatherHour[],
   i: number,
   limits: WeatherLimits,
   units: UnitSystem,
   crop: SeedCrop | null,
+  place: Place,
 ): Verdicts {
-  return {
-    harrowing: judgeHarrowing(hours, i, limits.harrowing, units),
-    seeding: judgeSeeding(hours, i, limits.seeding, units, crop),
-    spraying: judgeSpraying(hours, i, limits.spraying, units),
-    swathing: judgeHarvest(hours, i, limits.swathing, units, 'swathing'),
-    combining: judgeHarvest(hours, i, limits.combining, units, 'combining'),
-  };
+  const v = {} as Verdicts;
+  for (const op of WEATHER_OPERATIONS) v[op] = judgeOperation(op, hours, i, limits, units, crop, place);
+  return v;
 }
 
 /**

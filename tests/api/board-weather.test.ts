@@ -9,6 +9,9 @@ import { makeFarm, type TestFarm } from '../support/farm-factory';
 import { rect } from '../support/geo-fixtures';
 import { Client, startTestApp, type TestApp } from '../support/test-app';
 import { insertImplement, insertMachine } from './matrix/board';
+import { effectiveCapacityAcPerH } from '../../shared/plan/field-capacity';
+import { implementDefaults } from '../../shared/plan/implement-defaults';
+import { mpsToMph } from '../../shared/units';
 
 let t: TestApp;
 beforeAll(async () => {
@@ -96,7 +99,7 @@ describe('the board with weather', () => {
 
   it('when no forecast is stored yet, then the board answers 200 with no verdict, no strip and no weather conflict', async () => {
     const b = await boardOf(s);
-    expect(b.weather).toEqual({ cards: [], strip: null });
+    expect(b.weather).toEqual({ cards: [], strip: null, note: null });
     expect(b.conflicts.filter((c) => c.code === 'weather_no_go')).toEqual([]);
   });
 
@@ -108,15 +111,15 @@ describe('the board with weather', () => {
     // The scenario's afternoon wind, 30 km/h, starts at 12:00 by the sun: 14:00 at the farm (UTC−5, −101.5° → sun 1.77 h behind
     // the clock). 30 km/h ÷ 1.609344 km/h per mile (international mile, 1959 yard and pound agreement) = 18.6 mph, over the
     // 10 mph label window (National Pesticide Stewardship Alliance, "Evaluate the Weather").
-    expect(card.reason).toBe('wind 18.6 mph at 14:00, above the spraying limit of 10 mph');
-    expect(card.reasons).toContain('wind 18.6 mph at 15:00, above the spraying limit of 10 mph');
+    expect(card.reason).toBe('wind 18.6 mph at 14:00, above the spraying limit of 10.0 mph');
+    expect(card.reasons).toContain('wind 18.6 mph at 15:00, above the spraying limit of 10.0 mph');
     // 16:00 is the window's end: its hour is not judged.
     expect(card.reasons.join(' ')).not.toContain('at 16:00');
     expect(b.conflicts.filter((c) => c.code === 'weather_no_go')).toEqual([
       {
         code: 'weather_no_go',
         severity: 'soft',
-        message: 'Weather no-go for Coulee quarter spraying over 10:00–16:00: wind 18.6 mph at 14:00, above the spraying limit of 10 mph',
+        message: 'Weather no-go for Coulee quarter spraying over 10:00–16:00: wind 18.6 mph at 14:00, above the spraying limit of 10.0 mph',
         assignmentIds: [spray],
       },
     ]);
@@ -176,7 +179,8 @@ describe('stale and missing forecasts', () => {
     const card = (await boardOf(s)).weather.cards.find((c) => c.assignmentId === spray)!;
     expect(card).toMatchObject({ verdict: 'no-go', stale: true, fetchedAt: fetched.toISOString() });
     expect(card.ageMinutes).toBeGreaterThanOrEqual(180);
-    expect(card.staleReason).toMatch(/^Forecast from 3(\.\d)? h ago: no newer forecast has arrived$/);
+    // Written as every hour figure is (shared/figures.ts): one decimal, the same on the card and the run sheet.
+    expect(card.staleReason).toBe('Forecast from 3.0 h ago: no newer forecast has arrived');
     expect(card.staleAfter).toBe(new Date(fetched.getTime() + 2 * 3_600_000).toISOString());
   });
 
@@ -193,12 +197,18 @@ describe('stale and missing forecasts', () => {
     expect(b.weather.strip!.stale).toBe(true);
   });
 
-  it('when the day is beyond the stored forecast, then its cards have no verdict and the board answers', async () => {
+  it('when the day is beyond the stored forecast, then its cards have no verdict, the board answers and says forecasts reach 7 days ahead', async () => {
     const s = await setUp('Board weather far');
     await addCard(s, { operation: 'spraying', implementId: s.sprayer, startTime: '10:00', endTime: '16:00' }, '2026-06-20');
     await refresh(s.farm.id);
     const b = await boardOf(s, '2026-06-20');
-    expect(b.weather).toEqual({ cards: [], strip: null });
+    // The fake's 7 days from 2026-05-14 end on 2026-05-20: the board says why there is no weather.
+    expect(b.weather).toEqual({ cards: [], strip: null, note: 'No forecast yet: forecasts reach 7 days ahead' });
+    // The forecast's last day still has its strip and no such line.
+    await addCard(s, { operation: 'spraying', implementId: s.sprayer, startTime: '10:00', endTime: '16:00' }, '2026-05-20');
+    const last = await boardOf(s, '2026-05-20');
+    expect(last.weather.strip).not.toBeNull();
+    expect(last.weather.note).toBeNull();
   });
 
   it('when the weather tables cannot be read, then the board still answers 200 with its cards and no verdicts', async () => {
@@ -214,7 +224,7 @@ describe('stale and missing forecasts', () => {
         .update({ name: `${s.farm.name} ` });
       const b = await boardOf(s);
       expect(b.assignments).toHaveLength(1);
-      expect(b.weather).toEqual({ cards: [], strip: null });
+      expect(b.weather).toEqual({ cards: [], strip: null, note: null });
     } finally {
       await t.db.raw('ALTER TABLE weather_hours_away RENAME TO weather_hours');
     }
@@ -229,5 +239,27 @@ describe('the next day with work', () => {
     expect((await boardOf(s, '2026-12-03')).nextDayWithWork).toBe('2027-04-20');
     expect((await boardOf(s, '2027-04-20')).nextDayWithWork).toBe('2027-05-02');
     expect((await boardOf(s, '2027-05-02')).nextDayWithWork).toBeNull();
+  });
+});
+
+describe('the board with weather: a card given only a start', () => {
+  it('when a spraying card starts at 08:00 and runs 4 h, then it is judged over 08:00–12:00 (its own hours), as the run sheet reads it', async () => {
+    t.weather.mode = 'ok';
+    t.weather.now = NOW;
+    t.weather.scenario = 'windy-afternoon';
+    const s = await setUp('Board weather start only');
+    // Acres for 4 h at the 120 ft boom's effective field capacity (width × speed × efficiency ÷ 8.25, ASABE EP496 /
+    // Iowa State AEN-73): the card ends at 12:00 with no end time set.
+    const d = implementDefaults('sprayer');
+    const acresPlanned = Math.round(4 * effectiveCapacityAcPerH(120, mpsToMph(d.speedMps), d.efficiency) * 100) / 100;
+    const spray = await addCard(s, { operation: 'spraying', implementId: s.sprayer, startTime: '08:00', endTime: null, acresPlanned });
+    expect(await refresh(s.farm.id)).toMatchObject({ refreshed: 1, failed: 0 });
+    const b = await boardOf(s);
+    expect(b.assignments.find((a) => a.id === spray)).toMatchObject({ startTime: '08:00', endTime: '12:00' });
+    const card = b.weather.cards.find((c) => c.assignmentId === spray)!;
+    expect(card).toMatchObject({ from: '08:00', to: '12:00', over: 'card' });
+    // Its hours end before the scenario's windy afternoon (from 14:00 at the farm): no wind reason, no weather conflict.
+    expect(card.reasons.join(' ')).not.toContain('above the spraying limit');
+    expect(b.conflicts.filter((c) => c.code === 'weather_no_go')).toEqual([]);
   });
 });

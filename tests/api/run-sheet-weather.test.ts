@@ -8,6 +8,9 @@ import { makeFarm, type TestFarm } from '../support/farm-factory';
 import { rect } from '../support/geo-fixtures';
 import { Client, startTestApp, type TestApp } from '../support/test-app';
 import { insertImplement, insertMachine } from './matrix/board';
+import { effectiveCapacityAcPerH } from '../../shared/plan/field-capacity';
+import { implementDefaults } from '../../shared/plan/implement-defaults';
+import { mpsToMph } from '../../shared/units';
 
 let t: TestApp;
 beforeAll(async () => {
@@ -32,8 +35,13 @@ interface Setup {
   spray: number;
 }
 
+const SPRAY_TIMES = { startTime: '10:00', endTime: '16:00' };
+
 /** A farm (US units, America/Chicago) with a field near −101.5°, and a spraying job 10:00–16:00 on its operator's sheet. */
-async function setUp(label: string): Promise<Setup> {
+async function setUp(
+  label: string,
+  times: { startTime: string; endTime: string | null; acresPlanned?: number } = SPRAY_TIMES,
+): Promise<Setup> {
   const farm = await makeFarm(t.db, label);
   await t.db('farms').where({ id: farm.id }).update({ time_zone: 'America/Chicago', units: 'us', day_hours_limit: 12 });
   const owner = new Client(t.app);
@@ -64,8 +72,7 @@ async function setUp(label: string): Promise<Setup> {
     machineId: tractor,
     implementId: sprayer,
     operation: 'spraying',
-    startTime: '10:00',
-    endTime: '16:00',
+    ...times,
   });
   expect(res.status).toBe(201);
   return { farm, owner, operator, fieldId: f.id as number, spray: res.body.savedAssignmentId as number };
@@ -80,7 +87,7 @@ const sheetOf = async (c: Client): Promise<RunSheet> => {
 // The scenario's afternoon wind, 30 km/h, starts at 12:00 by the sun: 14:00 at the farm (UTC−5, −101.5° → sun 1.77 h behind the
 // clock). 30 km/h ÷ 1.609344 km/h per mile (international mile, 1959 yard and pound agreement) = 18.6 mph, over the 10 mph label
 // window (National Pesticide Stewardship Alliance, "Evaluate the Weather").
-const WINDY_REASON = 'wind 18.6 mph at 14:00, above the spraying limit of 10 mph';
+const WINDY_REASON = 'wind 18.6 mph at 14:00, above the spraying limit of 10.0 mph';
 
 describe('run sheet weather', () => {
   let s: Setup;
@@ -145,6 +152,39 @@ describe('run sheet weather', () => {
     // The run sheet shows it with the log.
     const again = (await sheetOf(s.operator)).assignments.find((a) => a.id === s.spray)!;
     expect(again.events.find((e) => e.id === entry.id)!.weather).toEqual(entry.weather);
+  });
+});
+
+describe('run sheet weather of a job given only a start', () => {
+  let s: Setup;
+  beforeAll(async () => {
+    // Acres for 4 h of spraying at the 120 ft boom's effective field capacity (width × speed × efficiency ÷ 8.25,
+    // ASABE EP496 / Iowa State AEN-73), so the job runs 08:00–12:00 with no end time set.
+    const d = implementDefaults('sprayer');
+    const acresPlanned = Math.round(4 * effectiveCapacityAcPerH(120, mpsToMph(d.speedMps), d.efficiency) * 100) / 100;
+    s = await setUp('Sheet weather start only', { startTime: '08:00', endTime: null, acresPlanned });
+    expect(await refreshFarmWeather(t.db, s.farm.id, { url: t.weather.url, now: fetchedNow() })).toMatchObject({ refreshed: 1, failed: 0 });
+  });
+
+  it('when a job starts at 08:00 and runs 4 h, then its weather is over 08:00–12:00 (its own hours), not the working day', async () => {
+    const job = (await sheetOf(s.operator)).assignments.find((a) => a.id === s.spray)!;
+    expect([job.startTime, job.endTime]).toEqual(['08:00', '12:00']);
+    const w = job.weather!;
+    expect(w).toMatchObject({ over: 'job', from: '08:00', to: '12:00' });
+    // 08:00 … 11:00: the window's end hour is not shown.
+    expect(w.hours.map((h) => h.time)).toEqual(['08', '09', '10', '11'].map((h) => `${DAY}T${h}:00:00-05:00`));
+  });
+
+  it('when that job is called off for weather before it starts, then the hour kept is one of its own hours, not the windy afternoon', async () => {
+    // 12:30 UTC is 07:30 at the farm: all of the job's hours are still ahead.
+    const res = await s.operator.post(`/api/assignments/${s.spray}/events`, {
+      type: 'call-off',
+      reason: 'weather',
+      at: '2026-05-14T12:30:00Z',
+    });
+    expect(res.status).toBe(201);
+    const entry = res.body.events.find((e: { type: string }) => e.type === 'call-off');
+    expect(['08', '09', '10', '11'].map((h) => `${DAY}T${h}:00:00-05:00`)).toContain(entry.weather.hour);
   });
 });
 

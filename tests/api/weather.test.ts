@@ -71,7 +71,7 @@ describe('weather: decoding and storing', () => {
       .where('weather_forecasts.farm_id', farm.id)
       .orderBy('time')
       .select('weather_hours.*');
-    const expected = scenarioHours('windy-afternoon', -101.5, NOW, 7, 'ms');
+    const expected = scenarioHours('windy-afternoon', { latitude: 50.1, longitude: -101.5 }, NOW, 7, 'ms');
     expect(rows).toHaveLength(168);
     expect(rows[0].time.toISOString()).toBe('2026-05-14T00:00:00.000Z');
     const names = Object.fromEntries(HOURLY.map((h) => [h.column, h.name])) as Record<string, keyof (typeof expected.hours)[0]>;
@@ -93,7 +93,7 @@ describe('weather: decoding and storing', () => {
     const h = body.hours.find((x) => x.time === '2026-05-14T15:00:00-05:00')!;
     expect(h.windSpeedKmh).toBe(30); // the scenario's 30 km/h, sent as m/s (8.333… as float32) and back
     expect(h.verdicts.spraying.verdict).toBe('no-go');
-    expect(h.verdicts.spraying.reasons[0]).toBe('wind 18.6 mph at 15:00, above the spraying limit of 10 mph');
+    expect(h.verdicts.spraying.reasons[0]).toBe('wind 18.6 mph at 15:00, above the spraying limit of 10.0 mph');
     expect(h.verdicts.spraying.reasons.at(-1)).toBe(SPRAY_LABEL_CAUTION);
     // Delta T from the stored temperature and humidity by Stull (2011), within its rounding.
     expect(h.deltaTC).not.toBeNull();
@@ -280,7 +280,7 @@ describe('weather: limits', () => {
     // 30 km/h is inside 35 km/h now; its 45 km/h gusts are not: caution, not no-go.
     expect(h.windSpeedKmh).toBe(30);
     expect(h.verdicts.spraying.verdict).toBe('caution');
-    expect(h.verdicts.spraying.reasons[0]).toBe('gusts 28 mph at 15:00, above the spraying limit of 21.7 mph');
+    expect(h.verdicts.spraying.reasons[0]).toBe('gusts 28.0 mph at 15:00, above the spraying limit of 21.7 mph');
   });
 
   it('when the limits make no sense, then 400 with the reason and nothing changes', async () => {
@@ -290,6 +290,28 @@ describe('weather: limits', () => {
     expect(res.status).toBe(400);
     expect(res.body.error.message).toMatch(/lowest wind must be below the highest/);
     expect((await owner.get('/api/weather/limits')).body.limits.spraying.windMaxKmh).toBe(35);
+  });
+
+  it('when limits were stored with the old clock-hour inversion window, then it is dropped and the hours around sunset and sunrise come in', async () => {
+    const other = await makeFarm(t.db, 'Weather old limits');
+    const reader = await signedIn(t.app, other.owner.email, other.owner.password);
+    const old = { ...(await reader.get('/api/weather/limits')).body.limits };
+    const { inversionBeforeSunsetHours: _b, inversionAfterSunriseHours: _a, ...rest } = old.spraying;
+    old.spraying = { ...rest, inversionFromHour: 16, inversionUntilHour: 10, windMaxKmh: 12 };
+    await t.db('weather_limits').insert({ farm_id: other.id, limits: JSON.stringify(old) });
+    const spraying = (await reader.get('/api/weather/limits')).body.limits.spraying;
+    expect(spraying.windMaxKmh).toBe(12);
+    expect(spraying).not.toHaveProperty('inversionFromHour');
+    expect(spraying).not.toHaveProperty('inversionUntilHour');
+    // The defaults: 2 h before sunset to 2 h after sunrise (common practice, no published source).
+    expect([spraying.inversionBeforeSunsetHours, spraying.inversionAfterSunriseHours]).toEqual([2, 2]);
+  });
+
+  it('when the owner sets more than 6 inversion hours after sunrise, then 400 naming the limit', async () => {
+    const limits = (await owner.get('/api/weather/limits')).body.limits;
+    const res = await owner.put('/api/weather/limits', { ...limits, spraying: { ...limits.spraying, inversionAfterSunriseHours: 7 } });
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields['spraying.inversionAfterSunriseHours']).toBe('The inversion hours after sunrise must be at most 6 hours');
   });
 
   it('when an operator tries to change them, then 403', async () => {

@@ -19,7 +19,8 @@ describe('Work board weather in a real browser', () => {
     const farm = await rig.t.db('farms').where({ name: 'Tamarack Ridge Farm' }).orderBy('id', 'desc').first();
     if (!farm) throw new Error('The demo farm is missing: run scripts/prepare-db.ts --reset-demo on the test database');
     farmId = farm.id;
-    day = await freeBoardDay(rig);
+    // May to September: the fake forecast follows the month, and the spraying season is when a windy afternoon is the one reason.
+    day = await freeBoardDay(rig, [5, 6, 7, 8, 9]);
   });
   afterAll(async () => {
     if (farmId && day) {
@@ -77,7 +78,7 @@ describe('Work board weather in a real browser', () => {
       expect(verdict.verdict).toBe('no-go');
       // The scenario's afternoon wind is 30 km/h = 18.6 mph (1 mi = 1.609344 km), over the 10 mph label window
       // (National Pesticide Stewardship Alliance, "Evaluate the Weather").
-      expect(verdict.reason).toMatch(/^wind 18\.6 mph at \d\d:00, above the spraying limit of 10 mph$/);
+      expect(verdict.reason).toMatch(/^wind 18\.6 mph at \d\d:00, above the spraying limit of 10.0 mph$/);
 
       const card = page.locator('app-assignment-card').filter({ hasText: 'Slough Quarter' });
       const weather = card.locator('.weather[data-verdict="no-go"]');
@@ -92,7 +93,8 @@ describe('Work board weather in a real browser', () => {
       const strip = page.locator('app-day-strip');
       await strip.getByRole('table').waitFor();
       expect(await strip.locator('caption').innerText()).toContain('Hourly forecast');
-      expect(await strip.locator('tr.wind td').allInnerTexts()).toContain('19');
+      // Wind figures read to 0.1 (shared/figures.ts): 30 km/h is 18.6 mph, as the card's reason says.
+      expect(await strip.locator('tr.wind td').allInnerTexts()).toContain('18.6');
       expect(await seriousViolations(page)).toEqual([]);
       await card.scrollIntoViewIfNeeded();
       const shots = path.dirname(await screenshot(page, 'board-weather-1-no-go-card'));

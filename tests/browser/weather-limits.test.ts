@@ -62,7 +62,7 @@ describe('Weather limits in a real browser', () => {
     await again.waitFor();
     const windAgain = again.getByLabel('Highest wind (spraying)', { exact: true });
     await expect(windAgain.inputValue()).resolves.toBe('12');
-    await again.locator('tr[data-limit="spraying.windMaxKmh"]').getByText('10 mph', { exact: true }).waitFor();
+    await again.locator('tr[data-limit="spraying.windMaxKmh"]').getByText('10.0 mph', { exact: true }).waitFor();
     // The spraying table from its heading: the label caution, then the wind rows.
     await again.getByRole('heading', { name: 'Spraying' }).evaluate((h) => h.scrollIntoView({ block: 'start' }));
     await screenshot(page, 'weather-limits-saved');

@@ -77,9 +77,9 @@ describe('the weather limits table', () => {
 
   it('when values are written out, then each carries the farm unit (10 mph = 16.093 44 km/h; 5 °C = 41 °F)', () => {
     const row = (key: string) => LIMIT_ROWS.find((r) => r.key === key)!;
-    expect(shownText(16.09344, row('spraying.windMaxKmh').quantity, 'us')).toBe('10 mph');
-    expect(shownText(5, row('harrowing.coldBelowC').quantity, 'us')).toBe('41 °F');
-    expect(shownText(16, row('spraying.inversionFromHour').quantity, 'us')).toBe('16:00');
+    expect(shownText(16.09344, row('spraying.windMaxKmh').quantity, 'us')).toBe('10.0 mph');
+    expect(shownText(5, row('harrowing.coldBelowC').quantity, 'us')).toBe('41.0 °F');
+    expect(shownText(2, row('spraying.inversionBeforeSunsetHours').quantity, 'us')).toBe('2.0 h');
     expect(shownText(90, row('swathing.humidityCautionPct').quantity, 'metric')).toBe('90 %');
   });
 

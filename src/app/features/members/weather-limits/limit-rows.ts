@@ -1,13 +1,23 @@
 import type { UnitSystem } from '@shared/schemas/auth';
 import { weatherLimitsBody } from '@shared/schemas/weather';
 import { roundTo } from '@shared/round';
-import { cDiffToF, cToF, fDiffToC, fToC, inToMm, kmhToMph, mmToIn, mphToKmh } from '@shared/units';
+import {
+  formatHours,
+  formatPercent,
+  formatRain,
+  formatTemperature,
+  formatTemperatureDifference,
+  formatWind,
+  weatherUnit,
+  type WeatherFigure,
+} from '@shared/figures';
+import { fDiffToC, fToC, inToMm, mphToKmh } from '@shared/units';
 import { SEED_CROPS, type WeatherLimits, type WeatherOperation } from '@shared/weather/limits';
 import type { ZodNumber } from 'zod';
 import type { FormFields } from '../../../shared/forms/field-labels';
 
 /** What a limit measures, which decides its unit on the screen. */
-export type Quantity = 'speed' | 'temperature' | 'difference' | 'rain' | 'hours' | 'percent' | 'hourOfDay';
+export type Quantity = 'speed' | 'temperature' | 'difference' | 'rain' | 'hours' | 'percent';
 
 /** One number of the limits table: its place in the API body and how the owner reads it. */
 export interface LimitRow {
@@ -73,8 +83,8 @@ const TABLES: Array<[WeatherOperation, string, RowSpec[]]> = [
       ['deltaTCautionMaxC', 'Delta T: caution up to, no-go over', 'difference'],
       ['inversionWindKmh', 'Inversion risk: wind under', 'speed'],
       ['inversionCloudMaxPct', 'Inversion risk: cloud cover at most', 'percent'],
-      ['inversionFromHour', 'Inversion risk: from', 'hourOfDay'],
-      ['inversionUntilHour', 'Inversion risk: until the next morning at', 'hourOfDay'],
+      ['inversionBeforeSunsetHours', 'Inversion risk: from this long before sunset', 'hours'],
+      ['inversionAfterSunriseHours', 'Inversion risk: until this long after sunrise', 'hours'],
     ],
   ],
   ['swathing', 'Swathing', harvestRows],
@@ -137,28 +147,32 @@ export interface ShownUnit {
 
 const same = (n: number): number => n;
 
+const WEATHER_FIGURE: Partial<Record<Quantity, WeatherFigure>> = {
+  speed: 'wind',
+  temperature: 'temperature',
+  difference: 'difference',
+  rain: 'rain',
+};
+const TO_SI: Record<WeatherFigure, [us: (shown: number) => number, metric: (shown: number) => number]> = {
+  wind: [mphToKmh, same],
+  temperature: [fToC, same],
+  difference: [fDiffToC, same],
+  rain: [inToMm, same],
+};
+
 /**
- * The unit a quantity is shown in: mph / °F / inches for US farms, km/h / °C / mm for metric
- * (the units the rules' reasons use, shared/weather/rules.ts); hours and percent stay as they are.
+ * The unit a quantity is shown in: the unit words and decimals of the same figure in a forecast
+ * and a verdict's reasons (shared/figures.ts: mph / °F / inches for US farms, km/h / °C / mm for
+ * metric); hours and percent stay as they are.
  */
 export function shownUnit(quantity: Quantity, system: UnitSystem): ShownUnit {
-  const us = system === 'us';
-  switch (quantity) {
-    case 'speed':
-      return us ? { unit: 'mph', digits: 1, toShown: kmhToMph, toSi: mphToKmh } : { unit: 'km/h', digits: 1, toShown: same, toSi: same };
-    case 'temperature':
-      return us ? { unit: '°F', digits: 1, toShown: cToF, toSi: fToC } : { unit: '°C', digits: 1, toShown: same, toSi: same };
-    case 'difference':
-      return us ? { unit: '°F', digits: 1, toShown: cDiffToF, toSi: fDiffToC } : { unit: '°C', digits: 1, toShown: same, toSi: same };
-    case 'rain':
-      return us ? { unit: 'in', digits: 2, toShown: mmToIn, toSi: inToMm } : { unit: 'mm', digits: 1, toShown: same, toSi: same };
-    case 'hours':
-      return { unit: 'h', digits: 0, toShown: same, toSi: same };
-    case 'percent':
-      return { unit: '%', digits: 0, toShown: same, toSi: same };
-    case 'hourOfDay':
-      return { unit: ':00', digits: 0, toShown: same, toSi: same };
+  const kind = WEATHER_FIGURE[quantity];
+  if (kind) {
+    const w = weatherUnit(kind, system);
+    return { unit: w.unit, digits: w.decimals, toShown: w.convert, toSi: TO_SI[kind][system === 'us' ? 0 : 1] };
   }
+  // Whole hours are typed; they read with the one decimal of every hour figure.
+  return quantity === 'hours' ? { unit: 'h', digits: 0, toShown: same, toSi: same } : { unit: '%', digits: 0, toShown: same, toSi: same };
 }
 
 /** A stored (SI) value as the box shows it, rounded to the unit's decimals. */
@@ -180,13 +194,22 @@ export function siValue(shown: number, base: number, quantity: Quantity, system:
   return roundTo(shownUnit(quantity, system).toSi(shown), 3);
 }
 
-const formatter = (digits: number) => new Intl.NumberFormat('en-US', { maximumFractionDigits: digits });
-
-/** A stored value in words: "10 mph", "39.2 °F", "16:00". */
+/** A stored value in words, as the reasons write it (shared/figures.ts): "10.0 mph", "39.2 °F", "2.0 h". */
 export function shownText(si: number, quantity: Quantity, system: UnitSystem): string {
-  const u = shownUnit(quantity, system);
-  const n = formatter(u.digits).format(shownValue(si, quantity, system));
-  return quantity === 'hourOfDay' ? `${n}:00` : u.unit === '%' ? `${n} %` : `${n} ${u.unit}`;
+  switch (quantity) {
+    case 'speed':
+      return formatWind(si, system);
+    case 'temperature':
+      return formatTemperature(si, system);
+    case 'difference':
+      return formatTemperatureDifference(si, system);
+    case 'rain':
+      return formatRain(si, system);
+    case 'hours':
+      return formatHours(si);
+    case 'percent':
+      return formatPercent(si);
+  }
 }
 
 /** The shared schema's number for a row (the same bounds the server checks). */
@@ -217,11 +240,11 @@ export function rowProblem(row: LimitRow, shown: number | null, base: number, sy
   const si = siValue(shown, base, row.quantity, system);
   const { min, max } = shownRange(row, system);
   const u = shownUnit(row.quantity, system);
-  const unit = row.quantity === 'hourOfDay' ? ' (hour of the day)' : u.unit === '%' ? ' %' : ` ${u.unit}`;
+  const unit = u.unit === '%' ? ' %' : ` ${u.unit}`;
   if ((schema.minValue !== null && si < schema.minValue) || (schema.maxValue !== null && si > schema.maxValue)) {
     return `Use ${min} to ${max}${unit}`;
   }
-  if (schema.isInt && !Number.isInteger(si)) return row.quantity === 'hourOfDay' ? 'Use a whole hour, 0 to 23' : 'Use whole hours';
+  if (schema.isInt && !Number.isInteger(si)) return 'Use whole hours';
   return null;
 }
 

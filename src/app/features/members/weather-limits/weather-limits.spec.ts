@@ -99,18 +99,18 @@ describe('WeatherLimitsForm', () => {
     // 16.093 44 km/h is 10 mph (1 mile = 1,609.344 m exactly: units.spec.ts).
     expect(input('spraying.windMaxKmh').value).toBe('10');
     expect(row('spraying.windMaxKmh').textContent).toContain('mph');
-    expect(cell('spraying.windMaxKmh', 'default')).toBe('10 mph');
+    expect(cell('spraying.windMaxKmh', 'default')).toBe('10.0 mph');
     expect(cell('spraying.windMaxKmh', 'source')).toContain('published');
     expect(cell('spraying.windMaxKmh', 'source')).toContain('National Pesticide Stewardship Alliance');
-    expect(cell('spraying.windMinKmh', 'default')).toBe('3 mph');
+    expect(cell('spraying.windMinKmh', 'default')).toBe('3.0 mph');
     // Delta T bands are differences: 2 °C apart is 3.6 °F apart (× 1.8, no offset); their source is marked "from memory".
     expect(cell('spraying.deltaTMinC', 'default')).toBe('3.6 °F');
-    expect(cell('spraying.deltaTCautionMaxC', 'default')).toBe('18 °F');
+    expect(cell('spraying.deltaTCautionMaxC', 'default')).toBe('18.0 °F');
     expect(cell('spraying.deltaTGoodMaxC', 'source')).toContain('from memory');
     // A soil minimum is a temperature: 4 °C is 39.2 °F (t/°F = 1.8 t/°C + 32).
     expect(cell('seeding.soilMinC.spring wheat', 'default')).toBe('39.2 °F');
     expect(cell('seeding.soilMinC.canola', 'source')).toContain('from memory');
-    expect(cell('swathing.afterRainHours', 'default')).toBe('4 h');
+    expect(cell('swathing.afterRainHours', 'default')).toBe('4.0 h');
     expect(cell('combining.humidityCautionPct', 'default')).toBe('70 %');
     expect(cell('harrowing.coldBelowC', 'source')).toContain('common practice, no published source');
     // 0.2 mm is 0.008 in, shown to 0.01 in as the board's reasons write rain.
@@ -131,8 +131,8 @@ describe('WeatherLimitsForm', () => {
     await open('metric');
     expect(input('spraying.windMaxKmh').value).toBe('16.1');
     expect(cell('spraying.windMaxKmh', 'default')).toBe('16.1 km/h');
-    expect(cell('seeding.soilMinC.barley', 'default')).toBe('3 °C');
-    expect(cell('spraying.deltaTGoodMaxC', 'default')).toBe('8 °C');
+    expect(cell('seeding.soilMinC.barley', 'default')).toBe('3.0 °C');
+    expect(cell('spraying.deltaTGoodMaxC', 'default')).toBe('8.0 °C');
     expect(cell('harrowing.rainMm', 'default')).toBe('0.2 mm');
   });
 

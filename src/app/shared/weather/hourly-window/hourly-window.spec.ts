@@ -1,5 +1,7 @@
 import { type ComponentFixture, TestBed } from '@angular/core/testing';
 import type { JobWeather } from '@shared/schemas/run-sheet';
+import { DEFAULT_LIMITS } from '@shared/weather/limits';
+import { judgeHarrowing, judgeSpraying, type WeatherHour } from '@shared/weather/rules';
 import { AuthStore } from '../../../core/auth/auth-store';
 import { HourlyWindow } from './hourly-window';
 
@@ -25,12 +27,12 @@ const WEATHER: JobWeather = {
   over: 'job',
   from: '10:00',
   to: '12:00',
-  verdict: { verdict: 'no-go', reasons: ['wind 18.6 mph at 11:00, above the spraying limit of 10 mph'] },
+  verdict: { verdict: 'no-go', reasons: ['wind 18.6 mph at 11:00, above the spraying limit of 10.0 mph'] },
   hours: [
     hour('10'),
     hour('11', {
       windSpeedKmh: 30,
-      verdict: { verdict: 'no-go', reasons: ['wind 18.6 mph at 11:00, above the spraying limit of 10 mph'] },
+      verdict: { verdict: 'no-go', reasons: ['wind 18.6 mph at 11:00, above the spraying limit of 10.0 mph'] },
     }),
   ],
 };
@@ -62,24 +64,33 @@ describe('HourlyWindow', () => {
   it('when the farm uses US units, then each hour shows °F, mph with compass and words, inches, Delta T in °F and the verdict', () => {
     create(WEATHER);
     expect([...el.querySelectorAll('thead th[scope=col]')].map((t) => t.textContent?.trim())).toEqual(['10:00', '11:00']);
-    // 20 °C = 68 °F; 16.09344 km/h = 10 mph; 30 km/h = 18.6 mph → 19; 5 °C difference = 9 °F (NIST SP 811, B.8; 1959 mile).
-    expect(cells('Temp')).toEqual(['68 °F', '68 °F']);
-    expect(cells('Wind')[0]).toBe('10 mph ↑SWfrom the south-west');
-    expect(cells('Wind')[1]).toContain('19 mph');
-    expect(cells('Gusts')).toEqual(['19 mph', '19 mph']);
-    expect(cells('Rain')).toEqual(['0 in 5 %', '0 in 5 %']);
-    expect(cells('Delta T')).toEqual(['9 °F', '9 °F']);
+    // 20 °C = 68 °F; 16.09344 km/h = 10 mph; 30 km/h = 18.64 mph; 5 °C difference = 9 °F (NIST SP 811, B.8; 1959 mile).
+    expect(cells('Temp')).toEqual(['68.0 °F', '68.0 °F']);
+    expect(cells('Wind')[0]).toBe('10.0 mph ↑SWfrom the south-west');
+    expect(cells('Wind')[1]).toContain('18.6 mph');
+    expect(cells('Gusts')).toEqual(['18.6 mph', '18.6 mph']);
+    expect(cells('Rain')).toEqual(['0.00 in 5 %', '0.00 in 5 %']);
+    expect(cells('Delta T')).toEqual(['9.0 °F', '9.0 °F']);
     expect(cells('Verdict')).toEqual(['Go', 'No-go']);
-    expect(el.querySelector('.window-verdict')?.textContent).toContain('wind 18.6 mph at 11:00, above the spraying limit of 10 mph');
+    expect(el.querySelector('.window-verdict')?.textContent).toContain('wind 18.6 mph at 11:00, above the spraying limit of 10.0 mph');
     // Issued 12:00 UTC = 07:00 in Chicago in May (CDT, UTC−5).
-    expect(el.querySelector('.age')?.textContent?.trim()).toBe('Forecast from 07:00, 2 h old');
+    expect(el.querySelector('.age')?.textContent?.trim()).toBe('Forecast from 07:00, 2.0 h old');
+  });
+
+  it('when the job has its own hours, then the header names them; without, then it names the working day', () => {
+    create({ ...WEATHER, over: 'job', from: '08:00', to: '12:00' });
+    expect(el.querySelector('h3')?.textContent?.trim()).toBe('Weather, 08:00–12:00');
+    expect(el.querySelector('.strip')?.getAttribute('aria-label')).toBe('Hourly forecast, 08:00–12:00');
+    fixture.componentRef.setInput('weather', { ...WEATHER, over: 'working-day', from: '07:00', to: '19:00' });
+    fixture.detectChanges();
+    expect(el.querySelector('h3')?.textContent?.trim()).toBe('Weather, working day 07:00–19:00');
   });
 
   it('when the farm is metric and the job is not spraying, then °C, km/h and mm, and no Delta T row', () => {
     create(WEATHER, 'metric', false);
-    expect(cells('Temp')[0]).toBe('20 °C');
-    expect(cells('Wind')[1]).toContain('30 km/h');
-    expect(cells('Rain')[0]).toBe('0 mm 5 %');
+    expect(cells('Temp')[0]).toBe('20.0 °C');
+    expect(cells('Wind')[1]).toContain('30.0 km/h');
+    expect(cells('Rain')[0]).toBe('0.0 mm 5 %');
     expect(cells('Delta T')).toEqual([]);
   });
 
@@ -102,5 +113,68 @@ describe('HourlyWindow', () => {
     });
     expect(el.querySelector('table')).toBeNull();
     expect(el.querySelector('.stale-reason')?.textContent).toContain('No forecast yet');
+  });
+
+  describe('the same hour in the strip and in the reasons the server writes (shared/weather/rules.ts)', () => {
+    // One forecast hour the server judges (server/weather/weather.service.ts calls these rules) and
+    // the strip shows: each figure must read alike in both, digits and unit words.
+    const forecast = (over: Partial<WeatherHour>): WeatherHour[] =>
+      ['09', '10', '11'].map((h) => ({
+        time: `2026-05-14T${h}:00:00-05:00`,
+        temperatureC: 20,
+        relativeHumidityPct: 60,
+        dewPointC: 12,
+        precipitationMm: 0,
+        precipitationProbabilityPct: 5,
+        windSpeedKmh: 10,
+        windGustKmh: 12,
+        windDirectionDeg: 180,
+        cloudCoverPct: 80,
+        soilTemperatureC: 10,
+        ...(h === '10' ? over : {}),
+      }));
+    const PLACE = { lat: 47.5, lon: -97 };
+    const shown = (hours: WeatherHour[], reasons: string[], units: 'us' | 'metric') => {
+      const h = hours[1];
+      create(
+        {
+          ...WEATHER,
+          verdict: { verdict: 'no-go', reasons },
+          hours: [hour('10', { ...h, time: h.time, deltaTC: 5, verdict: { verdict: 'no-go', reasons } })],
+        },
+        units,
+      );
+      return el.querySelector('.window-verdict')?.textContent ?? '';
+    };
+
+    it.each(['us', 'metric'] as const)(
+      'when wind and gusts are over the limit (%s), then the strip’s wind and gust read as in the reason',
+      (units) => {
+        // 27.4 km/h = 17.03 mph, 35.3 km/h = 21.93 mph (1 mile = 1.609344 km, 1959 agreement).
+        const hours = forecast({ windSpeedKmh: 27.4, windGustKmh: 35.3 });
+        const v = judgeSpraying(hours, 1, DEFAULT_LIMITS.spraying, units, PLACE);
+        const reasons = shown(hours, v.reasons, units);
+        const wind = cells('Wind')[0]!.split(' ').slice(0, 2).join(' ');
+        expect(wind).toBe(units === 'us' ? '17.0 mph' : '27.4 km/h');
+        expect(reasons).toContain(`wind ${wind} at 10:00`);
+        // The limit in the reason is written the same way: 10 mph exactly (the default).
+        expect(reasons).toContain(units === 'us' ? 'limit of 10.0 mph' : 'limit of 16.1 km/h');
+      },
+    );
+
+    it.each(['us', 'metric'] as const)(
+      'when it rains and is cold (%s), then the strip’s rain and temperature read as in the reason',
+      (units) => {
+        // 0.6 mm = 0.0236 in → 0.02 in; 3.2 °C = 37.76 °F → 37.8 °F (NIST SP 811, B.8).
+        const hours = forecast({ precipitationMm: 0.6, temperatureC: 3.2, dewPointC: -4 });
+        const v = judgeHarrowing(hours, 1, DEFAULT_LIMITS.harrowing, units);
+        const reasons = shown(hours, v.reasons, units);
+        const rain = cells('Rain')[0]!.split(' ').slice(0, 2).join(' ');
+        expect(rain).toBe(units === 'us' ? '0.02 in' : '0.6 mm');
+        expect(reasons).toContain(`rain ${rain} at 10:00`);
+        expect(cells('Temp')[0]).toBe(units === 'us' ? '37.8 °F' : '3.2 °C');
+        expect(reasons).toContain(`cold at 10:00: ${cells('Temp')[0]}`);
+      },
+    );
   });
 });

@@ -2,7 +2,16 @@ import { ChangeDetectionStrategy, Component, computed, inject, input } from '@an
 import type { JobWeather } from '@shared/schemas/run-sheet';
 import { AuthStore } from '../../../core/auth/auth-store';
 import { Units } from '../../units/units';
-import { ageOf, clockIn, compassOf, compassWords, deltaTOf, rainOf, speedOf, temperatureOf } from '../weather-format';
+import {
+  compassPoint,
+  compassWords,
+  formatPercent,
+  formatRain,
+  formatTemperature,
+  formatTemperatureDifference,
+  formatWind,
+} from '@shared/figures';
+import { ageOf, clockIn } from '../weather-format';
 
 const VERDICT_WORDS = { go: 'Go', caution: 'Caution', 'no-go': 'No-go' } as const;
 
@@ -42,16 +51,16 @@ export class HourlyWindow {
     const u = this.units.system();
     return this.weather().hours.map((h) => ({
       time: h.time.slice(11, 16),
-      temperature: temperatureOf(h.temperatureC, u),
-      wind: speedOf(h.windSpeedKmh, u),
-      gust: speedOf(h.windGustKmh, u),
-      compass: compassOf(h.windDirectionDeg) ?? '—',
+      temperature: formatTemperature(h.temperatureC, u),
+      wind: formatWind(h.windSpeedKmh, u),
+      gust: formatWind(h.windGustKmh, u),
+      compass: compassPoint(h.windDirectionDeg) ?? '—',
       compassWords: compassWords(h.windDirectionDeg),
       // The arrow points where the wind blows to: from the north, it points down (south).
       arrow: h.windDirectionDeg === null ? null : `rotate(${Math.round(h.windDirectionDeg + 180)}deg)`,
-      rain: rainOf(h.precipitationMm, u),
-      chance: h.precipitationProbabilityPct === null ? '—' : `${Math.round(h.precipitationProbabilityPct)} %`,
-      deltaT: deltaTOf(h.deltaTC, u),
+      rain: formatRain(h.precipitationMm, u),
+      chance: formatPercent(h.precipitationProbabilityPct),
+      deltaT: formatTemperatureDifference(h.deltaTC, u),
       verdict: h.verdict?.verdict ?? null,
       reason: h.verdict?.reasons[0] ?? null,
     }));
