@@ -14,6 +14,17 @@ export class AppError extends Error {
   }
 }
 
+/** The body an AppError is answered with (the error handler's), for answers built inside a route too. */
+export const errorBodyOf = (err: AppError, requestId?: string): ApiErrorBody => ({
+  error: {
+    code: err.code,
+    message: err.message,
+    ...(err.fields ? { fields: err.fields } : {}),
+    ...(err.extra ?? {}),
+    ...(requestId ? { requestId } : {}),
+  },
+});
+
 export const notFound = (what = 'That item'): AppError => new AppError(404, 'not_found', `${what} was not found`);
 export const forbidden = (message = 'Your role on this farm does not allow that'): AppError => new AppError(403, 'forbidden', message);
 
@@ -139,7 +150,7 @@ export function errorHandler(log?: (err: unknown) => void): ErrorRequestHandler 
     const route = `${req.method} ${req.originalUrl.split('?')[0]}`;
     if (err instanceof AppError) {
       status = err.status;
-      body = { error: { code: err.code, message: err.message, ...(err.fields ? { fields: err.fields } : {}), ...(err.extra ?? {}) } };
+      body = errorBodyOf(err);
     } else {
       const e = err as HttpishError;
       const httpStatus = e?.status ?? e?.statusCode;

@@ -147,11 +147,26 @@ export interface ImportedFeature {
   overlaps?: BoundaryOverlap[];
 }
 
+/** An AB line found in imported ISO 11783-10 task data, offered as a plan's heading. */
+export interface ImportGuidance {
+  /** The feature (partfield) it belongs to. */
+  index: number;
+  fieldName: string;
+  /** The guidance pattern's designator. */
+  name: string;
+  /** Degrees clockwise from true north, 0 ≤ h < 180, as a plan takes it. */
+  headingDeg: number;
+  /** The line's width (pass spacing), metres, when the file states it. */
+  widthM: number | null;
+}
+
 export interface ImportPreview {
-  format: 'geojson' | 'kml' | 'kmz' | 'shapefile';
+  format: 'geojson' | 'kml' | 'kmz' | 'shapefile' | 'taskdata';
   attributes: string[];
   nameAttribute: string | null;
   features: ImportedFeature[];
+  /** ISO 11783-10 task data only: its AB lines. */
+  guidance?: ImportGuidance[];
 }
 
 /** One crop plan of a field: the crop of a season. */

@@ -67,7 +67,7 @@ describe('Fleet and Crew in a real browser', () => {
     await dialog.waitFor({ state: 'detached' });
     const row = page.locator('app-machines-table tr.mat-mdc-row').filter({ has: page.getByText(tractorName, { exact: true }) });
     await row.waitFor();
-    expect((await row.locator('.mat-column-service').innerText()).trim()).toContain('Service overdue by 10 h');
+    expect((await row.locator('.mat-column-service').innerText()).trim()).toContain('Service overdue by 10.0 h');
     expect((await row.locator('.mat-column-power').innerText()).trim()).toBe('480 hp');
   });
 
@@ -152,8 +152,8 @@ describe('Fleet and Crew in a real browser', () => {
     await page.reload();
     const row = implementRow(page, harrowName);
     await row.waitFor();
-    expect((await row.locator('.mat-column-width').innerText()).trim()).toBe('42 ft');
-    expect((await row.locator('.mat-column-transportWidth').innerText()).trim()).toBe('14 ft');
+    expect((await row.locator('.mat-column-width').innerText()).trim()).toBe('42.0 ft');
+    expect((await row.locator('.mat-column-transportWidth').innerText()).trim()).toBe('14.0 ft');
     expect((await row.locator('.mat-column-operations').innerText()).trim()).toBe('Harrowing');
     expect((await row.locator('.mat-column-pulledBy').innerText()).trim()).toBe(tractorName);
     await row.getByText('Wide on the road').waitFor();
@@ -178,7 +178,7 @@ describe('Fleet and Crew in a real browser', () => {
     await page.getByRole('option', { name: 'Harrow', exact: true }).click();
     await dialog.getByLabel('Working width (ft)').fill('30');
     await dialog.getByRole('button', { name: 'Save implement' }).click();
-    await dialog.getByText('Name already used').waitFor();
+    await dialog.getByText('Name already used', { exact: true }).waitFor();
     expect(await dialog.getByLabel('Working width (ft)').inputValue()).toBe('30');
     await screenshot(page, 'fleet-5-name-taken');
     await dialog.getByRole('button', { name: 'Cancel' }).click();

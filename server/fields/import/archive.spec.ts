@@ -1,6 +1,7 @@
 import { Readable } from 'node:stream';
 import zlib from 'node:zlib';
-import { readBounded, sizeText } from './archive';
+import { readBounded } from './archive';
+import { formatFileSize } from '../../../shared/file-size';
 
 const MiB = 1024 * 1024;
 
@@ -47,10 +48,12 @@ describe('readBounded (the second guard, behind the listed sizes)', () => {
   });
 });
 
-describe('sizeText', () => {
+describe('sizes in the import messages (the shared formatFileSize)', () => {
   it('when sizes are shown, then MB below a gibibyte and GB to one decimal above (1 GB = 1024³ bytes here)', () => {
-    expect(sizeText(64 * MiB)).toBe('64 MB');
-    expect(sizeText(200 * MiB)).toBe('200 MB');
-    expect(sizeText(Math.round(1.2 * 1024 ** 3))).toBe('1.2 GB');
+    expect(formatFileSize(64 * MiB)).toBe('64 MB');
+    expect(formatFileSize(200 * MiB)).toBe('200 MB');
+    expect(formatFileSize(Math.round(1.2 * 1024 ** 3))).toBe('1.2 GB');
+    // A small file is not "1 MB" (the import messages had their own formatter that said so).
+    expect(formatFileSize(274)).toBe('274 bytes');
   });
 });

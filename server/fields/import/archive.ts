@@ -4,15 +4,9 @@
 // listed sizes lie is stopped at the budget too. Nothing is kept once the caller lets go.
 import type { Readable } from 'node:stream';
 import yauzl from 'yauzl';
+import { formatFileSize } from '../../../shared/file-size';
 import { MAX_ARCHIVE_ENTRIES, MAX_UNPACKED_BYTES } from '../../../shared/limits';
 import { AppError } from '../../http/errors';
-
-/** "64 MB", or "1.2 GB" from a gibibyte up: how a farmer reads a file size. */
-export function sizeText(bytes: number): string {
-  const gb = bytes / 1024 ** 3;
-  if (gb >= 1) return `${gb.toLocaleString('en-US', { maximumFractionDigits: 1 })} GB`;
-  return `${Math.max(1, Math.round(bytes / 1024 ** 2)).toLocaleString('en-US')} MB`;
-}
 
 /** What the archive is called in messages ("zip", "KMZ") and what to say when it cannot be opened. */
 export interface ArchiveKind {
@@ -31,7 +25,7 @@ const overBudget = (kind: ArchiveKind, what: string) =>
   new AppError(
     413,
     'too_large',
-    `The ${kind.label} unpacks to ${what}; Furlong reads at most ${sizeText(MAX_UNPACKED_BYTES)} of unpacked files per upload`,
+    `The ${kind.label} unpacks to ${what}; Furlong reads at most ${formatFileSize(MAX_UNPACKED_BYTES)} of unpacked files per upload`,
   );
 
 /**
@@ -130,7 +124,7 @@ export async function openArchive(buffer: Buffer, kind: ArchiveKind): Promise<Ar
   }
   const entries = await listEntries(zip, kind);
   const listed = entries.reduce((sum, e) => sum + e.uncompressedSize, 0);
-  if (listed > MAX_UNPACKED_BYTES) throw overBudget(kind, sizeText(listed));
+  if (listed > MAX_UNPACKED_BYTES) throw overBudget(kind, formatFileSize(listed));
 
   const byName = new Map<string, yauzl.Entry>();
   for (const e of entries) {
@@ -148,7 +142,7 @@ export async function openArchive(buffer: Buffer, kind: ArchiveKind): Promise<Ar
           zip.openReadStream(entry, (err, s) => (err ? reject(err) : resolve(s))),
         );
         const data = await readBounded(stream, MAX_UNPACKED_BYTES - inflated, () =>
-          overBudget(kind, `more than ${sizeText(MAX_UNPACKED_BYTES)}`),
+          overBudget(kind, `more than ${formatFileSize(MAX_UNPACKED_BYTES)}`),
         );
         inflated += data.length;
         return data;

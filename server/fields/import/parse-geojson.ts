@@ -1,7 +1,7 @@
 import type { Feature, FeatureCollection } from 'geojson';
 import { MAX_NESTING_DEPTH, MAX_UNPACKED_BYTES } from '../../../shared/limits';
 import { AppError } from '../../http/errors';
-import { sizeText } from './archive';
+import { formatFileSize } from '../../../shared/file-size';
 import { checkFileBudget } from './normalise';
 
 const bad = (message: string) => new AppError(422, 'bad_file', message);
@@ -34,7 +34,7 @@ export function parseGeoJson(text: string): FeatureCollection {
     throw new AppError(
       413,
       'too_large',
-      `The GeoJSON file is ${sizeText(text.length)}; Furlong reads at most ${sizeText(MAX_UNPACKED_BYTES)} per file`,
+      `The GeoJSON file is ${formatFileSize(text.length)}; Furlong reads at most ${formatFileSize(MAX_UNPACKED_BYTES)} per file`,
     );
   }
   // JSON.parse itself copes with deep nesting, but everything after it (our checks, the preview's

@@ -3,7 +3,8 @@ import { DOMParser } from '@xmldom/xmldom';
 import type { FeatureCollection } from 'geojson';
 import { MAX_FILE_FEATURES, MAX_FILE_VERTICES, MAX_NESTING_DEPTH, MAX_UNPACKED_BYTES } from '../../../shared/limits';
 import { AppError } from '../../http/errors';
-import { openArchive, sizeText } from './archive';
+import { formatFileSize } from '../../../shared/file-size';
+import { openArchive } from './archive';
 import { checkFileBudget } from './normalise';
 
 const bad = (message: string) => new AppError(422, 'bad_file', message);
@@ -142,7 +143,7 @@ export function parseKml(text: string): FeatureCollection {
     throw new AppError(
       413,
       'too_large',
-      `The KML file is ${sizeText(text.length)}; Furlong reads at most ${sizeText(MAX_UNPACKED_BYTES)} per file`,
+      `The KML file is ${formatFileSize(text.length)}; Furlong reads at most ${formatFileSize(MAX_UNPACKED_BYTES)} per file`,
     );
   }
   scanKml(text);

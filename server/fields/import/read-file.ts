@@ -9,30 +9,49 @@ import { featuresOf } from './normalise';
 import { parseGeoJson } from './parse-geojson';
 import { parseKml, parseKmz } from './parse-kml';
 import { parseShapefileZip } from './parse-shapefile';
+import { isTaskDataName, parseTaskData, type TaskDataRead } from './parse-taskdata';
+import { openArchive } from './archive';
 
 type Format = ImportPreview['format'];
 
 const NAME_KEYS = ['name', 'field', 'field_name', 'fieldname', 'label', 'title', 'id'];
 
-function detectFormat(fileName: string, buf: Buffer): Format {
+const isZip = (buf: Buffer) => buf.length > 3 && buf[0] === 0x50 && buf[1] === 0x4b;
+
+async function detectFormat(fileName: string, buf: Buffer): Promise<Format> {
   const ext = fileName.toLowerCase().split('.').pop() ?? '';
-  const zip = buf.length > 3 && buf[0] === 0x50 && buf[1] === 0x4b;
+  const zip = isZip(buf);
   if (ext === 'kmz') return 'kmz';
-  if (ext === 'zip' || (zip && ext !== 'kml')) return 'shapefile';
+  // A terminal's TASKDATA.zip by its name (so a damaged one is reported as task data), or any zip
+  // that holds a TASKDATA.XML (only the zip's directory is read here).
+  if (ext === 'zip' && /taskdata/i.test(fileName)) return 'taskdata';
+  if (zip && ext !== 'kml') {
+    const files = await openArchive(buf, { label: 'zip', damaged: 'The file is not a readable zip archive' }).then(
+      (a) => a.files,
+      () => [],
+    );
+    return files.some(isTaskDataName) ? 'taskdata' : 'shapefile';
+  }
+  if (ext === 'zip') return 'shapefile';
   if (ext === 'kml') return 'kml';
   if (['geojson', 'json'].includes(ext)) return 'geojson';
-  const head = buf.subarray(0, 200).toString('utf8').trimStart();
+  const head = buf.subarray(0, 1024).toString('utf8').trimStart();
   if (head.startsWith('{')) return 'geojson';
+  // ISO 11783-10 task data is TASKDATA.XML; any other .xml is read as task data too, and refused
+  // with a message naming its root element when it is not.
+  if (ext === 'xml' || (head.startsWith('<') && head.includes('ISO11783_TaskData'))) return 'taskdata';
   if (head.startsWith('<')) return 'kml';
   throw new AppError(
     415,
     'unknown_format',
-    `Furlong reads GeoJSON (.geojson), KML (.kml, .kmz) and zipped shapefiles (.zip); "${fileName}" is none of these`,
+    `Furlong reads GeoJSON (.geojson), KML (.kml, .kmz), zipped shapefiles (.zip) and ISO 11783-10 task data (TASKDATA.zip, TASKDATA.XML); "${fileName}" is none of these`,
   );
 }
 
-async function parse(format: Format, buf: Buffer): Promise<FeatureCollection> {
+async function parse(format: Format, buf: Buffer, fileName: string): Promise<FeatureCollection | TaskDataRead> {
   switch (format) {
+    case 'taskdata':
+      return parseTaskData(buf, isZip(buf) || fileName.toLowerCase().endsWith('.zip'));
     case 'geojson':
       return parseGeoJson(buf.toString('utf8'));
     case 'kml':
@@ -84,8 +103,10 @@ export interface ReadFile extends ImportPreview {
  */
 export async function readBoundaryFile(file: { name: string; data: Buffer }, nameAttribute?: string): Promise<ReadFile> {
   if (file.data.length === 0) throw new AppError(400, 'empty_file', `The file "${file.name}" is empty`);
-  const format = detectFormat(file.name, file.data);
-  const features = featuresOf(await parse(format, file.data));
+  const format = await detectFormat(file.name, file.data);
+  const parsed = await parse(format, file.data, file.name);
+  const guidance = 'guidance' in parsed ? parsed.guidance : undefined;
+  const features = featuresOf('guidance' in parsed ? parsed.fc : parsed);
   if (features.length === 0) throw new AppError(422, 'no_features', `No shapes were found in "${file.name}"`);
   const attributes = [...new Set(features.flatMap((f) => Object.keys(f.properties ?? {})))];
   const nameAttr = pickNameAttribute(attributes, nameAttribute);
@@ -132,5 +153,5 @@ export async function readBoundaryFile(file: { name: string; data: Buffer }, nam
       errors: problems.map((p) => p.message),
     };
   });
-  return { format, attributes, nameAttribute: nameAttr, features: out };
+  return { format, attributes, nameAttribute: nameAttr, features: out, ...(guidance ? { guidance } : {}) };
 }

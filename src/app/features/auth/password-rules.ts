@@ -1,5 +1,6 @@
 import { FormControl, FormGroup, type ValidationErrors, type ValidatorFn, Validators } from '@angular/forms';
 import { newPassword } from '@shared/schemas/auth';
+import type { FormFields } from '../../shared/forms/field-labels';
 import { zodValidator } from '../../shared/forms/zod-validator';
 
 export type PasswordPair = FormGroup<{
@@ -31,3 +32,10 @@ export function passwordPair(): PasswordPair {
     { validators: passwordsMatch },
   );
 }
+
+/** Each key of the set-password body (new password, invitation) and the box it is typed in, by its label. */
+export const SET_PASSWORD_FIELDS: FormFields = {
+  token: { control: 'token', label: 'The link from your e-mail' },
+  password: { control: 'passwords.password', label: 'New password' },
+  name: { control: 'name', label: 'Your name' },
+};

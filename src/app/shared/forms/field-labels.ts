@@ -25,8 +25,11 @@ export interface PlacedProblems {
 
 const GENERIC = 'Something went wrong. Try again.';
 
-/** The first path segment names the body key (`hazards.features.0` → `hazards`). */
-const keyOf = (path: string): string => path.split('.')[0];
+/**
+ * The box an error body's key goes to: the key itself (`seeding.soilMinC.canola`), else its first
+ * segment, the body key it sits in (`hazards.features.0` → `hazards`).
+ */
+export const fieldFor = (path: string, fields: FormFields): FormField | undefined => fields[path] ?? fields[path.split('.')[0]];
 
 /**
  * One sentence naming the boxes by their labels: "Check Working width: …" for one, "Check Working
@@ -40,8 +43,17 @@ function sentence(problems: Array<{ label: string | null; message: string }>): s
   }
   const labels = [...new Set(problems.map((p) => p.label).filter((l): l is string => !!l))];
   const loose = problems.filter((p) => !p.label).map((p) => p.message);
-  const named = labels.length ? `Check ${labels.length > 1 ? `${labels.slice(0, -1).join(', ')} and ${labels.at(-1)}` : labels[0]}.` : '';
-  return [named, ...loose].filter(Boolean).join(' ');
+  return [checkSentence(labels), ...loose].filter(Boolean).join(' ');
+}
+
+/**
+ * "Check Working width." / "Check Name and Working width." for boxes that have problems; null for none.
+ *
+ * @example checkSentence(['Name', 'Kind', 'Working width']) // 'Check Name, Kind and Working width.'
+ */
+export function checkSentence(labels: readonly string[]): string | null {
+  if (!labels.length) return null;
+  return `Check ${labels.length > 1 ? `${labels.slice(0, -1).join(', ')} and ${labels.at(-1)}` : labels[0]}.`;
 }
 
 /**
@@ -64,7 +76,7 @@ function place(entries: Array<[string, string]>, fields: FormFields): PlacedProb
   const byControl: Record<string, string> = {};
   const problems: Array<{ label: string | null; message: string }> = [];
   for (const [path, message] of entries) {
-    const field = fields[path] ?? fields[keyOf(path)];
+    const field = fieldFor(path, fields);
     if (field && !(field.control in byControl)) byControl[field.control] = message;
     problems.push({ label: field?.label ?? null, message });
   }
@@ -97,13 +109,24 @@ export function problemMatcher(problem: () => string | null | undefined): ErrorS
 }
 
 /**
- * Scrolls the first box marked in error inside `root` into view and puts the cursor in it.
- * Material marks a box in error with `aria-invalid="true"` on its input.
+ * A box in error: one marked `aria-invalid="true"`, or the input of a Material field shown in
+ * error (Material leaves `aria-invalid` off an empty required input, so a box left blank carries
+ * only the field's class).
+ */
+const PROBLEM_BOX = [
+  '[aria-invalid="true"]',
+  '.mat-form-field-invalid input',
+  '.mat-form-field-invalid textarea',
+  '.mat-form-field-invalid mat-select',
+].join(', ');
+
+/**
+ * Scrolls the first box in error inside `root` (in page order) into view and puts the cursor in it.
  *
  * @returns true when a box in error was found
  */
 export function scrollToFirstProblem(root: HTMLElement): boolean {
-  const box = root.querySelector<HTMLElement>('[aria-invalid="true"]');
+  const box = root.querySelector<HTMLElement>(PROBLEM_BOX);
   if (!box) return false;
   box.scrollIntoView?.({ block: 'center', behavior: 'smooth' });
   box.focus({ preventScroll: true });

@@ -1,5 +1,5 @@
 import { httpResource } from '@angular/common/http';
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -9,10 +9,10 @@ import { Router, RouterLink } from '@angular/router';
 import type { TokenInfo } from '@shared/schemas/auth';
 import { AuthStore } from '../../../core/auth/auth-store';
 import { ROLE_HOME } from '../../../core/auth/role-home';
-import { applyServerErrors } from '../../../shared/forms/server-errors';
+import { FormSubmission } from '../../../shared/forms/form-submission';
 import { AuthFrame } from '../../../shared/ui/auth-frame/auth-frame';
 import { AuthApi, tokenInfoUrl } from '../auth-api';
-import { passwordPair } from '../password-rules';
+import { SET_PASSWORD_FIELDS, passwordPair } from '../password-rules';
 import { linkProblem } from '../token-problem';
 
 @Component({
@@ -43,8 +43,10 @@ export class AcceptInvitation {
     }),
     passwords: passwordPair(),
   });
-  protected readonly busy = signal(false);
-  protected readonly error = signal<string | null>(null);
+  private readonly submission = new FormSubmission(this.form, SET_PASSWORD_FIELDS);
+  protected readonly busy = this.submission.busy;
+  protected readonly error = this.submission.error;
+  protected readonly blocked = this.submission.blocked;
 
   constructor() {
     effect(() => {
@@ -58,29 +60,18 @@ export class AcceptInvitation {
     const token = this.token();
     const info = this.invitation.hasValue() ? this.invitation.value() : undefined;
     if (this.busy() || !token || !info) return;
-    if (this.form.invalid) {
-      this.form.markAllAsTouched();
-      return;
-    }
-    this.busy.set(true);
-    this.error.set(null);
+    if (!this.submission.ready()) return;
     const { name, passwords } = this.form.getRawValue();
-    this.api
-      .setPassword({
+    this.submission.send(
+      this.api.setPassword({
         token,
         password: passwords.password,
         ...(info.kind === 'invite' ? { name: name.trim() } : {}),
-      })
-      .subscribe({
-        next: (me) => {
-          this.busy.set(false);
-          this.auth.signedInAs(me);
-          void this.router.navigateByUrl(ROLE_HOME[me.role]);
-        },
-        error: (err: unknown) => {
-          this.busy.set(false);
-          this.error.set(applyServerErrors(this.form, err, { password: 'passwords.password' }));
-        },
-      });
+      }),
+      (me) => {
+        this.auth.signedInAs(me);
+        void this.router.navigateByUrl(ROLE_HOME[me.role]);
+      },
+    );
   }
 }

@@ -1,5 +1,5 @@
 import { httpResource } from '@angular/common/http';
-import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
 import { FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -9,10 +9,10 @@ import { Router, RouterLink } from '@angular/router';
 import type { TokenInfo } from '@shared/schemas/auth';
 import { AuthStore } from '../../../core/auth/auth-store';
 import { ROLE_HOME } from '../../../core/auth/role-home';
-import { applyServerErrors } from '../../../shared/forms/server-errors';
+import { FormSubmission } from '../../../shared/forms/form-submission';
 import { AuthFrame } from '../../../shared/ui/auth-frame/auth-frame';
 import { AuthApi, tokenInfoUrl } from '../auth-api';
-import { passwordPair } from '../password-rules';
+import { SET_PASSWORD_FIELDS, passwordPair } from '../password-rules';
 import { linkProblem } from '../token-problem';
 
 /** The page a password-reset e-mail links to: `/set-password?token=…`. */
@@ -37,28 +37,18 @@ export class SetPassword {
   protected readonly problem = computed(() => (this.token() ? linkProblem(this.link.error()) : linkProblem('missing')));
 
   protected readonly form = new FormGroup({ passwords: passwordPair() });
-  protected readonly busy = signal(false);
-  protected readonly error = signal<string | null>(null);
+  private readonly submission = new FormSubmission(this.form, SET_PASSWORD_FIELDS);
+  protected readonly busy = this.submission.busy;
+  protected readonly error = this.submission.error;
+  protected readonly blocked = this.submission.blocked;
 
   protected submit(): void {
     const token = this.token();
     if (this.busy() || !token || !this.link.hasValue()) return;
-    if (this.form.invalid) {
-      this.form.markAllAsTouched();
-      return;
-    }
-    this.busy.set(true);
-    this.error.set(null);
-    this.api.setPassword({ token, password: this.form.getRawValue().passwords.password }).subscribe({
-      next: (me) => {
-        this.busy.set(false);
-        this.auth.signedInAs(me);
-        void this.router.navigateByUrl(ROLE_HOME[me.role]);
-      },
-      error: (err: unknown) => {
-        this.busy.set(false);
-        this.error.set(applyServerErrors(this.form, err, { password: 'passwords.password' }));
-      },
+    if (!this.submission.ready()) return;
+    this.submission.send(this.api.setPassword({ token, password: this.form.getRawValue().passwords.password }), (me) => {
+      this.auth.signedInAs(me);
+      void this.router.navigateByUrl(ROLE_HOME[me.role]);
     });
   }
 }

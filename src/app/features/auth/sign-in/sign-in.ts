@@ -7,7 +7,14 @@ import { Router, RouterLink } from '@angular/router';
 import { AuthStore } from '../../../core/auth/auth-store';
 import { ROLE_HOME, safeNext } from '../../../core/auth/role-home';
 import { AuthFrame } from '../../../shared/ui/auth-frame/auth-frame';
+import type { FormFields } from '../../../shared/forms/field-labels';
 import { FormSubmission } from '../../../shared/forms/form-submission';
+
+/** Each key of the sign-in's API body and the box it is typed in, by its label. */
+export const SIGN_IN_FIELDS: FormFields = {
+  email: { control: 'email', label: 'E-mail' },
+  password: { control: 'password', label: 'Password' },
+};
 
 @Component({
   selector: 'app-sign-in',
@@ -31,9 +38,10 @@ export class SignIn {
     }),
     password: new FormControl('', { nonNullable: true, validators: [Validators.required] }),
   });
-  private readonly submission = new FormSubmission(this.form);
+  private readonly submission = new FormSubmission(this.form, SIGN_IN_FIELDS);
   protected readonly busy = this.submission.busy;
   protected readonly error = this.submission.error;
+  protected readonly blocked = this.submission.blocked;
 
   protected submit(): void {
     if (!this.submission.ready()) return;

@@ -125,6 +125,25 @@ describe('AssignmentForm', () => {
     expect(fixture.nativeElement.textContent).not.toContain('The mentor must be someone other than the operator');
   });
 
+  it('when the end time is before the start, then Save is off with the box named by its label until either time fixes it', async () => {
+    open({ assignment: card(3, MILO, 1) });
+    await fixture.whenStable();
+    form().patchValue({ startTime: '13:00', endTime: '09:00' });
+    await fixture.whenStable();
+    submit();
+    await fixture.whenStable();
+    http.expectNone('/api/assignments/3');
+    const el = fixture.nativeElement as HTMLElement;
+    expect(el.querySelector('[role="alert"]')?.textContent).toContain('Check End time.');
+    const save = el.querySelector('button[type="submit"]') as HTMLButtonElement;
+    expect(save.disabled).toBe(true);
+    // Fixed in the other box: the end time's mark goes and Save comes back.
+    form().patchValue({ startTime: '08:00' });
+    await fixture.whenStable();
+    expect(save.disabled).toBe(false);
+    expect(el.textContent).not.toContain('Must be after the start time');
+  });
+
   it('when a new card is saved, then it posts the board version and the whole card, and closes with the board', async () => {
     open({ operatorId: MILO.membershipId });
     form().patchValue({

@@ -23,7 +23,9 @@ import {
 import { type CrewMember, type Implement, type Machine, SELF_PROPELLED, type SkillLevel } from '@shared/schemas/fleet';
 import { acresToHa, haToAcres } from '@shared/units';
 import { type Observable } from 'rxjs';
-import { applyServerErrors } from '../../../shared/forms/server-errors';
+import { AuthStore } from '../../../core/auth/auth-store';
+import type { FormFields } from '../../../shared/forms/field-labels';
+import { FormSubmission } from '../../../shared/forms/form-submission';
 import { AreaPipe } from '../../../shared/units/area-pipe';
 import { Units } from '../../../shared/units/units';
 import { BoardApi } from '../board-api';
@@ -59,6 +61,26 @@ export function canWork(machine: Machine, implement: Implement): boolean {
   return implement.minPowerHp == null || machine.powerHp >= implement.minPowerHp;
 }
 
+/** Each key of a card's API body (new card, edit) and the box it is chosen in, by its label. */
+export const ASSIGNMENT_FIELDS: FormFields = {
+  fieldId: { control: 'fieldId', label: 'Field' },
+  operation: { control: 'operation', label: 'Operation' },
+  operatorId: { control: 'operatorId', label: 'Operator' },
+  operator: { control: 'operatorId', label: 'Operator' },
+  implementId: { control: 'implementId', label: 'Implement' },
+  machineId: { control: 'machineId', label: 'Machine' },
+  mentorId: { control: 'mentorId', label: 'Mentor' },
+  mentor: { control: 'mentorId', label: 'Mentor' },
+  startTime: { control: 'startTime', label: 'Start time' },
+  endTime: { control: 'endTime', label: 'End time' },
+  acresPlanned: { control: 'acresPlanned', label: 'Area planned' },
+  note: { control: 'note', label: 'Note to the operator' },
+  // Set by the board, not typed: a refusal names them above the form.
+  date: { control: 'date', label: 'Day' },
+  order: { control: 'order', label: 'Place in the day' },
+  version: { control: 'version', label: 'Board' },
+};
+
 /**
  * Builds or edits one card of the work board. Saves itself so that a refusal keeps the dialog open
  * with everything typed and the server's message; closes with the saved board.
@@ -72,6 +94,7 @@ export function canWork(machine: Machine, implement: Implement): boolean {
 })
 export class AssignmentForm {
   private readonly api = inject(BoardApi);
+  private readonly auth = inject(AuthStore);
   private readonly ref = inject<MatDialogRef<AssignmentForm, Board>>(MatDialogRef);
   protected readonly data = inject<AssignmentFormData>(MAT_DIALOG_DATA);
 
@@ -102,10 +125,12 @@ export class AssignmentForm {
   private readonly value = toSignal(this.form.valueChanges, { initialValue: this.form.getRawValue() });
 
   protected readonly version = signal(this.data.version);
-  protected readonly busy = signal(false);
-  protected readonly error = signal<string | null>(null);
   /** What others changed on the board while this dialog was open (after a refused save). */
   protected readonly staleChanges = signal<string[] | null>(null);
+  private readonly submission = new FormSubmission(this.form, ASSIGNMENT_FIELDS, (err) => this.staleMessage(err));
+  protected readonly busy = this.submission.busy;
+  protected readonly error = this.submission.error;
+  protected readonly blocked = this.submission.blocked;
 
   protected readonly operation = computed(() => this.value().operation ?? null);
   protected readonly operators = computed(() => {
@@ -164,7 +189,18 @@ export class AssignmentForm {
     if (mentor.hasError('rule') || mentor.hasError('server')) mentor.updateValueAndValidity();
   }
 
+  /** A broken rule's mark goes as soon as the card keeps the rule again, whichever box fixed it (Save is off while it shows). */
+  private clearKeptRules(): void {
+    const raw = this.form.getRawValue();
+    const broken = new Set(brokenCardRules({ ...raw, operatorSkill: this.skillOf(raw.operatorId, raw.operation) }).map((r) => r.field));
+    for (const { field } of CARD_RULES) {
+      const control = this.form.controls[field];
+      if (control.hasError('rule') && !broken.has(field)) control.updateValueAndValidity();
+    }
+  }
+
   constructor() {
+    this.form.valueChanges.subscribe(() => this.clearKeptRules());
     this.form.controls.operatorId.valueChanges.subscribe((id) => this.settleMentor(id, this.form.controls.operation.value));
     this.form.controls.operation.valueChanges.subscribe((op) => this.settleMentor(this.form.controls.operatorId.value, op));
     // Acres planned belong to a field: another field starts from what is left of it.
@@ -200,36 +236,26 @@ export class AssignmentForm {
       marked.add(rule.field);
       this.form.controls[rule.field].setErrors({ rule: rule.message });
     }
-    if (this.form.invalid) {
-      this.form.markAllAsTouched();
-      return;
-    }
+    if (!this.submission.ready()) return;
     const request = this.request(this.version());
     if (!request) {
       this.ref.close();
       return;
     }
-    this.busy.set(true);
-    this.error.set(null);
-    request.subscribe({
-      next: (board) => {
-        this.busy.set(false);
-        this.data.boardChanged(board);
-        this.ref.close(board);
-      },
-      error: (err: unknown) => {
-        this.busy.set(false);
-        const stale = staleBoardOf(err);
-        if (stale) {
-          this.version.set(stale.current.version);
-          this.data.boardChanged(stale.current);
-          this.staleChanges.set(describeChanges(stale.changes));
-          this.error.set(`${stale.message} Your card was not saved yet: check it against the changes and save again.`);
-          return;
-        }
-        this.error.set(applyServerErrors(this.form, err, { mentor: 'mentorId', operator: 'operatorId' }));
-      },
+    this.submission.send(request, (board) => {
+      this.data.boardChanged(board);
+      this.ref.close(board);
     });
+  }
+
+  /** Someone changed the board first: the dialog takes the new version and says what changed. */
+  private staleMessage(err: unknown): string | null {
+    const stale = staleBoardOf(err);
+    if (!stale) return null;
+    this.version.set(stale.current.version);
+    this.data.boardChanged(stale.current);
+    this.staleChanges.set(describeChanges(stale.changes, this.auth.farm()?.timeZone));
+    return `${stale.message} Your card was not saved yet: check it against the changes and save again.`;
   }
 
   private toAcres(area: number): number {

@@ -126,6 +126,8 @@ export function card(
       startedAt: null,
       finishedAt: null,
       acresDone: null,
+      acresTyped: null,
+      acresMeasured: false,
       hoursWorked: null,
       engineHoursStart: null,
       engineHoursEnd: null,
@@ -145,7 +147,7 @@ export function board(assignments: BoardAssignment[], over: Partial<Board> = {})
     conflicts: [],
     operators: [],
     orders: [],
-    weather: { cards: [], strip: null },
+    weather: { cards: [], strip: null, note: null },
     nextDayWithWork: null,
     ...over,
   };

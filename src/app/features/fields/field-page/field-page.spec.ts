@@ -138,7 +138,11 @@ describe('FieldPage', () => {
       { status: 409, statusText: 'Conflict' },
     );
     await fixture.whenStable();
-    expect(page.querySelector('[role="alert"]')?.textContent).toContain('There is already a field called "Home Section"');
+    // The refusal names the box by its label and marks it; Save stays off until the name changes.
+    expect(page.querySelector('[role="alert"]')?.textContent).toContain('Check Field name: Name already used');
+    expect(name.getAttribute('aria-invalid')).toBe('true');
+    const save = [...page.querySelectorAll('button')].find((b) => b.textContent?.includes('Save name and notes')) as HTMLButtonElement;
+    expect(save.disabled).toBe(true);
     expect(name.value).toBe('Home Section');
   });
 

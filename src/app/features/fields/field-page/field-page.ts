@@ -1,4 +1,5 @@
 import { FIELD_NAME_MAX } from '@shared/field-names';
+import { CropPipe } from '../../../shared/units/crop-pipe';
 import { httpResource } from '@angular/common/http';
 import {
   ChangeDetectionStrategy,
@@ -27,7 +28,8 @@ import type * as L from 'leaflet';
 import { type Observable, filter, switchMap } from 'rxjs';
 import { AuthStore } from '../../../core/auth/auth-store';
 import { messageOf } from '../../../core/http/api-error';
-import { applyServerErrors } from '../../../shared/forms/server-errors';
+import { FormSubmission } from '../../../shared/forms/form-submission';
+import { FIELD_FORM_FIELDS } from '../field-form-fields';
 import { type DrawnShape, drawShape, stopDrawing } from '../../../shared/map/draw-shape';
 import { FieldMap } from '../../../shared/map/field-map/field-map';
 import { HazardLegend } from '../../../shared/map/hazard-legend/hazard-legend';
@@ -41,7 +43,7 @@ import type { BoundaryOverlap, FieldDetail } from '@shared/schemas/fields';
 import { Units } from '../../../shared/units/units';
 import { overlapWarning } from '../overlap-warning';
 import { type Boundary, FieldsApi, fieldUrl } from '../fields-api';
-import { HazardForm, type HazardFormValue } from '../hazard-form/hazard-form';
+import { HazardForm } from '../hazard-form/hazard-form';
 import { HazardList } from '../hazard-list/hazard-list';
 import { HAZARD_LABELS, type HazardKind } from '@shared/schemas/fields';
 
@@ -71,6 +73,7 @@ interface HazardEdit {
   selector: 'app-field-page',
   changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [
+    CropPipe,
     AreaPipe,
     BoundaryEditor,
     CropPlans,
@@ -125,7 +128,6 @@ export class FieldPage {
   protected readonly busy = signal(false);
   protected readonly boundaryError = signal<string | null>(null);
   protected readonly hazardError = signal<string | null>(null);
-  protected readonly detailsError = signal<string | null>(null);
   /**
    * The farm's fields this one's boundary overlaps, as last saved here (or by New field, which
    * passes them in the navigation's state): a warning that stays until the boundary is saved again.
@@ -141,6 +143,10 @@ export class FieldPage {
     name: new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.maxLength(FIELD_NAME_MAX)] }),
     notes: new FormControl('', { nonNullable: true, validators: [Validators.maxLength(2000)] }),
   });
+  private readonly detailsSubmission = new FormSubmission(this.details, FIELD_FORM_FIELDS);
+  protected readonly detailsError = this.detailsSubmission.error;
+  protected readonly detailsBusy = this.detailsSubmission.busy;
+  protected readonly detailsBlocked = this.detailsSubmission.blocked;
 
   private map: L.Map | null = null;
 
@@ -242,19 +248,12 @@ export class FieldPage {
     afterNextRender(() => this.hazardPanel()?.nativeElement.scrollIntoView?.({ block: 'nearest' }), { injector: this.injector });
   }
 
-  protected saveHazard(value: HazardFormValue): void {
-    const f = this.detail();
-    const edit = this.hazardEdit();
-    if (!f || !edit || this.busy()) return;
-    const request = edit.hazard
-      ? this.api.updateHazard(f.id, edit.hazard.properties.id, value)
-      : this.api.addHazard(f.id, { ...value, geometry: edit.geometry as Geometry });
-    this.write(request, this.hazardError, () => {
-      this.hazardEdit.set(null);
-      this.tell(edit.hazard ? 'Hazard saved.' : 'Hazard added.');
-      // Ready for the next one: focus back on the map tools without moving the page.
-      afterNextRender(() => this.markPoint()?.nativeElement.focus({ preventScroll: true }), { injector: this.injector });
-    });
+  /** The hazard form saved it: show it, and get ready for the next one without moving the page. */
+  protected hazardSaved(edit: HazardEdit): void {
+    this.field.reload();
+    this.hazardEdit.set(null);
+    this.tell(edit.hazard ? 'Hazard saved.' : 'Hazard added.');
+    afterNextRender(() => this.markPoint()?.nativeElement.focus({ preventScroll: true }), { injector: this.injector });
   }
 
   protected confirmHazard(hazard: HazardFeature): void {
@@ -284,25 +283,12 @@ export class FieldPage {
 
   protected saveDetails(): void {
     const f = this.detail();
-    if (!f || this.busy()) return;
-    if (this.details.invalid) {
-      this.details.markAllAsTouched();
-      return;
-    }
+    if (!f || this.busy() || !this.detailsSubmission.ready()) return;
     const { name, notes } = this.details.getRawValue();
-    this.busy.set(true);
-    this.detailsError.set(null);
-    this.api.update(f.id, { name: name.trim(), notes: notes.trim() || null }).subscribe({
-      next: () => {
-        this.busy.set(false);
-        this.details.markAsPristine();
-        this.field.reload();
-        this.tell('Details saved.');
-      },
-      error: (err: unknown) => {
-        this.busy.set(false);
-        this.detailsError.set(applyServerErrors(this.details, err) ?? messageOf(err));
-      },
+    this.detailsSubmission.send(this.api.update(f.id, { name: name.trim(), notes: notes.trim() || null }), () => {
+      this.details.markAsPristine();
+      this.field.reload();
+      this.tell('Details saved.');
     });
   }
 

@@ -85,9 +85,9 @@ describe('FieldsPage', () => {
     await open('owner');
     expect(page.querySelectorAll('h1')).toHaveLength(1);
     expect(rows()).toEqual([
-      ['Draw Half', '312.4 ac', 'durum', '1', '—'],
+      ['Draw Half', '312.4 ac', 'Durum', '1', '—'],
       ['Home Section', '638.9 ac', '—', '0', 'seeding · 2026-05-02'],
-      ['Slough Quarter', '151.3 ac', 'canola', '2', '—'],
+      ['Slough Quarter', '151.3 ac', 'Canola', '2', '—'],
     ]);
     expect(page.querySelector('h2')?.textContent).toContain('3 fields, 1,102.6 ac');
     const map = fixture.debugElement.query(By.directive(FieldMapStub)).componentInstance as FieldMapStub;
@@ -106,8 +106,8 @@ describe('FieldsPage', () => {
     const key = page.querySelector('app-colour-legend ul');
     expect(key?.getAttribute('aria-label')).toBe(`Crops ${YEAR}`);
     expect([...(key?.querySelectorAll('li') ?? [])].map((li) => li.textContent?.replace(/\s+/g, ' ').trim())).toEqual([
-      'durum (1)',
-      'canola (1)',
+      'Durum (1)',
+      'Canola (1)',
       'Not planned (1)',
     ]);
   });

@@ -1,4 +1,5 @@
 import { httpResource } from '@angular/common/http';
+import { CropPipe } from '../../../shared/units/crop-pipe';
 import { ChangeDetectionStrategy, Component, computed, effect, inject, signal, viewChild } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
@@ -30,6 +31,7 @@ import { seasonChoices } from '../seasons';
   selector: 'app-fields-page',
   changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [
+    CropPipe,
     AreaPipe,
     ColourLegend,
     FieldMap,

@@ -5,20 +5,30 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import { HAZARD_KINDS, HAZARD_LABELS } from '@shared/schemas/fields';
-import type { HazardProperties } from '../../../shared/map/map-types';
+import type { Geometry } from 'geojson';
+import type { FormFields } from '../../../shared/forms/field-labels';
+import { FormSubmission } from '../../../shared/forms/form-submission';
+import type { HazardFeature, HazardProperties } from '../../../shared/map/map-types';
 import { Units } from '../../../shared/units/units';
+import { FieldsApi } from '../fields-api';
 
 /** Largest clearance the API stores, metres. */
 const MAX_CLEARANCE_M = 500;
 
-export interface HazardFormValue {
-  kind: string;
-  /** Metres, converted from what was typed in the farm's unit. */
-  clearanceM: number;
-  note: string | null;
-}
+/**
+ * Each key of the hazard's API body and the box it is typed in, by its label. The shape is drawn
+ * on the map (no box): a refusal of it shows in words above the form.
+ */
+export const HAZARD_FIELDS: FormFields = {
+  kind: { control: 'kind', label: 'Kind' },
+  clearanceM: { control: 'clearance', label: 'Clearance' },
+  note: { control: 'note', label: 'Note' },
+};
 
-/** Kind, clearance (typed in ft or m by the farm's units; sent in metres) and note of one hazard. */
+/**
+ * Kind, clearance (typed in ft or m by the farm's units; sent in metres) and note of one hazard,
+ * saved here through the shared form submission; `saved` tells the page once the server has it.
+ */
 @Component({
   selector: 'app-hazard-form',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -27,16 +37,20 @@ export interface HazardFormValue {
   styleUrl: './hazard-form.scss',
 })
 export class HazardForm {
+  private readonly api = inject(FieldsApi);
   protected readonly units = inject(Units);
 
+  /** The field the hazard is on. */
+  readonly fieldId = input.required<number>();
   /** The hazard being edited; null for a new one. */
   readonly hazard = input<HazardProperties | null>(null);
+  /** What was drawn for a new hazard (null when editing one). */
+  readonly geometry = input<Geometry | null>(null);
   /** What was drawn, for the heading ("point", "line", "area"). */
   readonly shape = input('');
-  readonly busy = input(false);
-  readonly error = input<string | null>(null);
 
-  readonly saved = output<HazardFormValue>();
+  /** The server has the hazard as it answered. */
+  readonly saved = output<HazardFeature>();
   readonly cancelled = output<void>();
 
   protected readonly kinds = HAZARD_KINDS.map((kind) => ({ kind, label: HAZARD_LABELS[kind] }));
@@ -46,6 +60,10 @@ export class HazardForm {
     clearance: new FormControl<number | null>(null, { validators: [Validators.required, Validators.min(0)] }),
     note: new FormControl('', { nonNullable: true, validators: [Validators.maxLength(500)] }),
   });
+  private readonly submission = new FormSubmission(this.form, HAZARD_FIELDS);
+  protected readonly busy = this.submission.busy;
+  protected readonly blocked = this.submission.blocked;
+  protected readonly error = this.submission.error;
 
   constructor() {
     effect(() => {
@@ -56,12 +74,13 @@ export class HazardForm {
   }
 
   protected submit(): void {
-    if (this.busy()) return;
-    if (this.form.invalid) {
-      this.form.markAllAsTouched();
-      return;
-    }
+    if (!this.submission.ready()) return;
     const { kind, clearance, note } = this.form.getRawValue();
-    this.saved.emit({ kind, clearanceM: Math.min(MAX_CLEARANCE_M, this.units.toMetres(clearance ?? 0)), note: note.trim() || null });
+    const value = { kind, clearanceM: Math.min(MAX_CLEARANCE_M, this.units.toMetres(clearance ?? 0)), note: note.trim() || null };
+    const hazard = this.hazard();
+    const request = hazard
+      ? this.api.updateHazard(this.fieldId(), hazard.id, value)
+      : this.api.addHazard(this.fieldId(), { ...value, geometry: this.geometry() as Geometry });
+    this.submission.send(request, (answer) => this.saved.emit(answer));
   }
 }

@@ -9,13 +9,13 @@ import { MatInputModule } from '@angular/material/input';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { Router, RouterLink } from '@angular/router';
 import type { FieldSummary } from '@shared/schemas/fields';
-import { messageOf } from '../../../core/http/api-error';
-import { applyServerErrors } from '../../../shared/forms/server-errors';
+import { FormSubmission } from '../../../shared/forms/form-submission';
 import type { MapField } from '../../../shared/map/map-types';
 import { AreaPipe } from '../../../shared/units/area-pipe';
 import { BoundaryEditor } from '../boundary-editor/boundary-editor';
 import { measureBoundary } from '../boundary-measure';
 import { type Boundary, FieldsApi, fieldsUrl } from '../fields-api';
+import { FIELD_FORM_FIELDS } from '../field-form-fields';
 import { AuthStore } from '../../../core/auth/auth-store';
 
 /** The owner draws a new field (parts and holes), sees its acres live, names it and saves it. */
@@ -63,8 +63,10 @@ export class NewField {
     const parts = b.type === 'Polygon' ? [b.coordinates] : b.coordinates;
     return parts.reduce((n, rings) => n + rings.length - 1, 0);
   });
-  protected readonly busy = signal(false);
-  protected readonly error = signal<string | null>(null);
+  private readonly submission = new FormSubmission(this.form, FIELD_FORM_FIELDS);
+  protected readonly busy = this.submission.busy;
+  protected readonly error = this.submission.error;
+  protected readonly blocked = this.submission.blocked;
 
   protected drawn(boundary: Boundary | null): void {
     this.boundary.set(boundary);
@@ -72,33 +74,22 @@ export class NewField {
   }
 
   protected save(): void {
-    if (this.busy()) return;
+    if (!this.submission.ready()) return;
     const boundary = this.boundary();
-    if (this.form.invalid || !boundary) {
-      this.form.markAllAsTouched();
-      this.error.set(boundary ? null : 'Draw the boundary on the map first: choose “Draw a part” and click its corners.');
+    if (!boundary) {
+      this.error.set('Draw the boundary on the map first: choose “Draw a part” and click its corners.');
       return;
     }
-    this.busy.set(true);
-    this.error.set(null);
     const { name, notes } = this.form.getRawValue();
-    this.api.create({ name: name.trim(), boundary, ...(notes.trim() ? { notes: notes.trim() } : {}) }).subscribe({
-      next: (field) => {
-        this.busy.set(false);
-        const overlaps = field.overlaps ?? [];
-        this.snackBar.open(
-          overlaps.length ? `${field.name} saved. It overlaps other fields: see the warning above its map.` : `${field.name} saved.`,
-          'Close',
-          { duration: 6000 },
-        );
-        // The field's page shows the overlap warning (a warning: the field is saved as drawn).
-        void this.router.navigate(['/fields', field.id], { state: { overlaps } });
-      },
-      error: (err: unknown) => {
-        this.busy.set(false);
-        // The server's own words always show; a per-field note also lands on its input.
-        this.error.set(applyServerErrors(this.form, err) ?? messageOf(err));
-      },
+    this.submission.send(this.api.create({ name: name.trim(), boundary, ...(notes.trim() ? { notes: notes.trim() } : {}) }), (field) => {
+      const overlaps = field.overlaps ?? [];
+      this.snackBar.open(
+        overlaps.length ? `${field.name} saved. It overlaps other fields: see the warning above its map.` : `${field.name} saved.`,
+        'Close',
+        { duration: 6000 },
+      );
+      // The field's page shows the overlap warning (a warning: the field is saved as drawn).
+      void this.router.navigate(['/fields', field.id], { state: { overlaps } });
     });
   }
 }

@@ -100,7 +100,7 @@ describe('FleetPage', () => {
     expect(page.querySelectorAll('h1')).toHaveLength(1);
     expect(page.textContent).toContain('Big four');
     expect(page.textContent).toContain('Service overdue by 10 h');
-    expect(implementRow('Heavy harrow').textContent).toContain('84 ft');
+    expect(implementRow('Heavy harrow').textContent).toContain('84.0 ft');
     expect(buttons()).toEqual([]);
     expect(page.querySelectorAll('.mat-column-actions')).toHaveLength(0);
     expect(page.textContent).toContain('Only an owner can change the fleet.');
@@ -116,8 +116,8 @@ describe('FleetPage', () => {
   it('then implements show widths in feet, operations, what pulls them and the road caution', async () => {
     await openAs('operator');
     const harrow = implementRow('Heavy harrow');
-    expect(harrow.querySelector('.mat-column-width')?.textContent?.trim()).toBe('84 ft');
-    expect(harrow.querySelector('.mat-column-transportWidth')?.textContent?.trim()).toBe('20 ft');
+    expect(harrow.querySelector('.mat-column-width')?.textContent?.trim()).toBe('84.0 ft');
+    expect(harrow.querySelector('.mat-column-transportWidth')?.textContent?.trim()).toBe('20.0 ft');
     expect(harrow.querySelector('.mat-column-operations')?.textContent?.trim()).toBe('Harrowing');
     expect(harrow.querySelector('.mat-column-pulledBy')?.textContent?.trim()).toBe('Big four');
     expect(harrow.textContent).toContain('Wide on the road');
@@ -155,7 +155,7 @@ describe('FleetPage', () => {
     // The dialog reports its result after its (disabled) exit animation, a macrotask later.
     await new Promise((resolve) => setTimeout(resolve));
     await fixture.whenStable();
-    expect(implementRow('Light harrow').querySelector('.mat-column-width')?.textContent?.trim()).toBe('50 ft');
+    expect(implementRow('Light harrow').querySelector('.mat-column-width')?.textContent?.trim()).toBe('50.0 ft');
     expect(document.querySelector('mat-snack-bar-container')?.textContent).toContain('Light harrow is saved.');
   });
 });

@@ -99,6 +99,8 @@ describe('ImplementForm', () => {
   const checkboxes = () => [...el.querySelectorAll('mat-checkbox')].map((c) => c.textContent?.trim());
 
   async function save(): Promise<void> {
+    // What was typed is rendered first, as in a browser: the button may have come back on.
+    await fixture.whenStable();
     (el.querySelector('button[type="submit"]') as HTMLButtonElement).click();
     await fixture.whenStable();
   }
@@ -164,6 +166,14 @@ describe('ImplementForm', () => {
     expect(field(/Working width/).textContent).toContain('Working width must be more than 0');
     expect((field(/Name/).querySelector('input') as HTMLInputElement).value).toBe('Backwards drill');
     expect(close).not.toHaveBeenCalled();
+    // The message above names the box by its label, and Save is off until the width is fixed.
+    expect(el.querySelector('[role="alert"]')?.textContent).toContain('Check Working width.');
+    const button = el.querySelector('button[type="submit"]') as HTMLButtonElement;
+    expect(button.disabled).toBe(true);
+    type(/Working width/, '60');
+    await fixture.whenStable();
+    expect(button.disabled).toBe(false);
+    expect(el.querySelector('[role="alert"]')).toBeNull();
   });
 
   it('when the server refuses a field, then its message shows on that field and the dialog stays open', async () => {
@@ -184,6 +194,9 @@ describe('ImplementForm', () => {
     );
     await fixture.whenStable();
     expect(field(/Name/).textContent).toContain('Name already used');
+    // The refusal names the box by its label, and Save stays off until the name is changed.
+    expect(el.querySelector('[role="alert"]')?.textContent).toContain('Check Name: Name already used');
+    expect((el.querySelector('button[type="submit"]') as HTMLButtonElement).disabled).toBe(true);
     expect(close).not.toHaveBeenCalled();
 
     // A message that fits no field shows above the form.

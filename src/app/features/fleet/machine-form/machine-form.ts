@@ -10,6 +10,7 @@ import type { Observable } from 'rxjs';
 import { zodValidator } from '../../../shared/forms/zod-validator';
 import { problemOf } from '../control-problem';
 import { FleetApi } from '../fleet-api';
+import type { FormFields } from '../../../shared/forms/field-labels';
 import { FormSubmission } from '../../../shared/forms/form-submission';
 
 export interface MachineFormData {
@@ -18,6 +19,17 @@ export interface MachineFormData {
 }
 
 const shape = machineBody.shape;
+
+/** Each key of the machine's API body and the box it is typed in, by its label. */
+export const MACHINE_FIELDS: FormFields = {
+  name: { control: 'name', label: 'Name' },
+  kind: { control: 'kind', label: 'Kind' },
+  powerHp: { control: 'powerHp', label: 'Power' },
+  engineHours: { control: 'engineHours', label: 'Engine hours' },
+  serviceIntervalHours: { control: 'serviceIntervalHours', label: 'Service interval' },
+  hoursAtLastService: { control: 'hoursAtLastService', label: 'Hours at last service' },
+  notes: { control: 'notes', label: 'Notes' },
+};
 
 /** Adds or edits a tractor or self-propelled machine; closes with the saved machine. */
 @Component({
@@ -55,9 +67,10 @@ export class MachineForm {
     }),
     notes: new FormControl(this.data.machine?.notes ?? '', { nonNullable: true, validators: [zodValidator(shape.notes)] }),
   });
-  private readonly submission = new FormSubmission(this.form);
+  private readonly submission = new FormSubmission(this.form, MACHINE_FIELDS);
   protected readonly busy = this.submission.busy;
   protected readonly error = this.submission.error;
+  protected readonly blocked = this.submission.blocked;
 
   protected submit(): void {
     if (!this.submission.ready()) return;

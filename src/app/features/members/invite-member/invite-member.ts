@@ -6,10 +6,18 @@ import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import type { Member, Role } from '@shared/schemas/auth';
 import { email } from '@shared/schemas/common';
+import type { FormFields } from '../../../shared/forms/field-labels';
 import { FormSubmission } from '../../../shared/forms/form-submission';
 import { zodValidator } from '../../../shared/forms/zod-validator';
 import { MembersApi } from '../members-api';
 import { ROLE_OPTIONS } from '../role-labels';
+
+/** Each key of the invitation's API body and the box it is typed in, by its label. */
+export const INVITE_FIELDS: FormFields = {
+  name: { control: 'name', label: 'Name' },
+  email: { control: 'email', label: 'E-mail' },
+  role: { control: 'role', label: 'Role' },
+};
 
 /** Invites a person by e-mail; the server mails them a link to /accept-invitation. */
 @Component({
@@ -36,9 +44,10 @@ export class InviteMember {
     }),
     role: new FormControl<Role>('operator', { nonNullable: true }),
   });
-  private readonly submission = new FormSubmission(this.form);
+  private readonly submission = new FormSubmission(this.form, INVITE_FIELDS);
   protected readonly busy = this.submission.busy;
   protected readonly error = this.submission.error;
+  protected readonly blocked = this.submission.blocked;
 
   protected hintFor(role: Role): string {
     return this.roles.find((option) => option.value === role)?.hint ?? '';

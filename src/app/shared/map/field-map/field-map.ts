@@ -64,6 +64,11 @@ export class FieldMap {
   readonly selectable = input(true);
   /** Loads the drawing plugin before the map is made. */
   readonly editable = input(false);
+  /**
+   * A point being marked, [lon, lat] (a hazard an operator is reporting): drawn above the outlines,
+   * and, like every hazard symbol, never under a field's name (the name moves off it).
+   */
+  readonly mark = input<readonly [number, number] | null>(null);
 
   readonly fieldSelected = output<number>();
   readonly hazardSelected = output<number>();
@@ -77,6 +82,7 @@ export class FieldMap {
   private readonly extras = L.featureGroup([], { pmIgnore: true });
   private readonly hazardShapes = L.featureGroup([], { pmIgnore: true });
   private bands: Band[] = [];
+  private markLayer: L.CircleMarker | null = null;
   /** Field labels opened by hovering, to close again when the pointer leaves. */
   private readonly hoverOpened = new Set<L.GeoJSON>();
   private fittedKey = '';
@@ -109,6 +115,22 @@ export class FieldMap {
         this.fitIfChanged();
         this.declutterLabels(map);
       });
+    });
+    effect(() => {
+      const map = this.map();
+      if (!map) return;
+      const at = this.mark();
+      this.markLayer?.remove();
+      this.markLayer = at
+        ? L.circleMarker([at[1], at[0]], {
+            radius: 9,
+            weight: 3,
+            className: 'fm-mark',
+            interactive: false,
+            pmIgnore: true,
+          } as L.CircleMarkerOptions).addTo(map)
+        : null;
+      untracked(() => this.declutterLabels(map));
     });
     effect(() => {
       if (!this.map()) return;
@@ -300,13 +322,13 @@ export class FieldMap {
    */
   private declutterLabels(map: L.Map): void {
     const placed: L.Bounds[] = [];
-    const markers = this.hazardShapes
-      .getLayers()
-      .filter((layer): layer is L.Marker => layer instanceof L.Marker)
-      .map((marker) => {
-        const p = map.latLngToLayerPoint(marker.getLatLng());
-        return L.bounds(L.point(p.x - 13, p.y - 13), L.point(p.x + 13, p.y + 13));
-      });
+    const markers = [
+      ...this.hazardShapes.getLayers().filter((layer): layer is L.Marker => layer instanceof L.Marker),
+      ...(this.markLayer ? [this.markLayer] : []),
+    ].map((marker) => {
+      const p = map.latLngToLayerPoint(marker.getLatLng());
+      return L.bounds(L.point(p.x - 13, p.y - 13), L.point(p.x + 13, p.y + 13));
+    });
     const labelled = (this.outlines.getLayers() as L.GeoJSON[])
       .map((layer) => {
         const bounds = layer.getBounds();
