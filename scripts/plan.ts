@@ -6,7 +6,7 @@ import { readFileSync } from 'node:fs';
 import { parseArgs } from 'node:util';
 import { planPasses } from '../shared/plan/plan-passes';
 import type { PlanInput } from '../shared/plan/types';
-import { ftToM } from '../shared/units';
+import { ftToM, mphToMps } from '../shared/units';
 
 const USAGE =
   'usage: plan --boundary FILE.geojson (--width-ft N | --width-m N) [--headland-passes N] [--heading DEG|auto] ' +
@@ -55,6 +55,8 @@ export function parsePlanArgs(argv: string[]): PlanCliOptions {
   const ft = num('width-ft', v['width-ft']);
   const m = num('width-m', v['width-m']);
   if ((ft === undefined) === (m === undefined)) throw new Error(`give the working width once, as --width-ft or --width-m; ${USAGE}`);
+  // The command takes mph, as a farmer says it; the planner works in m/s.
+  const speedMph = num('speed-mph', v['speed-mph']);
   const heading = v.heading === undefined || v.heading === 'auto' ? 'auto' : num('heading', v.heading);
   return {
     boundaryFile: v.boundary,
@@ -65,7 +67,7 @@ export function parsePlanArgs(argv: string[]): PlanCliOptions {
       widthM: ft !== undefined ? ftToM(ft) : m!,
       headlandPasses: num('headland-passes', v['headland-passes']),
       headingDeg: heading,
-      speedMph: num('speed-mph', v['speed-mph']),
+      speedMps: speedMph === undefined ? undefined : mphToMps(speedMph),
       efficiency: num('efficiency', v.efficiency),
       turnSeconds: num('turn-seconds', v['turn-seconds']),
       coverage: v.coverage as PlanInput['coverage'],

@@ -3,9 +3,8 @@
 // days). Everything here is invented; names are neutral, never a maker's.
 import { DateTime } from 'luxon';
 import type { Operation } from '../shared/operations';
-import { effectiveCapacityAcPerH } from '../shared/plan/field-capacity';
+import { fieldCapacityAcPerH } from '../shared/plan/field-capacity';
 import { implementDefaults, type ImplementKind } from '../shared/plan/implement-defaults';
-import { mToFt } from '../shared/units';
 import { demoCrop } from './02_demo_fields';
 import { demoYear, type DemoOperation, type DemoPerson, type DemoPiece } from './demo-season';
 import type { DemoStep } from './steps';
@@ -161,7 +160,7 @@ export const seedDemoFleetCrew: DemoStep = async (tx, { farmId, users, now }) =>
   const capacity = (key: string) => {
     const spec = IMPLEMENTS.find((i) => i.key === key)!;
     const d = implementDefaults(spec.kind);
-    return effectiveCapacityAcPerH(mToFt(widthM[key]), d.speedMph, d.efficiency);
+    return fieldCapacityAcPerH(widthM[key], d.speedMps, d.efficiency);
   };
   const capacityAcPerH = Object.fromEntries(Object.entries(RIG).map(([op, r]) => [op, capacity(r.implement)])) as Record<
     DemoOperation,

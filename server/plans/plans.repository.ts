@@ -14,7 +14,8 @@ export interface DbPassPlanRow {
   headland_passes: number;
   heading_deg: number | null;
   coverage: 'gaps-ok' | 'full';
-  speed_mph: number;
+  /** Working speed, metres per second. */
+  speed_mps: number;
   efficiency: number;
   turn_seconds: number;
   summary: PlanSummary;

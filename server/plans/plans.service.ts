@@ -11,6 +11,7 @@ import { AppError, notFound } from '../http/errors';
 import { getField, hazardsOfField } from '../fields/fields.repository';
 import { hazardFeature } from '../fields/fields.service';
 import { getImplement } from '../fleet/implements.repository';
+import { mphToMps } from '../../shared/units';
 import * as repo from './plans.repository';
 
 type Settings = z.infer<typeof planSettings>;
@@ -36,13 +37,25 @@ async function fieldInput(deps: AppDeps, farmId: number, fieldId: number) {
   return { field, hazards: { type: 'FeatureCollection', features: hazards.map(hazardFeature) } as FeatureCollection };
 }
 
+/**
+ * The speed asked for, m/s: `speedMps`, or the mph an older client sends, converted exactly; both at
+ * once is refused rather than one silently chosen.
+ */
+function speedOf(s: Settings): number | undefined {
+  if (s.speedMps !== undefined && s.speedMph !== undefined)
+    throw new AppError(400, 'invalid_input', 'Send the speed once: speedMps (metres per second) or speedMph, not both', {
+      speedMps: 'Send the speed once',
+    });
+  return s.speedMph !== undefined ? mphToMps(s.speedMph) : s.speedMps;
+}
+
 function inputOf(s: Settings, operation: Operation | undefined): Omit<PlanInput, 'boundary'> {
   return {
     widthM: s.widthM,
     headlandPasses: s.headlandPasses,
     headingDeg: s.headingDeg,
     edgeMarginPct: s.edgeMarginPct,
-    speedMph: s.speedMph,
+    speedMps: speedOf(s),
     efficiency: s.efficiency,
     turnSeconds: s.turnSeconds,
     implementKind: s.implementKind,
@@ -80,7 +93,7 @@ const toSaved = (r: repo.DbPlanRow): SavedPlan => ({
   headlandPasses: r.headland_passes,
   headingDeg: r.heading_deg,
   coverage: r.coverage,
-  speedMph: r.speed_mph,
+  speedMps: r.speed_mps,
   efficiency: r.efficiency,
   turnSeconds: r.turn_seconds,
   summary: r.summary,
@@ -109,7 +122,7 @@ export async function getPlan(
     headlandPasses: saved.headlandPasses,
     headingDeg: saved.headingDeg ?? saved.summary.headingDeg,
     edgeMarginPct: saved.summary.edgeMarginPct,
-    speedMph: saved.speedMph,
+    speedMps: saved.speedMps,
     efficiency: saved.efficiency,
     turnSeconds: saved.turnSeconds,
     coverage: saved.coverage,
@@ -142,7 +155,7 @@ export async function savePlan(
     headland_passes: result.headlandPasses,
     heading_deg: s.headingDeg === undefined || s.headingDeg === 'auto' ? null : s.headingDeg,
     coverage: result.coverage,
-    speed_mph: result.speedMph,
+    speed_mps: result.speedMps,
     efficiency: result.efficiency,
     turn_seconds: result.turnSeconds,
     summary: JSON.stringify(summaryOf(result)),

@@ -1,5 +1,12 @@
 import * as units from '../units';
-import { ACRE_MPH_FT, effectiveCapacityAcPerH, effectiveCapacityHaPerH, theoreticalCapacityAcPerH } from './field-capacity';
+import {
+  ACRE_MPH_FT,
+  effectiveCapacityAcPerH,
+  effectiveCapacityHaPerH,
+  fieldCapacityAcPerH,
+  fieldCapacityHaPerH,
+  theoreticalCapacityAcPerH,
+} from './field-capacity';
 import { IMPLEMENT_DEFAULTS } from './implement-defaults';
 
 describe('units', () => {
@@ -38,6 +45,21 @@ describe('field capacity', () => {
     expect(effectiveCapacityAcPerH(40, 6, 0.7).toFixed(1)).toBe('20.4');
   });
 
+  it('when a plan stores SI (width in m, speed in m/s), then its capacity still gives the PM 696 worked examples', () => {
+    // Source: Iowa State University Extension, PM 696 (rev. 2001), as above; the inputs are the
+    // examples' feet and mph converted by the exact definitions (1 ft = 0.3048 m, 1 mph = 0.447 04 m/s,
+    // NIST Handbook 44, Appendix C), so only the published arithmetic is left to check.
+    const si = (ft: number, mph: number, e: number) => fieldCapacityAcPerH(units.ftToM(ft), units.mphToMps(mph), e).toFixed(1);
+    expect(si(11.25, 5.5, 0.85)).toBe('6.4');
+    expect(si(13.75, 5.5, 0.85)).toBe('7.8');
+    expect(si(16.25, 5.5, 0.83)).toBe('9.0');
+    expect(si(40, 6, 0.7)).toBe('20.4');
+    // The same quantity as the AEN-73 form (ft × mph × efficiency ÷ 8.25), to rounding error.
+    expect(fieldCapacityAcPerH(units.ftToM(40), units.mphToMps(6), 0.7)).toBeCloseTo(effectiveCapacityAcPerH(40, 6, 0.7), 12);
+    // Source: GRDC (Australia): ha/h = km/h × m × efficiency ÷ 10; 12 m at 10 km/h and 80 % is 9.6 ha/h.
+    expect(fieldCapacityHaPerH(12, units.kmhToMps(10), 0.8)).toBeCloseTo(9.6, 12);
+  });
+
   it('when a 70 ft harrow runs at 8.3 mph, then it covers about 70 acres an hour before efficiency', () => {
     // A practitioner's figure: common practice, no published source.
     expect(theoreticalCapacityAcPerH(70, 8.3)).toBeGreaterThan(68);
@@ -59,8 +81,8 @@ describe('field capacity', () => {
       expect(d.source).toMatch(/ASABE D497\.7 Table 3, from memory|common practice, no published source/);
       expect(d.efficiency).toBeGreaterThanOrEqual(0.5);
       expect(d.efficiency).toBeLessThanOrEqual(0.9);
-      expect(d.speedMph).toBeGreaterThanOrEqual(2);
-      expect(d.speedMph).toBeLessThanOrEqual(8);
+      expect(units.mpsToMph(d.speedMps)).toBeGreaterThanOrEqual(2);
+      expect(units.mpsToMph(d.speedMps)).toBeLessThanOrEqual(8);
     }
   });
 });

@@ -2,11 +2,11 @@ import type { Feature, LineString, MultiPolygon, Polygon } from 'geojson';
 import { fieldArea } from '../geo/geodesic-area';
 import { projectionForField } from '../geo/local-projection';
 import { MAX_PASSES } from '../limits';
-import { roundTo } from '../round';
-import { HOUR_S, m2ToAcres, mphToKmh, mphToMps, mToFt } from '../units';
+import { HOUR_S, m2ToAcres } from '../units';
 import { chooseHeading, longStraightEdges, turnsOf, type HeadingChoice } from './auto-heading';
-import { effectiveCapacityAcPerH, effectiveCapacityHaPerH } from './field-capacity';
-import { feet, fieldName } from './format';
+import { fieldCapacityAcPerH, fieldCapacityHaPerH } from './field-capacity';
+import { formatAcres, formatHeading } from '../figures';
+import { fieldName, lengthText, widthText } from './format';
 import { difference, hazardZones, offset, readJsts, writePolygonal } from './jsts-ops';
 import { createPassClipper } from './pass-clipper';
 import { packRegion, regionAreaM2 } from './planar-region';
@@ -16,8 +16,11 @@ import { resolvePlanInput } from './resolve-plan-input';
 import { swathCoverage } from './swath-coverage';
 import type { PassProperties, PlanInput, PlanResult } from './types';
 
-/** Below this many acres a gap or overlap is not worth a warning. */
-const WARN_ACRES = 0.01;
+/**
+ * Below this many acres a gap is not worth a warning: what would read "0.0 ac" at the one decimal
+ * every acre figure has (shared/figures.ts).
+ */
+const WARN_ACRES = 0.05;
 
 /**
  * Plans straight back-and-forth passes over a field: headland laps around the edge, parallel passes
@@ -55,12 +58,12 @@ export function planPasses(input: PlanInput): PlanResult {
   const fieldJ = readJsts(boundaryXY);
   const env = fieldJ.getEnvelopeInternal();
   const span = Math.hypot(env.getWidth(), env.getHeight());
-  if (w >= span) throw new Error(`The working width (${feet(w)}) is wider than ${field} (at most ${feet(span)} across)`);
+  if (w >= span) throw new Error(`The working width (${widthText(w)}) is wider than ${field} (at most ${lengthText(span)} across)`);
   // Budget, before any heavy work: no heading needs more lines than the field's diagonal ÷ width.
   const mostPasses = Math.ceil(span / w);
   if (mostPasses > MAX_PASSES)
     throw new Error(
-      `At a working width of ${feet(w)} (${w} m), ${field} could need up to ${mostPasses.toLocaleString('en-US')} passes; Furlong plans at most ${MAX_PASSES.toLocaleString('en-US')} passes per field (enough for a two-mile field at a 10 ft implement). Check the working width.`,
+      `At a working width of ${widthText(w)}, ${field} could need up to ${mostPasses.toLocaleString('en-US')} passes; Furlong plans at most ${MAX_PASSES.toLocaleString('en-US')} passes per field (enough for a two-mile field at a 10 ft implement). Check the working width.`,
     );
 
   // The field's area on the ellipsoid, from the one place a boundary's acres come from.
@@ -69,7 +72,9 @@ export function planPasses(input: PlanInput): PlanResult {
   const headlandM = p.headlandPasses * w;
   const interiorJ = headlandM > 0 ? offset(fieldJ, -headlandM) : fieldJ;
   if (interiorJ.isEmpty() || interiorJ.getArea() <= 0)
-    throw new Error(`The headland (${p.headlandPasses} passes × ${feet(w)} = ${feet(headlandM)}) leaves nothing of ${field} to work`);
+    throw new Error(
+      `The headland (${p.headlandPasses} passes × ${widthText(w)} = ${widthText(headlandM)}) leaves nothing of ${field} to work`,
+    );
 
   const hazardsXY = p.hazards && {
     ...p.hazards,
@@ -82,7 +87,7 @@ export function planPasses(input: PlanInput): PlanResult {
   const region = packRegion(workXY);
   const clipper = createPassClipper(region, w);
 
-  const speedMps = mphToMps(p.speedMph);
+  const speedMps = p.speedMps;
   const headlandLengthM = headlandLapsM(fieldJ.getLength(), interiorJ.getLength(), p.headlandPasses);
   // The headings weighed for auto are offered to the owner whatever the heading in use, so a
   // heading chosen by hand can be compared with them; with a hand-set heading a scan that cannot
@@ -114,7 +119,7 @@ export function planPasses(input: PlanInput): PlanResult {
   }
   if (clipped.passCount === 0)
     throw new Error(
-      `No pass fits in ${field} at heading ${roundTo(heading, 1)}°: what is left to work is narrower than half the working width (${feet(w / 2)})`,
+      `No pass fits in ${field} at heading ${formatHeading(heading, 180)}: what is left to work is narrower than half the working width (${widthText(w / 2)})`,
     );
   const cover = swathCoverage(region, clipped, w);
 
@@ -122,14 +127,14 @@ export function planPasses(input: PlanInput): PlanResult {
   const workM2 = regionAreaM2(region) * scale;
   const turns = turnsOf(clipped);
   const hours = (clipped.passLengthM + headlandLengthM) / speedMps / HOUR_S + (turns * p.turnSeconds) / HOUR_S;
-  const capacityAcresPerHour = effectiveCapacityAcPerH(mToFt(w), p.speedMph, p.efficiency);
+  const capacityAcresPerHour = fieldCapacityAcPerH(w, speedMps, p.efficiency);
 
   const unworkedAcres = m2ToAcres(cover.unworkedM2 * scale);
   const overlapAcres = m2ToAcres(cover.overlapM2 * scale);
   if (p.coverage === 'gaps-ok' && unworkedAcres >= WARN_ACRES)
-    warnings.push(`${roundTo(unworkedAcres, 2)} acres of ${field} stay unworked at even spacing; choose full coverage to add a last pass`);
+    warnings.push(`${formatAcres(unworkedAcres)} of ${field} stay unworked at even spacing; choose full coverage to add a last pass`);
   if (p.coverage === 'full' && unworkedAcres >= WARN_ACRES)
-    warnings.push(`${roundTo(unworkedAcres, 2)} acres of ${field} stay unworked where holes or hazard clearances break up the passes`);
+    warnings.push(`${formatAcres(unworkedAcres)} of ${field} stay unworked where holes or hazard clearances break up the passes`);
 
   const toLonLat = <G extends Polygon | MultiPolygon>(g: G | null): G | null => (g ? proj.inverseGeometry(g) : null);
   const features = <G extends Polygon | MultiPolygon>(gs: (G | null)[]): Feature<G>[] =>
@@ -170,9 +175,9 @@ export function planPasses(input: PlanInput): PlanResult {
     hours,
     capacityHours: fieldAcresValue / capacityAcresPerHour,
     capacityAcresPerHour,
-    capacityHaPerHour: effectiveCapacityHaPerH(w, mphToKmh(p.speedMph), p.efficiency),
+    capacityHaPerHour: fieldCapacityHaPerH(w, speedMps, p.efficiency),
     widthM: w,
-    speedMph: p.speedMph,
+    speedMps,
     efficiency: p.efficiency,
     turnSeconds: p.turnSeconds,
     headlandPasses: p.headlandPasses,

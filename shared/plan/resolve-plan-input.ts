@@ -2,6 +2,7 @@ import type { FeatureCollection, MultiPolygon, Polygon } from 'geojson';
 import { assertBoundary } from '../geo/boundary-check';
 import { MAX_HAZARD_VERTICES } from '../limits';
 import { DEFAULT_EDGE_MARGIN_PCT, MAX_EDGE_MARGIN_PCT } from './auto-heading';
+import { mphToMps } from '../units';
 import { DEFAULT_TURN_SECONDS, implementDefaults, IMPLEMENT_DEFAULTS } from './implement-defaults';
 import { fieldName } from './format';
 import type { PlanInput } from './types';
@@ -15,11 +16,17 @@ export interface ResolvedPlanInput {
   headlandPasses: number;
   heading: number | 'auto';
   edgeMarginPct: number;
-  speedMph: number;
+  /** m/s */
+  speedMps: number;
   efficiency: number;
   turnSeconds: number;
   coverage: 'gaps-ok' | 'full';
 }
+
+/** The fastest working speed a plan takes: 60 mph, in m/s (above any field work; a guard against typing km/h for mph twice over). */
+export const MAX_SPEED_MPS = mphToMps(60);
+/** {@link MAX_SPEED_MPS} in words, in both unit systems. */
+export const MAX_SPEED_TEXT = '60 mph (97 km/h)';
 
 const HAZARD_TYPES = new Set(['Point', 'MultiPoint', 'LineString', 'MultiLineString', 'Polygon', 'MultiPolygon']);
 const finite = (v: unknown): v is number => typeof v === 'number' && Number.isFinite(v);
@@ -63,7 +70,7 @@ function checkHazards(hazards: unknown, field: string): FeatureCollection | unde
 /**
  * Checks a plan input and fills in its defaults; throws an Error a farmer can act on when a value is
  * wrong. Defaults: 2 headland passes, heading 'auto' with a 3 % edge margin, speed and efficiency from the implement kind
- * (else 5 mph and 0.75), 20 s per turn (common practice, no published source), 'gaps-ok'.
+ * (else 5 mph, stored as 2.2352 m/s, and 0.75), 20 s per turn (common practice, no published source), 'gaps-ok'.
  *
  * @param input the plan input as received
  * @example resolvePlanInput({ boundary, widthM: 18.288 }).headlandPasses // 2
@@ -88,9 +95,9 @@ export function resolvePlanInput(input: PlanInput): ResolvedPlanInput {
   if (input.implementKind !== undefined && !(input.implementKind in IMPLEMENT_DEFAULTS))
     throw new Error(`Unknown implement kind '${String(input.implementKind)}'; use one of ${Object.keys(IMPLEMENT_DEFAULTS).join(', ')}`);
   const defaults = implementDefaults(input.implementKind);
-  const speedMph = input.speedMph ?? defaults.speedMph;
-  if (!finite(speedMph) || speedMph <= 0 || speedMph > 60)
-    throw new Error(`The working speed must be above 0 and at most 60 mph (got ${String(speedMph)})`);
+  const speedMps = input.speedMps ?? defaults.speedMps;
+  if (!finite(speedMps) || speedMps <= 0 || speedMps > MAX_SPEED_MPS)
+    throw new Error(`The working speed must be above 0 and at most ${MAX_SPEED_TEXT} (got ${String(speedMps)} m/s)`);
   const efficiency = input.efficiency ?? defaults.efficiency;
   if (!finite(efficiency) || efficiency <= 0 || efficiency > 1)
     throw new Error(`The field efficiency must be above 0 and at most 1 (e.g. 0.75 for 75 %) (got ${String(efficiency)})`);
@@ -108,7 +115,7 @@ export function resolvePlanInput(input: PlanInput): ResolvedPlanInput {
     headlandPasses,
     heading,
     edgeMarginPct,
-    speedMph,
+    speedMps,
     efficiency,
     turnSeconds,
     coverage,

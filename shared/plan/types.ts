@@ -24,8 +24,8 @@ export interface PlanInput {
   edgeMarginPct?: number;
   /** Implement kind; gives default speed and field efficiency. */
   implementKind?: ImplementKind;
-  /** Working speed, mph; default from the implement kind, else 5. */
-  speedMph?: number;
+  /** Working speed, metres per second; default from the implement kind, else 5 mph (2.2352 m/s). */
+  speedMps?: number;
   /** Field efficiency, 0 < e ≤ 1; default from the implement kind, else 0.75. */
   efficiency?: number;
   /** Seconds per end turn; default 20 (common practice, no published source). */
@@ -74,12 +74,14 @@ export interface PlanResult {
   hours: number;
   /** Field acres ÷ effective field capacity (AEN-73 rule), h; the rule-of-thumb twin of `hours`. */
   capacityHours: number;
-  /** Effective field capacity: speed (mph) × width (ft) × efficiency / 8.25 (AEN-73). */
+  /** Effective field capacity, ac/h: width × speed × efficiency (AEN-73: ft × mph × efficiency / 8.25). */
   capacityAcresPerHour: number;
-  /** Effective field capacity: speed (km/h) × width (m) × efficiency / 10 (GRDC). */
+  /** Effective field capacity, ha/h: width × speed × efficiency (GRDC: km/h × m × efficiency / 10). */
   capacityHaPerHour: number;
+  /** Working width, metres. */
   widthM: number;
-  speedMph: number;
+  /** Working speed, metres per second. */
+  speedMps: number;
   efficiency: number;
   turnSeconds: number;
   headlandPasses: number;

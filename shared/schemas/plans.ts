@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { OPERATIONS } from '../operations';
 import { MAX_EDGE_MARGIN_PCT } from '../plan/auto-heading';
 import { IMPLEMENT_DEFAULTS, type ImplementKind } from '../plan/implement-defaults';
+import { MAX_SPEED_MPS, MAX_SPEED_TEXT } from '../plan/resolve-plan-input';
 import type { PlanResult } from '../plan/types';
 import { dbId, dbIdNumber } from './common';
 import { geometry } from './fields';
@@ -12,7 +13,13 @@ const EDGE_MARGIN_RANGE = `The margin for passes along an edge is 0 to ${MAX_EDG
 
 const kinds = Object.keys(IMPLEMENT_DEFAULTS) as [ImplementKind, ...ImplementKind[]];
 
-/** The settings of a pass plan, as the Pass plan screen sends them. Widths in metres. */
+const SPEED_ABOVE_ZERO = 'The speed must be above zero';
+const SPEED_AT_MOST = `The speed is at most ${MAX_SPEED_TEXT}`;
+
+/**
+ * The settings of a pass plan, as the Pass plan screen sends them: SI units, as they are stored
+ * (width in metres, speed in metres per second); the screens convert for display only.
+ */
 export const planSettings = z.object({
   widthM: z.number().positive('The working width must be greater than zero').max(100, 'The working width is at most 100 m (328 ft)'),
   headlandPasses: z
@@ -23,7 +30,22 @@ export const planSettings = z.object({
     .optional(),
   headingDeg: z.union([z.literal('auto'), z.number().min(0, HEADING_RANGE).lt(180, HEADING_RANGE)], { message: HEADING_RANGE }).optional(),
   edgeMarginPct: z.number().min(0, EDGE_MARGIN_RANGE).max(MAX_EDGE_MARGIN_PCT, EDGE_MARGIN_RANGE).optional(),
-  speedMph: z.number().positive('The speed must be above zero').max(60, 'The speed is at most 60 mph (97 km/h)').optional(),
+  speedMps: z
+    .number()
+    .positive(SPEED_ABOVE_ZERO)
+    .max(MAX_SPEED_MPS, SPEED_AT_MOST)
+    .meta({ description: 'Working speed, metres per second (1 mph = 0.447 04 m/s exactly).' })
+    .optional(),
+  /**
+   * The speed in mph, as clients written before plans stored SI sent it; converted exactly to
+   * `speedMps` on arrival, so such a client's plan keeps its speed. Send one of the two.
+   */
+  speedMph: z
+    .number()
+    .positive(SPEED_ABOVE_ZERO)
+    .max(60, SPEED_AT_MOST)
+    .meta({ deprecated: true, description: 'Deprecated: send speedMps. Working speed, mph, converted exactly to m/s.' })
+    .optional(),
   efficiency: z
     .number()
     .gt(0, 'Field efficiency is above 0 and at most 100 %')
@@ -71,7 +93,8 @@ export interface SavedPlan {
   /** null: auto (the heading with the least field time, along an edge when nearly as fast). */
   headingDeg: number | null;
   coverage: 'gaps-ok' | 'full';
-  speedMph: number;
+  /** Working speed, metres per second. */
+  speedMps: number;
   efficiency: number;
   turnSeconds: number;
   summary: PlanSummary;

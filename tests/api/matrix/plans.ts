@@ -13,7 +13,7 @@ async function plannedField(c: Ctx): Promise<number> {
     headland_passes: 1,
     heading_deg: 0,
     coverage: 'gaps-ok',
-    speed_mph: 7,
+    speed_mps: 3.12928, // 7 mph
     efficiency: 0.85,
     turn_seconds: 20,
     summary: JSON.stringify({ passCount: 0 }),

@@ -1,5 +1,6 @@
 // Hand-made plans for the specs (jsdom specs do not run the planner itself).
 import type { PlanResult } from '@shared/plan/types';
+import { mphToMps } from '@shared/units';
 import type { Polygon } from 'geojson';
 import type { SavedPlanWithResult, PlanField } from './pass-plan-api';
 
@@ -60,7 +61,7 @@ export function planResult(change: Partial<PlanResult> = {}): PlanResult {
     capacityAcresPerHour: 51.5,
     capacityHaPerHour: 20.8,
     widthM: 25.6032,
-    speedMph: 7,
+    speedMps: mphToMps(7),
     efficiency: 0.85,
     turnSeconds: 20,
     headlandPasses: 2,
@@ -104,7 +105,7 @@ export function savedPlan(change: Partial<SavedPlanWithResult> = {}): SavedPlanW
     headlandPasses: 2,
     headingDeg: 90,
     coverage: 'gaps-ok',
-    speedMph: 7,
+    speedMps: mphToMps(7),
     efficiency: 0.85,
     turnSeconds: 20,
     summary,

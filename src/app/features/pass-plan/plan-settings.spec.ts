@@ -10,6 +10,7 @@ import {
   sameAsSaved,
   settingsBody,
   settingsFromSaved,
+  settingsInUnits,
   settingsProblems,
   toPlanInput,
 } from './plan-settings';
@@ -41,11 +42,12 @@ const US: PlanSettings = {
 };
 
 describe('plan settings', () => {
-  it('when the farm uses feet and mph, then the input is in metres, mph and a fraction', () => {
-    // 1 ft = 0.3048 m exactly (NIST & NOAA/NGS, 85 FR 62698).
+  it('when the farm uses feet and mph, then the input is in metres, metres per second and a fraction', () => {
+    // 1 ft = 0.3048 m exactly (NIST & NOAA/NGS, 85 FR 62698); 1 mph = 0.447 04 m/s exactly (NIST
+    // Handbook 44, Appendix C: 1 mile = 1,609.344 m).
     const input = toPlanInput(US, FIELD, 'us');
     expect(input.widthM).toBeCloseTo(18.288, 9);
-    expect(input.speedMph).toBe(7);
+    expect(input.speedMps).toBeCloseTo(3.12928, 12);
     expect(input.efficiency).toBeCloseTo(0.85, 12);
     expect(input.headingDeg).toBe(35);
     expect(input.headlandPasses).toBe(2);
@@ -57,11 +59,11 @@ describe('plan settings', () => {
     expect('implementId' in input).toBe(false);
   });
 
-  it('when the farm is metric, then metres stay metres and km/h become mph', () => {
-    // 1 mile = 1609.344 m, so 12 km/h = 12000 / 1609.344 mph.
+  it('when the farm is metric, then metres stay metres and km/h become metres per second', () => {
+    // 1 km/h = 1,000 m / 3,600 s, so 12 km/h = 3.333… m/s.
     const body = settingsBody({ ...US, width: 12, speed: 12, autoHeading: true }, 'metric');
     expect(body.widthM).toBe(12);
-    expect(body.speedMph).toBeCloseTo(12_000 / 1609.344, 9);
+    expect(body.speedMps).toBeCloseTo(12_000 / 3_600, 12);
     expect(body.headingDeg).toBe('auto');
   });
 
@@ -143,6 +145,47 @@ describe('plan settings', () => {
     expect(settingsProblems({ ...US, width: null }, 'metric')).toEqual({
       byControl: { width: 'Enter the working width in metres' },
       message: 'Fill in Working width.',
+    });
+  });
+
+  describe('units switched on a saved plan', () => {
+    // 1 ft = 0.3048 m and 1 mile = 1,609.344 m exactly (NIST Handbook 44, Appendix C): 84 ft is
+    // 25.6032 m; 5.3 mph is 2.369 312 m/s and 8.529 523 2 km/h, which the box shows as 8.5.
+    const saved = savedPlan({ widthM: 25.6032, speedMps: 2.369312 });
+
+    it('when a saved plan is shown in metric and saved untouched, then its stored width and speed go back unchanged', () => {
+      const metric = settingsFromSaved(saved, [], 'metric');
+      expect([metric.width, metric.speed]).toEqual([25.6, 8.5]);
+      const body = settingsBody(metric, 'metric');
+      expect([body.widthM, body.speedMps]).toEqual([25.6032, 2.369312]);
+    });
+
+    it('when the units switch imperial → metric → imperial, then the stored width and speed never change', () => {
+      const us = settingsFromSaved(saved, [], 'us');
+      const metric = settingsInUnits(us, 'us', 'metric');
+      const back = settingsInUnits(metric, 'metric', 'us');
+      for (const [s, system] of [
+        [us, 'us'],
+        [metric, 'metric'],
+        [back, 'us'],
+      ] as const) {
+        const body = settingsBody(s, system);
+        expect({ system, widthM: body.widthM, speedMps: body.speedMps }).toEqual({ system, widthM: 25.6032, speedMps: 2.369312 });
+      }
+      expect([us.speed, metric.speed, back.speed]).toEqual([5.3, 8.5, 5.3]);
+      expect([back.width, back.speed]).toEqual([us.width, us.speed]);
+      expect(sameAsSaved(metric, saved, 'metric')).toBe(true);
+    });
+
+    it('when a box is typed after a switch, then the typed value is what is saved, in the units it was typed in', () => {
+      const metric = settingsInUnits(settingsFromSaved(saved, [], 'us'), 'us', 'metric');
+      const body = settingsBody({ ...metric, width: 24, speed: 10 }, 'metric');
+      expect(body.widthM).toBe(24);
+      expect(body.speedMps).toBeCloseTo(10 / 3.6, 12);
+      // And a typed value survives a switch back: 24 m = 78.74 ft → 78.7 in the box, 24 m stored.
+      const back = settingsInUnits({ ...metric, width: 24 }, 'metric', 'us');
+      expect(back.width).toBe(78.7);
+      expect(settingsBody(back, 'us').widthM).toBe(24);
     });
   });
 });

@@ -7,7 +7,8 @@ import { DEFAULT_EDGE_MARGIN_PCT } from '@shared/plan/auto-heading';
 import { HEADING_RANGE, planSettings, type SavedPlan } from '@shared/schemas/plans';
 import { type FormFields, type PlacedProblems, schemaProblems } from '../../shared/forms/field-labels';
 import { roundTo } from '@shared/round';
-import { ftToM, mphToKmh, mToFt } from '@shared/units';
+import { formatSpeed, formatWidth } from '@shared/figures';
+import { ftToM, kmhToMps, mphToMps, mpsToKmh, mpsToMph, mToFt } from '@shared/units';
 
 /**
  * The Pass plan form as the person sees it: lengths in the farm's unit (ft or m), speed in mph or
@@ -32,6 +33,14 @@ export interface PlanSettings {
   coverage: CoverageRule;
   /** Auto heading keeps the passes along a long edge when at most this many per cent slower. */
   edgeMarginPct: number | null;
+  /**
+   * The stored width behind the width box, metres. The box shows it rounded in the farm's unit; as
+   * long as the box still shows that, the body sends this exact value, so viewing a saved plan in
+   * other units (or switching units and back) never changes its width.
+   */
+  widthM?: number;
+  /** The stored speed behind the speed box, m/s; kept like {@link PlanSettings.widthM}. */
+  speedMps?: number;
 }
 
 /** The body of `PUT /api/plans/:fieldId/:operation` (planSettings in shared/schemas/plans.ts). */
@@ -39,7 +48,8 @@ export interface PlanSettingsBody {
   widthM: number;
   headlandPasses: number;
   headingDeg: number | 'auto';
-  speedMph: number;
+  /** Metres per second, as stored. */
+  speedMps: number;
   efficiency: number;
   turnSeconds: number;
   coverage: CoverageRule;
@@ -57,6 +67,7 @@ export const PASS_PLAN_FIELDS: FormFields = {
   headlandPasses: { control: 'headlandPasses', label: 'Headland passes' },
   headingDeg: { control: 'heading', label: 'Heading' },
   edgeMarginPct: { control: 'edgeMargin', label: 'Keep passes along an edge' },
+  speedMps: { control: 'speed', label: 'Speed' },
   speedMph: { control: 'speed', label: 'Speed' },
   efficiency: { control: 'efficiency', label: 'Field efficiency' },
   turnSeconds: { control: 'turnSeconds', label: 'Seconds per turn' },
@@ -72,17 +83,56 @@ export const PASS_PLAN_FIELDS: FormFields = {
 
 export const DEFAULT_HEADLAND_PASSES = 2;
 
-/** Speed in the farm's unit from mph (one decimal). */
-export const speedFromMph = (mph: number, system: UnitSystem): number => roundTo(system === 'metric' ? mphToKmh(mph) : mph, 1);
-const speedToMph = (speed: number, system: UnitSystem): number => (system === 'metric' ? speed / mphToKmh(1) : speed);
+/** Speed in the farm's unit (mph or km/h, one decimal) from the stored m/s. */
+export const speedFromMps = (mps: number, system: UnitSystem): number => roundTo(system === 'metric' ? mpsToKmh(mps) : mpsToMph(mps), 1);
+const speedToMps = (speed: number, system: UnitSystem): number => (system === 'metric' ? kmhToMps(speed) : mphToMps(speed));
 /** Width in the farm's unit from metres: feet to 0.1 ft, metres to the centimetre. */
 export const widthFromMetres = (m: number, system: UnitSystem): number => (system === 'metric' ? roundTo(m, 2) : roundTo(mToFt(m), 1));
 const widthToMetres = (width: number, system: UnitSystem): number => (system === 'metric' ? width : ftToM(width));
 
-/** Speed and efficiency of an implement kind, in the form's units. */
-export function kindDefaults(kind: ImplementKind, system: UnitSystem): Pick<PlanSettings, 'speed' | 'efficiencyPct'> {
+/** Speed and efficiency of an implement kind, in the form's units (and the speed as stored). */
+export function kindDefaults(kind: ImplementKind, system: UnitSystem): Pick<PlanSettings, 'speed' | 'speedMps' | 'efficiencyPct'> {
   const d = implementDefaults(kind);
-  return { speed: speedFromMph(d.speedMph, system), efficiencyPct: roundTo(d.efficiency * 100, 1) };
+  return { speed: speedFromMps(d.speedMps, system), speedMps: d.speedMps, efficiencyPct: roundTo(d.efficiency * 100, 1) };
+}
+
+/** The width the form stands for, metres: the stored one while the box shows it, else what was typed. */
+function exactWidthM(s: PlanSettings, system: UnitSystem): number | null {
+  if (s.width === null || !Number.isFinite(s.width)) return null;
+  return s.widthM !== undefined && s.width === widthFromMetres(s.widthM, system) ? s.widthM : widthToMetres(s.width, system);
+}
+
+/** The speed the form stands for, m/s: the stored one while the box shows it, else what was typed. */
+function exactSpeedMps(s: PlanSettings, system: UnitSystem): number | null {
+  if (s.speed === null || !Number.isFinite(s.speed)) return null;
+  return s.speedMps !== undefined && s.speed === speedFromMps(s.speedMps, system) ? s.speedMps : speedToMps(s.speed, system);
+}
+
+/**
+ * The form's width and speed written as every width and speed is (shared/figures.ts), from the
+ * values it stands for: the stored ones while the boxes show them, else what was typed.
+ *
+ * @example settingsFigures({ …, width: 60, speed: 7 }, 'us') // { width: '60.0 ft', speed: '7.0 mph' }
+ */
+export function settingsFigures(s: PlanSettings, system: UnitSystem): { width: string; speed: string } {
+  return { width: formatWidth(exactWidthM(s, system), system), speed: formatSpeed(exactSpeedMps(s, system), system) };
+}
+
+/**
+ * The same form shown in other units: the boxes are converted from the stored values (never from
+ * the rounded boxes), which stay as they were, so imperial → metric → imperial changes nothing.
+ */
+export function settingsInUnits(s: PlanSettings, from: UnitSystem, to: UnitSystem): PlanSettings {
+  if (from === to) return s;
+  const widthM = exactWidthM(s, from);
+  const speedMps = exactSpeedMps(s, from);
+  return {
+    ...s,
+    width: widthM === null ? s.width : widthFromMetres(widthM, to),
+    widthM: widthM ?? undefined,
+    speed: speedMps === null ? s.speed : speedFromMps(speedMps, to),
+    speedMps: speedMps ?? undefined,
+  };
 }
 
 /** Implements of the fleet that do an operation. */
@@ -98,6 +148,7 @@ export function defaultSettings(operation: Operation, fleet: readonly Implement[
     implementId: implement?.id ?? null,
     implementKind: kind,
     width: implement ? widthFromMetres(implement.widthM, system) : null,
+    widthM: implement?.widthM,
     headlandPasses: DEFAULT_HEADLAND_PASSES,
     autoHeading: true,
     headingDeg: 0,
@@ -115,10 +166,12 @@ export function settingsFromSaved(saved: SavedPlan, fleet: readonly Implement[],
     implementId: implement?.id ?? null,
     implementKind: implement?.kind ?? OPERATION_INFO[saved.operation].implementKinds[0],
     width: widthFromMetres(saved.widthM, system),
+    widthM: saved.widthM,
     headlandPasses: saved.headlandPasses,
     autoHeading: saved.headingDeg === null,
     headingDeg: saved.headingDeg ?? saved.summary.headingDeg,
-    speed: speedFromMph(saved.speedMph, system),
+    speed: speedFromMps(saved.speedMps, system),
+    speedMps: saved.speedMps,
     efficiencyPct: roundTo(saved.efficiency * 100, 1),
     turnSeconds: saved.turnSeconds,
     coverage: saved.coverage,
@@ -134,17 +187,18 @@ function required(value: number | null, what: string): number {
 }
 
 /**
- * The form as the body the API saves: metres, mph, a fraction. Throws an Error naming the empty box.
+ * The form as the body the API saves: metres, metres per second, a fraction. Throws an Error naming the empty box.
  *
  * @example settingsBody({ …, width: 60 }, 'us').widthM // 18.288
  */
 export function settingsBody(s: PlanSettings, system: UnitSystem): PlanSettingsBody {
-  const width = required(s.width, `the working width in ${system === 'metric' ? 'metres' : 'feet'}`);
+  required(s.width, `the working width in ${system === 'metric' ? 'metres' : 'feet'}`);
+  const speed = required(s.speed, `the working speed in ${system === 'metric' ? 'km/h' : 'mph'}`);
   return {
-    widthM: widthToMetres(width, system),
+    widthM: exactWidthM(s, system)!,
     headlandPasses: required(s.headlandPasses, 'the number of headland passes (0 for none)'),
     headingDeg: s.autoHeading ? 'auto' : required(s.headingDeg, 'the heading in degrees'),
-    speedMph: speedToMph(required(s.speed, `the working speed in ${system === 'metric' ? 'km/h' : 'mph'}`), system),
+    speedMps: exactSpeedMps({ ...s, speed }, system)!,
     efficiency: required(s.efficiencyPct, 'the field efficiency in per cent') / 100,
     turnSeconds: required(s.turnSeconds, 'the seconds per turn'),
     coverage: s.coverage,
@@ -212,7 +266,8 @@ export function sameAsSaved(s: PlanSettings, saved: SavedPlan, system: UnitSyste
       Math.abs(b.widthM - saved.widthM) < 0.005 &&
       b.headlandPasses === saved.headlandPasses &&
       (b.headingDeg === 'auto' ? saved.headingDeg === null : saved.headingDeg !== null && close(b.headingDeg, saved.headingDeg)) &&
-      Math.abs(b.speedMph - saved.speedMph) < 0.05 &&
+      // Within half the box's step in km/h (0.05 km/h), the finer of its two units.
+      Math.abs(b.speedMps - saved.speedMps) < kmhToMps(0.05) &&
       close(b.efficiency, saved.efficiency) &&
       close(b.turnSeconds, saved.turnSeconds) &&
       b.coverage === saved.coverage &&

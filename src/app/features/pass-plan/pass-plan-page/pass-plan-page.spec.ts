@@ -4,6 +4,7 @@ import { type ComponentFixture, TestBed } from '@angular/core/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { Router, provideRouter } from '@angular/router';
 import type { Me } from '@shared/schemas/auth';
+import { mphToMps } from '@shared/units';
 import { AuthStore } from '../../../core/auth/auth-store';
 import { errorInterceptor } from '../../../core/http/error.interceptor';
 import { FieldMap } from '../../../shared/map/field-map/field-map';
@@ -115,6 +116,28 @@ describe('PassPlanPage', () => {
     expect(page.textContent).toContain('Not saved yet.');
   });
 
+  it('when the farm switches units imperial → metric → imperial on a saved plan, then the boxes follow and the planned width and speed stay as stored', async () => {
+    await open('owner', 'saved');
+    const box = (label: string) =>
+      [...page.querySelectorAll('mat-form-field')]
+        .find((f) => f.querySelector('mat-label')?.textContent?.trim() === label)
+        ?.querySelector('input');
+    const auth = TestBed.inject(AuthStore);
+    const switchTo = async (units: 'us' | 'metric') => {
+      auth.signedInAs({ ...me('owner'), farm: { ...me('owner').farm, units } });
+      await fixture.whenStable();
+      await pause();
+    };
+    // The saved plan: 25.6032 m (84 ft, 1 ft = 0.3048 m, 85 FR 62698) at 7 mph, stored in m/s.
+    expect(box('Working width (ft)')?.value).toBe('84');
+    await switchTo('metric');
+    expect(box('Working width (m)')?.value).toBe('25.6');
+    expect(worker.last().input).toMatchObject({ widthM: 25.6032, speedMps: mphToMps(7) });
+    await switchTo('us');
+    expect(box('Working width (ft)')?.value).toBe('84');
+    expect(worker.last().input).toMatchObject({ widthM: 25.6032, speedMps: mphToMps(7) });
+  });
+
   it('when the owner types a width, then the worker plans it in metres and the figures show', async () => {
     await open('owner', 'none');
     type('Working width (ft)', '84');
@@ -168,7 +191,8 @@ describe('PassPlanPage', () => {
     expect(req.request.body).toMatchObject({
       headingDeg: 'auto',
       headlandPasses: 2,
-      speedMph: 7,
+      // The harrow's default, 7 mph (ASABE D497.7 Table 3, from memory), sent in m/s: 7 × 0.447 04.
+      speedMps: mphToMps(7),
       efficiency: 0.85,
       turnSeconds: 20,
       coverage: 'gaps-ok',
@@ -257,7 +281,7 @@ describe('PassPlanPage', () => {
     expect(worker.sent).toHaveLength(0);
     expect(buttons()).not.toContain('Save plan');
     expect(page.querySelectorAll('input[name="width"]')).toHaveLength(0);
-    expect(page.querySelector('[aria-label="Plan settings"]')?.textContent).toContain('84 ft');
+    expect(page.querySelector('[aria-label="Plan settings"]')?.textContent).toContain('84.0 ft');
     expect(figure('passes')).toBe('31');
     expect(page.querySelector('a[download]')?.textContent).toContain('Download passes (GeoJSON)');
     expect(page.textContent).toContain("Only the farm's owner changes a pass plan.");
