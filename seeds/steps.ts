@@ -1,6 +1,7 @@
 import type { Knex } from 'knex';
 import { seedDemoFields } from './02_demo_fields';
 import { seedDemoFleetCrew } from './03_demo_fleet_crew';
+import { seedDemoCosts } from './04_demo_costs';
 
 /**
  * What each demo step gets: the new farm, the demo people's user ids by e-mail, and the instant the
@@ -16,4 +17,4 @@ export interface DemoContext {
 export type DemoStep = (tx: Knex.Transaction, ctx: DemoContext) => Promise<void>;
 
 /** The demo farm's contents, loaded in this order after the farm and its people. */
-export const DEMO_STEPS: DemoStep[] = [seedDemoFields, seedDemoFleetCrew];
+export const DEMO_STEPS: DemoStep[] = [seedDemoFields, seedDemoFleetCrew, seedDemoCosts];

@@ -196,7 +196,7 @@ describe('season shaping', () => {
 
   it('when fields are listed, then each operation done this season is a column with the day it was finished', () => {
     const t = fieldsTable(S, 'us');
-    expect(t.columns.map((c) => c.key)).toEqual(['field', 'crop', 'area', 'harrowing', 'seeding', 'hours']);
+    expect(t.columns.map((c) => c.key)).toEqual(['field', 'crop', 'area', 'harrowing', 'seeding', 'hours', 'cost', 'costPerArea']);
     const north = t.rows.find((r) => r['field'] === 'North')!;
     expect(north['seedingDone']).toBe('done May 12');
     expect(north['harrowingDone']).toBeNull();

@@ -59,6 +59,8 @@ describe('MembersPage', () => {
     httpTesting.expectOne('/api/background/failed').flush({ jobs: [] });
     // And the weather limits (weather-limits.spec.ts tests them): the defaults, as the server answers.
     httpTesting.expectOne('/api/weather/limits').flush({ limits: DEFAULT_LIMITS, defaults: DEFAULT_LIMITS, sources: LIMIT_SOURCES });
+    // And the costs of the farm's own work (work-costs.spec.ts tests them).
+    httpTesting.expectOne('/api/costs').flush({ fuelPriceCents: null, fuel: [], machines: [], people: [] });
   });
 
   afterEach(() => {

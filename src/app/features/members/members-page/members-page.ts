@@ -18,6 +18,7 @@ import { InviteMember } from '../invite-member/invite-member';
 import { MEMBERS_URL, MembersApi } from '../members-api';
 import { ROLE_OPTIONS } from '../role-labels';
 import { WeatherLimitsForm } from '../weather-limits/weather-limits';
+import { WorkCostsForm } from '../work-costs/work-costs';
 
 /** The owner's page for the farm: its settings, and who belongs to it (invite, change role, remove; history stays). */
 @Component({
@@ -33,6 +34,7 @@ import { WeatherLimitsForm } from '../weather-limits/weather-limits';
     MatSelectModule,
     MatTableModule,
     WeatherLimitsForm,
+    WorkCostsForm,
   ],
   templateUrl: './members-page.html',
   styleUrl: './members-page.scss',
