@@ -127,8 +127,8 @@ async function generate(db: Db): Promise<number> {
     { farmId, first: LAST_SEASON - SEASONS + 1, last: LAST_SEASON },
   );
   await db.raw(
-    `insert into pass_plans (farm_id, field_id, operation, width_m, headland_passes, coverage, speed_mph, efficiency, turn_seconds, summary)
-     select :farmId, f.id, op, 20, 2, 'gaps-ok', 6, 0.8, 20, jsonb_build_object('hours', round(f.acres / 45, 2), 'fieldAcres', f.acres)
+    `insert into pass_plans (farm_id, field_id, operation, width_m, headland_passes, coverage, speed_mps, efficiency, turn_seconds, summary)
+     select :farmId, f.id, op, 20, 2, 'gaps-ok', 2.68224 /* 6 mph */, 0.8, 20, jsonb_build_object('hours', round(f.acres / 45, 2), 'fieldAcres', f.acres)
      from fields f cross join unnest(array['harrowing', 'seeding', 'spraying']) as op where f.farm_id = :farmId`,
     { farmId },
   );

@@ -50,6 +50,12 @@ export const MAX_FILE_FEATURES = 2_000;
 /** Most positions in all the shapes of one boundary file together. */
 export const MAX_FILE_VERTICES = 500_000;
 
+/**
+ * Positions in one track file (coverage): a whole day logged at one position per second is 86,400;
+ * twice that, with a margin, bounds a file of a long day at a faster rate.
+ */
+export const MAX_TRACK_POINTS = 200_000;
+
 /** Deepest nesting of elements (XML) or of arrays and objects (JSON) in an uploaded file. */
 export const MAX_NESTING_DEPTH = 64;
 

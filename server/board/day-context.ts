@@ -10,7 +10,7 @@ import { getFarmSettings } from '../farm/farm.repository';
 import type { DbHazardRow } from '../fields/fields.repository';
 import { whyCannotPull } from '../fleet/can-pull';
 import { serviceDue } from '../fleet/service-due';
-import { acresDone, viewsOfDay } from '../jobs/assignments.repository';
+import { acresDone, assignmentViews, viewsOfDay } from '../jobs/assignments.repository';
 import type { AssignmentView } from '../jobs/jobs.rows';
 import { acresToDo, cardAcresLeft, seasonOf } from '../jobs/progress';
 import { getDay } from './board-days.repository';
@@ -32,8 +32,19 @@ export interface DayContext {
   cards: ConflictCard[];
   passPlans: Map<string, DbPassPlanRow>;
   hazards: DbHazardRow[];
+  /** Empty when the day is read for one operator's column only. */
   skills: Skills;
+  /** Empty when the day is read for one operator's column only. */
   people: PersonRow[];
+}
+
+/**
+ * One operator's column instead of the whole day: enough to build that operator's cards, whose
+ * times depend on their own column only (see `schedule`). The answer to a logged action reads
+ * this, not the whole farm's day.
+ */
+export interface DayScope {
+  operatorId: number;
 }
 
 export const planKey = (fieldId: number, operation: Operation) => `${fieldId}|${operation}`;
@@ -69,6 +80,8 @@ function toAssignment(v: AssignmentView, done: number, plan: DbPassPlanRow | und
       startedAt: v.started_at?.toISOString() ?? null,
       finishedAt: v.finished_at?.toISOString() ?? null,
       acresDone: v.acres_done,
+      acresTyped: v.acres_source === 'measured' ? v.acres_typed : v.acres_done,
+      acresMeasured: v.acres_source === 'measured',
       hoursWorked: v.hours_worked,
       engineHoursStart: v.engine_hours_start,
       engineHoursEnd: v.engine_hours_end,
@@ -77,13 +90,15 @@ function toAssignment(v: AssignmentView, done: number, plan: DbPassPlanRow | und
   };
 }
 
-export async function loadDay(db: Tx, farmId: number, day: string): Promise<DayContext> {
+export async function loadDay(db: Tx, farmId: number, day: string, scope?: DayScope): Promise<DayContext> {
   // One query at a time: on a transaction they share one connection.
   const farm = await getFarmSettings(db, farmId);
   const boardDay = await getDay(db, farmId, day);
-  const views = await viewsOfDay(db, farmId, day);
-  const skillRows = await skillsOfFarm(db, farmId);
-  const people = await peopleOfFarm(db, farmId);
+  const views = scope
+    ? await assignmentViews(db, farmId, (q) => void q.where({ 'a.day': day, 'a.operator_id': scope.operatorId }))
+    : await viewsOfDay(db, farmId, day);
+  const skillRows = scope ? [] : await skillsOfFarm(db, farmId);
+  const people = scope ? [] : await peopleOfFarm(db, farmId);
   const fieldIds = [...new Set(views.map((v) => v.field_id))];
   const done = await acresDone(db, farmId, seasonOf(day), fieldIds);
   const plans = await passPlansOf(db, farmId, fieldIds);

@@ -11,7 +11,8 @@ import { COMPUTE_MEMORY_LIMIT_MB, COMPUTE_TIME_LIMIT_MS } from '../../shared/lim
 import { AppError } from '../http/errors';
 import type * as Tasks from './tasks';
 
-type TaskName = 'plan' | 'measureBoundary' | 'readBoundaryFile' | 'findFieldOverlaps';
+type TaskName =
+  'plan' | 'measureBoundary' | 'readBoundaryFile' | 'findFieldOverlaps' | 'buildTaskData' | 'trackCoverage' | 'pointsCoverage';
 type Input<K extends TaskName> = Omit<Parameters<(typeof Tasks)[K]>[0], 'started'>;
 type Output<K extends TaskName> = Awaited<ReturnType<(typeof Tasks)[K]>> extends Tasks.Envelope<infer T> ? T : never;
 

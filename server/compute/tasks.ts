@@ -6,7 +6,10 @@ import { findOverlaps, type BoundaryOverlap, type OverlapCandidate } from '../..
 import { planPasses } from '../../shared/plan/plan-passes';
 import type { PlanInput, PlanResult } from '../../shared/plan/types';
 import { readBoundaryFile as readFile, type ReadFile } from '../fields/import/read-file';
+import { computeCoverage, type CoverageInput, type CoverageResult } from '../../shared/track-coverage/coverage';
+import { readAnyTrack } from '../track-coverage/read-track';
 import { AppError } from '../http/errors';
+import { buildTaskData as buildTaskDataFile, type TaskDataInput } from '../taskdata/build-taskdata';
 
 export interface TaskFailure {
   status: number;
@@ -73,5 +76,42 @@ export function findFieldOverlaps(
       ),
     422,
     'bad_boundary',
+  );
+}
+
+/** ISO 11783-10 task data (TASKDATA/TASKDATA.XML, zipped) for a day's jobs or one job. */
+export function buildTaskData(input: TaskDataInput & Started): Promise<Envelope<Uint8Array>> {
+  // eslint-disable-next-line @typescript-eslint/no-unused-vars
+  const { started, ...data } = input;
+  return wrap(input, () => buildTaskDataFile(data), 422, 'bad_task_data');
+}
+
+/**
+ * Coverage of a track file over a field (bytes arrive as a Uint8Array view): the file is read
+ * here too, so a huge or hostile file costs a worker, never the event loop.
+ */
+export function trackCoverage(
+  input: { name: string; data: Uint8Array } & Omit<CoverageInput, 'track'> & Started,
+): Promise<Envelope<CoverageResult & { format: 'gpx' | 'geojson' | 'timelog' }>> {
+  const data = Buffer.from(input.data.buffer, input.data.byteOffset, input.data.byteLength);
+  return wrap(
+    input,
+    async () => {
+      const track = await readAnyTrack(input.name, data);
+      const r = computeCoverage({ boundary: input.boundary, hazards: input.hazards, widthM: input.widthM, track: track.lines });
+      return { ...r, format: track.format };
+    },
+    400,
+    'bad_track',
+  );
+}
+
+/** Coverage of a track already read into lines (the phone track a job's run sheet recorded). */
+export function pointsCoverage(input: CoverageInput & Started): Promise<Envelope<CoverageResult>> {
+  return wrap(
+    input,
+    () => computeCoverage({ boundary: input.boundary, hazards: input.hazards, widthM: input.widthM, track: input.track }),
+    400,
+    'bad_track',
   );
 }

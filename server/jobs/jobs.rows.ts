@@ -23,6 +23,10 @@ export interface DbAssignmentRow {
   started_at: Date | null;
   finished_at: Date | null;
   acres_done: number | null;
+  /** Acres typed at the finish (or by the owner's correction), kept when measured acres count instead. */
+  acres_typed: number | null;
+  /** Which figure acres_done holds (server/track-coverage/measured-acres.ts); null until finished. */
+  acres_source: 'typed' | 'measured' | null;
   hours_worked: number | null;
   engine_hours_start: number | null;
   engine_hours_end: number | null;

@@ -21,15 +21,18 @@ export async function editLog(deps: AppDeps, by: SessionPrincipal, id: number, p
   await deps.db.transaction(async (tx) => {
     const a = await lockJob(tx, by, id, 'owner');
     mustBeFinished(a);
-    if (patch.acresDone !== undefined) await checkAcres(tx, by.farmId, a, patch.acresDone);
+    if (patch.acresDone !== undefined) await checkAcres(tx, by.farmId, by.units, a, patch.acresDone);
     const start = patch.engineHoursStart === undefined ? a.engine_hours_start : patch.engineHoursStart;
     const end = patch.engineHoursEnd === undefined ? a.engine_hours_end : patch.engineHoursEnd;
     if (start != null && end != null && end < start) throw backwards(end, start, 'the reading at the start');
     const cols: AssignmentColumns = {};
     const said: string[] = [];
     if (patch.acresDone !== undefined) {
+      // The owner's correction is their word: it counts, as typed, over a measured figure (server/track-coverage/measured-acres.ts).
       cols.acres_done = patch.acresDone;
-      said.push(`acres ${a.acres_done ?? '–'} → ${patch.acresDone}`);
+      cols.acres_typed = patch.acresDone;
+      cols.acres_source = 'typed';
+      said.push(`acres ${a.acres_done ?? '–'}${a.acres_source === 'measured' ? ' (measured)' : ''} → ${patch.acresDone}`);
     }
     if (patch.hoursWorked !== undefined) {
       cols.hours_worked = patch.hoursWorked;
@@ -64,6 +67,8 @@ export async function deleteLog(deps: AppDeps, by: SessionPrincipal, id: number)
     await updateAssignment(tx, id, {
       state: 'planned',
       acres_done: null,
+      acres_typed: null,
+      acres_source: null,
       hours_worked: null,
       engine_hours_start: null,
       engine_hours_end: null,

@@ -1,9 +1,15 @@
 // The season report's tables as CSV, in the farm's units: acres or hectares (the column names say
 // which), hours, engine hours. One record per entity and operation, so a spreadsheet can pivot
-// them; no totals row, which would be counted twice by a sum.
+// them; no totals row, which would be counted twice by a sum. Each number column has the decimals
+// the season screen shows for it (shared/figures.ts), and crops read as everywhere else. Money is
+// in dollars with cents (column names end in _dollars), the API's whole cents as they are: never
+// rounded again. Cost per hectare on a metric farm is the only figure made here, from the cents
+// and the hectares.
+import { FIGURE_DECIMALS, cropName } from '../../shared/figures';
 import { OPERATION_INFO } from '../../shared/operations';
 import type { UnitSystem } from '../../shared/schemas/auth';
-import type { SeasonSummary, SeasonTable } from '../../shared/schemas/season';
+import type { FieldOperationSeason, SeasonSummary, SeasonTable } from '../../shared/schemas/season';
+import { roundCents } from '../../shared/money';
 import { acresToHa } from '../../shared/units';
 import { toCsv, type Cell } from './csv';
 
@@ -13,6 +19,19 @@ export function seasonCsv(s: SeasonSummary, table: SeasonTable, units: UnitSyste
   /** An area in the farm's unit; a rate per hour likewise. */
   const a = (acres: number | null): number | null => (acres === null ? null : metric ? acresToHa(acres) : acres);
   const label = (op: keyof typeof OPERATION_INFO) => OPERATION_INFO[op].label;
+  // Decimals by kind of column: text, area (and area per hour), hours, per cent, count.
+  const { area: A, hours: H, percent: P, count: C } = FIGURE_DECIMALS;
+  const T = 0;
+  /** Dollars with cents. */
+  const M = 2;
+  /** Whole cents as dollars (exact: an integer ÷ 100 written to 2 places). */
+  const dollars = (cents: number | null): number | null => (cents === null ? null : cents / 100);
+  /**
+   * Cost per acre as the API gives it, or on a metric farm the cost's cents ÷ hectares rounded by
+   * the money rule (shared/money.ts); null without area.
+   */
+  const perArea = (centsPerAcre: number | null, costCents: number, acres: number): number | null =>
+    centsPerAcre === null || acres <= 0 ? null : metric ? roundCents(costCents / acresToHa(acres)) / 100 : centsPerAcre / 100;
 
   switch (table) {
     case 'operations':
@@ -33,6 +52,14 @@ export function seasonCsv(s: SeasonSummary, table: SeasonTable, units: UnitSyste
           'jobs_called_off',
           'weather_days_lost',
           'jobs_called_off_for_weather',
+          'cost_dollars',
+          'machine_cost_dollars',
+          'labour_cost_dollars',
+          'fuel_cost_dollars',
+          `cost_per_${metric ? 'hectare' : 'acre'}_dollars`,
+          'jobs_without_rates',
+          'jobs_measured',
+          `${area}_measured`,
         ],
         s.operations.map((o): Cell[] => [
           label(o.operation),
@@ -50,19 +77,63 @@ export function seasonCsv(s: SeasonSummary, table: SeasonTable, units: UnitSyste
           o.jobsCalledOff,
           o.weatherDaysLost,
           o.jobsCalledOffForWeather,
+          dollars(o.costCents),
+          dollars(o.machineCents),
+          dollars(o.labourCents),
+          dollars(o.fuelCents),
+          perArea(o.costPerAcreCents, o.costCents, o.acresFinished),
+          o.jobsUnpriced,
+          o.jobsMeasured,
+          a(o.acresMeasured),
         ]),
-        [11, 12, 13, 14],
+        [T, A, A, A, P, H, H, A, A, A, H, C, C, C, C, M, M, M, M, M, C, C, A],
       );
     case 'fields':
       return toCsv(
-        ['field', 'crop', `field_${area}`, 'operation', `${area}_finished`, 'hours_logged', 'date_finished'],
+        [
+          'field',
+          'crop',
+          `field_${area}`,
+          'operation',
+          `${area}_finished`,
+          'hours_logged',
+          'date_finished',
+          'cost_dollars',
+          'field_cost_dollars',
+          `field_cost_per_${metric ? 'hectare' : 'acre'}_dollars`,
+          // What tracks measured (blank when no job of the row was measured): the measured jobs
+          // count the measured acres; what was typed for them is kept beside it.
+          'jobs_finished',
+          'jobs_measured',
+          `${area}_measured`,
+          `${area}_typed_on_measured_jobs`,
+          `${area}_skipped`,
+          `${area}_worked_twice`,
+        ],
         s.byField.flatMap((f): Cell[][] => {
-          const ops = Object.entries(f.operations) as Array<
-            [keyof typeof OPERATION_INFO, { acres: number; hours: number; dateFinished: string | null }]
-          >;
-          if (!ops.length) return [[f.field, f.crop, a(f.acres), '', 0, 0, '']];
-          return ops.map(([op, v]) => [f.field, f.crop, a(f.acres), label(op), a(v.acres), v.hours, v.dateFinished]);
+          const ops = Object.entries(f.operations) as Array<[keyof typeof OPERATION_INFO, FieldOperationSeason]>;
+          const crop = cropName(f.crop);
+          const fieldCost = [dollars(f.costCents), perArea(f.costPerAcreCents, f.costCents, f.acres)];
+          if (!ops.length) return [[f.field, crop, a(f.acres), '', 0, 0, '', 0, ...fieldCost, 0, 0, null, null, null, null]];
+          return ops.map(([op, v]) => [
+            f.field,
+            crop,
+            a(f.acres),
+            label(op),
+            a(v.acres),
+            v.hours,
+            v.dateFinished,
+            dollars(v.costCents),
+            ...fieldCost,
+            v.jobs,
+            v.measured?.jobs ?? 0,
+            a(v.measured?.coveredAcres ?? null),
+            a(v.measured?.typedAcres ?? null),
+            a(v.measured?.skippedAcres ?? null),
+            a(v.measured?.workedTwiceAcres ?? null),
+          ]);
         }),
+        [T, T, A, T, A, H, T, M, M, M, C, C, A, A, A, A],
       );
     case 'people':
       return toCsv(
@@ -72,10 +143,22 @@ export function seasonCsv(s: SeasonSummary, table: SeasonTable, units: UnitSyste
             ([op, v]): Cell[] => [p.name, label(op), a(v.acres), v.hours, v.hours > 0 ? a(v.acres / v.hours) : null],
           ),
         ),
+        [T, T, A, H, A],
       );
     case 'machines':
       return toCsv(
-        ['machine', 'operation', `${area}_finished`, 'hours_logged', 'engine_hours', `${area}_per_engine_hour`],
+        [
+          'machine',
+          'operation',
+          `${area}_finished`,
+          'hours_logged',
+          'engine_hours',
+          `${area}_per_engine_hour`,
+          'cost_dollars',
+          'machine_cost_dollars',
+          'machine_total_cost_dollars',
+          `machine_cost_per_${metric ? 'hectare' : 'acre'}_dollars`,
+        ],
         s.byMachine.flatMap((m) =>
           m.operations.map((o): Cell[] => [
             m.machine,
@@ -84,13 +167,19 @@ export function seasonCsv(s: SeasonSummary, table: SeasonTable, units: UnitSyste
             o.hours,
             o.engineHours,
             o.engineHours > 0 ? a(o.acres / o.engineHours) : null,
+            dollars(o.costCents),
+            dollars(o.machineCents),
+            dollars(m.costCents),
+            perArea(m.costPerAcreCents, m.costCents, m.acres),
           ]),
         ),
+        [T, T, A, H, H, A, M, M, M, M],
       );
     case 'weekly':
       return toCsv(
         ['operation', 'week_starting', `${area}_finished`, `cumulative_${area}`],
         s.weekly.map((w): Cell[] => [label(w.operation), w.week, a(w.acresFinished), a(w.cumulativeAcres)]),
+        [T, T, A, A],
       );
   }
 }

@@ -12,6 +12,8 @@
 // - Weather days lost: the days with at least one job called off for weather (its log's reason),
 //   per operation; the farm's total counts a day lost to two operations once, so it is not the
 //   sum of the operations' days.
+// - Costs (rules in shared/costs.ts) are whole cents, each figure rounded once in SQL from its
+//   exact sum; nothing here adds or rounds money.
 import { OPERATIONS, type Operation } from '../../shared/operations';
 import type { FieldSeason, MachineSeason, OperationSeason, PersonSeason, SeasonIndex, SeasonSummary } from '../../shared/schemas/season';
 import type { AppDeps } from '../app-deps';
@@ -37,6 +39,9 @@ export async function seasonSummary(deps: AppDeps, farmId: number, year: number)
     fieldOperations: fieldOps,
     personOperations: personOps,
     machineOperations: machineOps,
+    fieldCosts,
+    costTotals,
+    machineCosts,
   } = await repo.seasonRows(deps.db, farmId, year);
 
   const logOf = new Map(logs.map((l) => [l.operation, l]));
@@ -65,8 +70,17 @@ export async function seasonSummary(deps: AppDeps, farmId: number, year: number)
       jobsCalledOff: l?.jobs_called_off ?? 0,
       weatherDaysLost: weatherOf.get(operation)?.days ?? 0,
       jobsCalledOffForWeather: weatherOf.get(operation)?.jobs ?? 0,
+      costCents: l?.cost_cents ?? 0,
+      machineCents: l?.machine_cents ?? 0,
+      labourCents: l?.labour_cents ?? 0,
+      fuelCents: l?.fuel_cents ?? 0,
+      costPerAcreCents: l?.cost_per_acre_cents ?? null,
+      jobsUnpriced: l?.jobs_unpriced ?? 0,
+      jobsMeasured: l?.jobs_measured ?? 0,
+      acresMeasured: precise(l?.acres_measured ?? 0),
     };
   });
+  const cost = costTotals[0];
 
   const totalAcres = logs.reduce((s, l) => s + l.acres, 0);
   const totalHours = logs.reduce((s, l) => s + l.hours, 0);
@@ -79,9 +93,9 @@ export async function seasonSummary(deps: AppDeps, farmId: number, year: number)
       acresFinished: precise(w.acres),
       cumulativeAcres: precise(w.cumulative),
     })),
-    byField: byField(fields, fieldOps),
+    byField: byField(fields, fieldOps, fieldCosts),
     byPerson: byPerson(personOps),
-    byMachine: byMachine(machineOps),
+    byMachine: byMachine(machineOps, machineCosts),
     totals: {
       acresFinished: precise(totalAcres),
       hoursLogged: precise(totalHours),
@@ -92,21 +106,51 @@ export async function seasonSummary(deps: AppDeps, farmId: number, year: number)
       weatherDaysLost: weatherOf.get(null)?.days ?? 0,
       jobsCalledOffForWeather: weatherOf.get(null)?.jobs ?? 0,
       fieldsWorked: new Set(fieldOps.map((f) => f.field_id)).size,
+      costCents: cost?.cost_cents ?? 0,
+      costPerAcreCents: cost?.cost_per_acre_cents ?? null,
+      jobsUnpriced: cost?.jobs_unpriced ?? 0,
     },
   };
 }
 
-function byField(fields: repo.FieldRow[], rows: repo.FieldOperationRow[]): FieldSeason[] {
+function byField(fields: repo.FieldRow[], rows: repo.FieldOperationRow[], costs: repo.FieldCostRow[]): FieldSeason[] {
+  const costOf = new Map(costs.map((c) => [c.field_id, c]));
   const out = new Map<number, FieldSeason>(
     fields.map((f) => [
       f.id,
-      { fieldId: f.id, field: f.name, crop: f.crop, acres: precise(f.acres), operations: {}, totalAcres: 0, totalHours: 0 },
+      {
+        fieldId: f.id,
+        field: f.name,
+        crop: f.crop,
+        acres: precise(f.acres),
+        operations: {},
+        totalAcres: 0,
+        totalHours: 0,
+        costCents: costOf.get(f.id)?.cost_cents ?? 0,
+        costPerAcreCents: costOf.get(f.id)?.cost_per_acre_cents ?? null,
+      },
     ]),
   );
   for (const r of [...rows].sort((a, b) => OPERATIONS.indexOf(a.operation) - OPERATIONS.indexOf(b.operation))) {
     const f = out.get(r.field_id);
     if (!f) continue;
-    f.operations[r.operation] = { acres: precise(r.acres), hours: precise(r.hours), dateFinished: r.date_finished };
+    f.operations[r.operation] = {
+      acres: precise(r.acres),
+      hours: precise(r.hours),
+      costCents: r.cost_cents,
+      dateFinished: r.date_finished,
+      jobs: r.jobs,
+      measured:
+        r.jobs_measured > 0
+          ? {
+              jobs: r.jobs_measured,
+              coveredAcres: precise(r.measured_acres ?? 0),
+              skippedAcres: precise(r.skipped_acres ?? 0),
+              workedTwiceAcres: precise(r.worked_twice_acres ?? 0),
+              typedAcres: r.measured_typed_acres === null ? null : precise(r.measured_typed_acres),
+            }
+          : null,
+    };
     f.totalAcres += r.acres;
     f.totalHours += r.hours;
   }
@@ -137,7 +181,8 @@ function byPerson(rows: repo.PersonOperationRow[]): PersonSeason[] {
   }));
 }
 
-function byMachine(rows: repo.MachineOperationRow[]): MachineSeason[] {
+function byMachine(rows: repo.MachineOperationRow[], costs: repo.MachineCostRow[]): MachineSeason[] {
+  const costOf = new Map(costs.map((c) => [c.machine_id, c]));
   const out = new Map<number, MachineSeason>();
   for (const r of rows) {
     const m = out.get(r.machine_id) ?? {
@@ -147,6 +192,9 @@ function byMachine(rows: repo.MachineOperationRow[]): MachineSeason[] {
       acres: 0,
       hours: 0,
       acresPerEngineHour: null,
+      costCents: costOf.get(r.machine_id)?.cost_cents ?? 0,
+      machineCents: costOf.get(r.machine_id)?.machine_cents ?? 0,
+      costPerAcreCents: costOf.get(r.machine_id)?.cost_per_acre_cents ?? null,
       operations: [],
     };
     m.operations.push({
@@ -154,6 +202,8 @@ function byMachine(rows: repo.MachineOperationRow[]): MachineSeason[] {
       acres: precise(r.acres),
       hours: precise(r.hours),
       engineHours: precise(r.engine_hours),
+      costCents: r.cost_cents,
+      machineCents: r.machine_cents,
     });
     m.engineHours += r.engine_hours;
     m.acres += r.acres;

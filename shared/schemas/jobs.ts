@@ -32,7 +32,12 @@ export interface PersonRef {
 export interface AssignmentLog {
   startedAt: string | null;
   finishedAt: string | null;
+  /** The acres the job counts: measured from its track when it has one, else typed. */
   acresDone: number | null;
+  /** The acres typed at the finish (or by the owner's correction), shown as typed even when measured acres count. */
+  acresTyped: number | null;
+  /** Whether acresDone was measured from the job's track (see acresTyped for what was typed). */
+  acresMeasured: boolean;
   hoursWorked: number | null;
   engineHoursStart: number | null;
   engineHoursEnd: number | null;

@@ -23,6 +23,8 @@ const operation = z.enum(OPERATIONS);
 const num = z.number();
 const maybe = z.number().nullable();
 const day = z.string().regex(/^\d{4}-\d{2}-\d{2}$/);
+/** Money: whole cents. */
+const cents = z.number().int();
 
 export const operationSeason = z.object({
   operation,
@@ -48,6 +50,20 @@ export const operationSeason = z.object({
   weatherDaysLost: z.number().int(),
   /** Jobs of this operation called off for weather (a subset of jobsCalledOff). */
   jobsCalledOffForWeather: z.number().int(),
+  /** What the finished jobs cost (machine + labour + fuel), whole cents, rounded once from the exact sum (shared/money.ts). */
+  costCents: cents,
+  /** Its parts, each rounded once from its own exact sum (so they may differ from costCents by a cent). */
+  machineCents: cents,
+  labourCents: cents,
+  fuelCents: cents,
+  /** costCents per acre finished, whole cents; null without acres. */
+  costPerAcreCents: cents.nullable(),
+  /** Finished jobs whose machine or operator had no hourly cost, or done while the farm had no fuel price: the cost is short by them. */
+  jobsUnpriced: z.number().int(),
+  /** Of the finished jobs, those whose acres were measured from their track (the rest were typed). */
+  jobsMeasured: z.number().int(),
+  /** Of acresFinished, the acres measured from tracks. */
+  acresMeasured: num,
 });
 export type OperationSeason = z.infer<typeof operationSeason>;
 
@@ -63,9 +79,28 @@ export type WeekSeason = z.infer<typeof weekSeason>;
 export const fieldOperationSeason = z.object({
   acres: num,
   hours: num,
+  costCents: cents,
   /** The day the field was first fully covered for the operation; null while acres remain. */
   dateFinished: day.nullable(),
+  /** Finished jobs of this field and operation. */
+  jobs: z.number().int(),
+  /** What the tracks of the jobs measured from a track say (those jobs count these acres); null when no job was measured. */
+  measured: z
+    .object({
+      /** How many of the jobs were measured (the rest count typed acres). */
+      jobs: z.number().int(),
+      /** Acres their tracks covered: what those jobs count. */
+      coveredAcres: num,
+      /** Acres of the work region their tracks missed (slivers left out). */
+      skippedAcres: num,
+      /** Acres under two or more passes. */
+      workedTwiceAcres: num,
+      /** What was typed for those jobs, shown beside the measured figure. */
+      typedAcres: maybe,
+    })
+    .nullable(),
 });
+export type FieldOperationSeason = z.infer<typeof fieldOperationSeason>;
 
 export const fieldSeason = z.object({
   fieldId: z.number().int(),
@@ -75,6 +110,10 @@ export const fieldSeason = z.object({
   operations: z.partialRecord(operation, fieldOperationSeason),
   totalAcres: num,
   totalHours: num,
+  /** What the field's finished jobs cost, every operation, whole cents. */
+  costCents: cents,
+  /** costCents per acre of the field (its size, not the acres worked); null for a field without acres or work. */
+  costPerAcreCents: cents.nullable(),
 });
 export type FieldSeason = z.infer<typeof fieldSeason>;
 
@@ -96,7 +135,13 @@ export const machineSeason = z.object({
   acres: num,
   hours: num,
   acresPerEngineHour: maybe,
-  operations: z.array(z.object({ operation, acres: num, hours: num, engineHours: num })),
+  /** What the jobs done with this machine cost (machine + labour + fuel), whole cents. */
+  costCents: cents,
+  /** Of that, the machine's own hourly cost × its hours. */
+  machineCents: cents,
+  /** costCents per acre the machine finished; null without acres. */
+  costPerAcreCents: cents.nullable(),
+  operations: z.array(z.object({ operation, acres: num, hours: num, engineHours: num, costCents: cents, machineCents: cents })),
 });
 export type MachineSeason = z.infer<typeof machineSeason>;
 
@@ -111,6 +156,11 @@ export const seasonTotals = z.object({
   weatherDaysLost: z.number().int(),
   jobsCalledOffForWeather: z.number().int(),
   fieldsWorked: z.number().int(),
+  /** What all finished jobs cost, whole cents, rounded once (not the sum of the operations' rounded figures). */
+  costCents: cents,
+  /** costCents per acre finished; null without acres. */
+  costPerAcreCents: cents.nullable(),
+  jobsUnpriced: z.number().int(),
 });
 
 export const seasonSummary = z.object({

@@ -6,6 +6,7 @@ import { matrixContext } from './matrix/context';
 import { Client, startTestApp, type TestApp } from '../support/test-app';
 
 import { MATRIX, type Who } from './matrix';
+import { MATRIX_WALK_MS } from './matrix/types';
 
 const keyOf = (r: RouteEntry) => `${r.method.toUpperCase()} ${r.path.replace(/\/$/, '')}`;
 
@@ -37,26 +38,31 @@ describe('authorization matrix', () => {
     expect(registered).toEqual(Object.keys(MATRIX).sort());
   });
 
-  it('when each principal calls each route, then the server answers the expected status', async () => {
-    const ctx = matrixContext(t, farm);
-    const failures: string[] = [];
-    for (const route of routes) {
-      const key = keyOf(route);
-      const c = MATRIX[key];
-      for (const who of Object.keys(c.expect) as Who[]) {
-        let client = clients[who];
-        if (c.fresh && who !== 'anon') {
-          client = new Client(t.app);
-          const person = who === 'other' ? other.owner : farm[who];
-          await client.signIn(person.email, person.password);
+  // Every route five times over, heavy ones (imports, task data, coverage) included: a walk, not one request.
+  it(
+    'when each principal calls each route, then the server answers the expected status',
+    async () => {
+      const ctx = matrixContext(t, farm);
+      const failures: string[] = [];
+      for (const route of routes) {
+        const key = keyOf(route);
+        const c = MATRIX[key];
+        for (const who of Object.keys(c.expect) as Who[]) {
+          let client = clients[who];
+          if (c.fresh && who !== 'anon') {
+            client = new Client(t.app);
+            const person = who === 'other' ? other.owner : farm[who];
+            await client.signIn(person.email, person.password);
+          }
+          const path = c.path ? await c.path(ctx) : route.path;
+          const res = await client[route.method](path, c.body);
+          if (res.status !== c.expect[who])
+            failures.push(`${key} as ${who}: got ${res.status}, expected ${c.expect[who]} ${JSON.stringify(res.body)}`);
+          if (res.status >= 400) expect(res.body.error?.message).toEqual(expect.any(String));
         }
-        const path = c.path ? await c.path(ctx) : route.path;
-        const res = await client[route.method](path, c.body);
-        if (res.status !== c.expect[who])
-          failures.push(`${key} as ${who}: got ${res.status}, expected ${c.expect[who]} ${JSON.stringify(res.body)}`);
-        if (res.status >= 400) expect(res.body.error?.message).toEqual(expect.any(String));
       }
-    }
-    expect(failures).toEqual([]);
-  });
+      expect(failures).toEqual([]);
+    },
+    MATRIX_WALK_MS,
+  );
 });

@@ -124,8 +124,12 @@ describe('Season in a real browser', () => {
     const csv = fs.readFileSync((await download.path())!);
     expect([...csv.subarray(0, 3)]).toEqual([0xef, 0xbb, 0xbf]);
     const lines = csv.subarray(3).toString('utf8').split('\r\n');
-    expect(lines[0]).toBe('field,crop,field_acres,operation,acres_finished,hours_logged,date_finished');
-    const total = lines.slice(1, -1).reduce((s, l) => s + Number(l.split(',').at(-3)), 0);
+    expect(lines[0]).toBe(
+      'field,crop,field_acres,operation,acres_finished,hours_logged,date_finished,cost_dollars,field_cost_dollars,field_cost_per_acre_dollars,' +
+        'jobs_finished,jobs_measured,acres_measured,acres_typed_on_measured_jobs,acres_skipped,acres_worked_twice',
+    );
+    // Counted from the end: a field's name may hold a comma. acres_finished is the twelfth column from the end.
+    const total = lines.slice(1, -1).reduce((s, l) => s + Number(l.split(',').at(-12)), 0);
     expect(Math.abs(total - acresFinished)).toBeLessThan(0.01 * lines.length);
   });
 

@@ -4,13 +4,23 @@
 import { OPERATION_INFO, OPERATIONS, type Operation } from '@shared/operations';
 import type { UnitSystem } from '@shared/schemas/auth';
 import type { SeasonSummary, WeekSeason } from '@shared/schemas/season';
+import { FIGURE_DECIMALS, areaIn, areaUnit, cropName, figure } from '@shared/figures';
+import { formatMoney, roundCents } from '@shared/money';
 import { acresToHa } from '@shared/units';
 
-/** An area in the farm's unit: acres, or hectares on a metric farm. */
-export const areaIn = (acres: number, system: UnitSystem): number => (system === 'metric' ? acresToHa(acres) : acres);
-export const areaUnit = (system: UnitSystem): string => (system === 'metric' ? 'ha' : 'ac');
+/** An area in the farm's unit, and its unit's short name (shared/figures.ts). */
+export { areaIn, areaUnit };
 
-export type ColumnKind = 'text' | 'area' | 'hours' | 'rate' | 'percent' | 'count' | 'date';
+export type ColumnKind = 'text' | 'area' | 'hours' | 'rate' | 'percent' | 'count' | 'date' | 'money';
+
+/**
+ * Cost per acre as the API gives it (whole cents, rounded once there), or on a metric farm the
+ * cost's cents ÷ hectares, rounded once by the money rule (shared/money.ts); null without area.
+ */
+export function costPerArea(centsPerAcre: number | null, costCents: number, acres: number, system: UnitSystem): number | null {
+  if (centsPerAcre === null || acres <= 0) return null;
+  return system === 'metric' ? roundCents(costCents / acresToHa(acres)) : centsPerAcre;
+}
 
 export interface Column {
   key: string;
@@ -101,12 +111,14 @@ export function operationsTable(s: SeasonSummary, system: UnitSystem): Table {
   const columns: Column[] = [
     { key: 'operation', label: 'Operation', kind: 'text', total: { text: 'All operations' } },
     { key: 'planned', label: `Planned (${u})`, kind: 'area', total: { sum: true } },
-    { key: 'finished', label: `Finished (${u})`, kind: 'area', total: { sum: true } },
+    { key: 'finished', label: `Finished (${u})`, kind: 'area', total: { sum: true }, note: 'measuredNote' },
     { key: 'progress', label: 'Covered', kind: 'percent', total: { ratio: ['covered', 'planned'] } },
     { key: 'plannedHours', label: 'Planned hours', kind: 'hours', total: { sum: true } },
     { key: 'hours', label: 'Logged hours', kind: 'hours', total: { sum: true } },
     { key: 'plannedRate', label: `Planned ${u}/h`, kind: 'rate', total: { ratio: ['withPlan', 'plannedHours'] } },
     { key: 'rate', label: `Actual ${u}/h`, kind: 'rate', total: { ratio: ['finished', 'hours'] } },
+    { key: 'cost', label: 'Cost', kind: 'money', total: { sum: true } },
+    { key: 'costPerArea', label: `Cost per ${u}`, kind: 'money', total: { sum: true } },
   ];
   const active = new Set(activeOperations(s));
   const rows = s.operations
@@ -116,14 +128,27 @@ export function operationsTable(s: SeasonSummary, system: UnitSystem): Table {
       planned: areaIn(o.acresPlanned, system),
       covered: areaIn(o.acresCovered, system),
       finished: areaIn(o.acresFinished, system),
+      // Which of the finished figure was measured from tracks (the rest was typed).
+      measuredNote: o.jobsMeasured > 0 ? `${figure(areaIn(o.acresMeasured, system), FIGURE_DECIMALS.area)} measured` : null,
       progress: o.progress,
       plannedHours: o.plannedHours,
       hours: o.hoursLogged,
       withPlan: areaIn(o.acresWithPlan, system),
       plannedRate: o.plannedAcresPerHour === null ? null : areaIn(o.plannedAcresPerHour, system),
       rate: o.acresPerHour === null ? null : areaIn(o.acresPerHour, system),
+      cost: o.costCents,
+      costPerArea: costPerArea(o.costPerAcreCents, o.costCents, o.acresFinished, system),
     }));
-  return { columns, rows, totals: totalsOf(columns, rows) };
+  // Money totals come from the API, rounded once from the exact sum, never added up from rounded rows.
+  return { columns, rows, totals: { ...totalsOf(columns, rows), ...moneyTotals(s, system) } };
+}
+
+/** The farm's cost and cost per area for a totals row. */
+function moneyTotals(s: SeasonSummary, system: UnitSystem): Row {
+  return {
+    cost: s.totals.costCents,
+    costPerArea: costPerArea(s.totals.costPerAcreCents, s.totals.costCents, s.totals.acresFinished, system),
+  };
 }
 
 /**
@@ -144,6 +169,42 @@ export function weatherTable(s: SeasonSummary): Table {
   return { columns, rows, totals };
 }
 
+/**
+ * What tracks measured, per field and operation with at least one measured job: those jobs count
+ * the acres their tracks covered (the typed acres beside them), with the ground the tracks
+ * skipped and worked twice. Empty when no job has a track.
+ */
+export function measuredTable(s: SeasonSummary, system: UnitSystem): Table {
+  const u = areaUnit(system);
+  const columns: Column[] = [
+    { key: 'field', label: 'Field', kind: 'text', total: { text: 'All measured jobs' } },
+    { key: 'operation', label: 'Operation', kind: 'text' },
+    { key: 'jobs', label: 'Jobs measured', kind: 'text' },
+    { key: 'covered', label: `Covered, measured (${u})`, kind: 'area', total: { sum: true } },
+    { key: 'typed', label: `Typed (${u})`, kind: 'area', total: { sum: true } },
+    { key: 'skipped', label: `Skipped (${u})`, kind: 'area', total: { sum: true } },
+    { key: 'twice', label: `Worked twice (${u})`, kind: 'area', total: { sum: true } },
+  ];
+  const rows = s.byField.flatMap((f) =>
+    OPERATIONS.flatMap((op): Row[] => {
+      const m = f.operations[op]?.measured;
+      if (!m) return [];
+      return [
+        {
+          field: f.field,
+          operation: label(op),
+          jobs: `${m.jobs} of ${f.operations[op]!.jobs}`,
+          covered: areaIn(m.coveredAcres, system),
+          typed: m.typedAcres === null ? null : areaIn(m.typedAcres, system),
+          skipped: areaIn(m.skippedAcres, system),
+          twice: areaIn(m.workedTwiceAcres, system),
+        },
+      ];
+    }),
+  );
+  return { columns, rows, totals: totalsOf(columns, rows) };
+}
+
 /** Operations done anywhere this season, for the per-field and per-person columns. */
 const doneOperations = (s: SeasonSummary) => OPERATIONS.filter((op) => s.operations.some((o) => o.operation === op && o.acresFinished > 0));
 
@@ -156,9 +217,18 @@ export function fieldsTable(s: SeasonSummary, system: UnitSystem): Table {
     { key: 'area', label: `Area (${u})`, kind: 'area', total: { sum: true } },
     ...ops.map((op): Column => ({ key: op, label: `${label(op)} (${u})`, kind: 'area', total: { sum: true }, note: `${op}Done` })),
     { key: 'hours', label: 'Hours', kind: 'hours', total: { sum: true } },
+    { key: 'cost', label: 'Cost', kind: 'money', total: { sum: true } },
+    { key: 'costPerArea', label: `Cost per ${u} of field`, kind: 'money' },
   ];
   const rows = s.byField.map((f) => {
-    const row: Row = { field: f.field, crop: f.crop, area: areaIn(f.acres, system), hours: f.totalHours };
+    const row: Row = {
+      field: f.field,
+      crop: cropName(f.crop),
+      area: areaIn(f.acres, system),
+      hours: f.totalHours,
+      cost: f.costCents,
+      costPerArea: costPerArea(f.costPerAcreCents, f.costCents, f.acres, system),
+    };
     for (const op of ops) {
       const v = f.operations[op];
       row[op] = v ? areaIn(v.acres, system) : null;
@@ -166,7 +236,7 @@ export function fieldsTable(s: SeasonSummary, system: UnitSystem): Table {
     }
     return row;
   });
-  return { columns, rows, totals: totalsOf(columns, rows) };
+  return { columns, rows, totals: { ...totalsOf(columns, rows), cost: s.totals.costCents } };
 }
 
 export function peopleTable(s: SeasonSummary, system: UnitSystem): Table {
@@ -201,6 +271,9 @@ export function machinesTable(s: SeasonSummary, system: UnitSystem): Table {
     { key: 'hours', label: 'Logged hours', kind: 'hours', total: { sum: true } },
     { key: 'engineHours', label: 'Engine hours', kind: 'hours', total: { sum: true } },
     { key: 'rate', label: `${u} per engine hour`, kind: 'rate', total: { ratio: ['area', 'engineHours'] } },
+    { key: 'machineCost', label: 'Machine cost', kind: 'money' },
+    { key: 'cost', label: 'Cost of its jobs', kind: 'money', total: { sum: true } },
+    { key: 'costPerArea', label: `Cost per ${u}`, kind: 'money' },
   ];
   const rows = s.byMachine.map((m) => ({
     machine: m.machine,
@@ -209,8 +282,11 @@ export function machinesTable(s: SeasonSummary, system: UnitSystem): Table {
     hours: m.hours,
     engineHours: m.engineHours,
     rate: m.acresPerEngineHour === null ? null : areaIn(m.acresPerEngineHour, system),
+    machineCost: m.machineCents,
+    cost: m.costCents,
+    costPerArea: costPerArea(m.costPerAcreCents, m.costCents, m.acres, system),
   }));
-  return { columns, rows, totals: totalsOf(columns, rows) };
+  return { columns, rows, totals: { ...totalsOf(columns, rows), cost: s.totals.costCents } };
 }
 
 /** Two seasons side by side, per operation either of them planned or worked. */
@@ -248,20 +324,24 @@ export function compareTable(a: SeasonSummary, b: SeasonSummary, system: UnitSys
   return { columns, rows, totals: totalsOf(columns, rows) };
 }
 
-const oneDecimal = new Intl.NumberFormat('en-US', { minimumFractionDigits: 1, maximumFractionDigits: 1 });
-const whole = new Intl.NumberFormat('en-US', { maximumFractionDigits: 0 });
-
-/** A cell as text: areas, hours and rates to one decimal, shares as whole percent, empty as a dash. */
+/**
+ * A cell as text: areas, hours and rates to one decimal, shares as whole percent, empty as a dash;
+ * the decimals and rounding of shared/figures.ts, which the CSV export uses too.
+ */
 export function formatCell(value: string | number | null | undefined, kind: ColumnKind): string {
   if (value === null || value === undefined || value === '') return '—';
   if (typeof value === 'string') return value;
   if (!Number.isFinite(value)) return '—';
   switch (kind) {
     case 'percent':
-      return `${whole.format(value * 100)} %`;
+      return `${figure(value * 100, FIGURE_DECIMALS.percent)} %`;
     case 'count':
-      return whole.format(value);
+      return figure(value, FIGURE_DECIMALS.count);
+    case 'hours':
+      return figure(value, FIGURE_DECIMALS.hours);
+    case 'money':
+      return formatMoney(value);
     default:
-      return oneDecimal.format(value);
+      return figure(value, FIGURE_DECIMALS.area);
   }
 }

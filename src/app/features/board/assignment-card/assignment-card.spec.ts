@@ -39,6 +39,8 @@ describe('AssignmentCard', () => {
           startedAt: '2031-05-15T13:00:00Z',
           finishedAt: '2031-05-15T17:00:00Z',
           acresDone: 185.5,
+          acresTyped: 185.5,
+          acresMeasured: false,
           hoursWorked: 4,
           engineHoursStart: null,
           engineHoursEnd: null,
@@ -52,11 +54,33 @@ describe('AssignmentCard', () => {
     expect(el.textContent).not.toContain('To do');
   });
 
+  it('when the finish counts the acres measured from its track, then the card says so and keeps the typed acres beside them', () => {
+    const el = show(
+      card(1, TOMAS, 1, {
+        state: 'finished',
+        acresPlanned: 200,
+        acresLeft: 12.7,
+        log: {
+          startedAt: '2031-05-15T13:00:00Z',
+          finishedAt: '2031-05-15T17:00:00Z',
+          acresDone: 187.3,
+          acresTyped: 195,
+          acresMeasured: true,
+          hoursWorked: 4,
+          engineHoursStart: null,
+          engineHoursEnd: null,
+          callOffReason: null,
+        },
+      }),
+    );
+    expect(text(el, '.done')).toBe('187.3 ac of 200.0 ac · measured from its track, typed 195.0 ac');
+  });
+
   it('when the planned hours do not fit the window, then the card shows the window set, the planned hours and the warning', () => {
     const warning: Conflict = {
       code: 'window_too_short',
       severity: 'soft',
-      message: 'Planned 28.5 h does not fit 08:00–12:00 (4 h): North Section harrowing',
+      message: 'Planned 28.5 h does not fit 08:00–12:00 (4.0 h): North Section harrowing',
       assignmentIds: [1],
     };
     const el = show(
@@ -74,7 +98,7 @@ describe('AssignmentCard', () => {
     );
     expect(text(el, '.time')).toBe('08:00–12:00');
     expect(text(el, '.planned')).toBe('28.5 h from pass plan');
-    expect(text(el, '.conflict-soft')).toContain('Planned 28.5 h does not fit 08:00–12:00 (4 h)');
+    expect(text(el, '.conflict-soft')).toContain('Planned 28.5 h does not fit 08:00–12:00 (4.0 h)');
   });
 
   it('when the window is longer than the work, then the card says the hours it books, as the column counts them', () => {
@@ -89,7 +113,7 @@ describe('AssignmentCard', () => {
       }),
     );
     expect(text(el, '.time')).toBe('08:00–18:00');
-    expect(text(el, '.planned')?.replace(/\u00a0/g, ' ')).toBe('1.7 h estimate · 10 h booked');
+    expect(text(el, '.planned')?.replace(/\u00a0/g, ' ')).toBe('1.7 h estimate · 10.0 h booked');
   });
 
   describe('weather', () => {
@@ -115,7 +139,7 @@ describe('AssignmentCard', () => {
     });
 
     it('when the server marked the forecast stale, then the card says so with its age and why', () => {
-      const why = 'Forecast from 3 h ago: the last refresh failed (the forecast service answered 500)';
+      const why = 'Forecast from 3.0 h ago: the last refresh failed (the forecast service answered 500)';
       const el = show(spraying(), [], cardWeather(1, { verdict: 'caution', reason: 'x', stale: true, staleReason: why, ageMinutes: 180 }));
       expect(text(el, '.stale-forecast > span')).toBe(`Stale: ${why}`);
     });
@@ -129,6 +153,17 @@ describe('AssignmentCard', () => {
       });
       const el = show(spraying(), [], w);
       expect(text(el, '.stale-forecast > span')).toBe('Stale: Forecast from 2.5 h ago: no newer forecast has arrived');
+    });
+
+    it('when the page finds a forecast three hours old, then its age reads as the server and the run sheet write it, one decimal', () => {
+      const fetched = new Date(Date.now() - 180 * 60_000);
+      const w = cardWeather(1, {
+        fetchedAt: fetched.toISOString(),
+        ageMinutes: 180,
+        staleAfter: new Date(fetched.getTime() + 2 * 3_600_000).toISOString(),
+      });
+      const el = show(spraying(), [], w);
+      expect(text(el, '.stale-forecast > span')).toBe('Stale: Forecast from 3.0 h ago: no newer forecast has arrived');
     });
 
     it('when there is no forecast, then the card shows no verdict at all', () => {

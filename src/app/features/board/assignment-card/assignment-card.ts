@@ -39,6 +39,8 @@ export class AssignmentCard {
 
   readonly edit = output<void>();
   readonly remove = output<void>();
+  /** Open the job's coverage: its track and what it covered. */
+  readonly coverage = output<void>();
   readonly moveUp = output<void>();
   readonly moveDown = output<void>();
   readonly moveTo = output<number>();

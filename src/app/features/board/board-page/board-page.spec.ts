@@ -80,7 +80,7 @@ describe('BoardPage', () => {
     await load(twoCards());
     expect(page.querySelectorAll('h1')).toHaveLength(1);
     expect(cardsIn('Tomas Reyes')).toEqual(['Field 1', 'Field 2']);
-    expect(column('Tomas Reyes').querySelector('.hours')?.textContent).toContain('5.5 h planned of 10 h');
+    expect(column('Tomas Reyes').querySelector('.hours')?.textContent).toContain('5.5 h planned of 10.0 h');
     expect(column('Milo Sorensen').querySelector('.conflict-hard')?.textContent).toContain('has no mentor on Field 3');
     expect(column('Tomas Reyes').textContent).toContain('Work order not sent');
     expect(column('Ada Lindqvist').textContent).toContain('No jobs, no work order');
@@ -228,6 +228,7 @@ describe('BoardPage', () => {
           weather: {
             cards: [cardWeather(1, { verdict: 'no-go', reason: REASON, reasons: [REASON] }), cardWeather(2)],
             strip: dayStrip(),
+            note: null,
           },
         }),
       );
@@ -238,9 +239,20 @@ describe('BoardPage', () => {
       expect(cards[1].querySelector('.weather')?.getAttribute('data-verdict')).toBe('go');
     });
 
+    it('when the day is past the forecasts, then the day header says forecasts reach 7 days ahead in place of the strip', async () => {
+      await load(
+        board([card(1, TOMAS, 1, { operation: 'spraying' })], {
+          weather: { cards: [], strip: null, note: 'No forecast yet: forecasts reach 7 days ahead' },
+        }),
+      );
+      expect(page.querySelector('app-day-strip')).toBeNull();
+      expect(page.querySelector('.forecast-note')?.textContent?.trim()).toBe('No forecast yet: forecasts reach 7 days ahead');
+    });
+
     it('when there is no forecast, then no strip and no verdicts, and the board shows as before', async () => {
       await load(board([card(1, TOMAS, 1)]));
       expect(page.querySelector('app-day-strip')).toBeNull();
+      expect(page.querySelector('.forecast-note')).toBeNull();
       expect(page.querySelector('.weather')).toBeNull();
       expect(cardsIn('Tomas Reyes')).toEqual(['Field 1']);
     });
@@ -255,6 +267,26 @@ describe('BoardPage', () => {
     it('when the day shown has cards, then no next-day link, even when a later day has work', async () => {
       await load(board([card(1, TOMAS, 1)], { nextDayWithWork: '2032-04-20' }));
       expect(page.querySelector('.next-day')).toBeNull();
+    });
+  });
+
+  describe('task data', () => {
+    const link = () => page.querySelector('a.taskdata') as HTMLAnchorElement | null;
+
+    it("when the day has jobs, then a link downloads the day's TASKDATA.zip for the tractor's display", async () => {
+      await load(twoCards());
+      const a = link()!;
+      expect(a.textContent?.replace(/\s+/g, ' ').trim()).toBe('download Task data (ISO 11783-10)');
+      // The route of the public API contract: GET /api/board/:date/taskdata.zip.
+      expect(a.getAttribute('href')).toBe(`/api/board/${DAY}/taskdata.zip`);
+      expect(a.getAttribute('download')).toBe(`TASKDATA-${DAY}.zip`);
+      const hint = page.querySelector(`#${a.getAttribute('aria-describedby')}`);
+      expect(hint?.textContent).toContain("for the tractor's display");
+    });
+
+    it('when the day has no jobs, then there is no task data to download', async () => {
+      await load(board([]));
+      expect(link()).toBeNull();
     });
   });
 });

@@ -17,6 +17,7 @@ import type { CrewMember, Implement, Machine } from '@shared/schemas/fleet';
 import { type Observable, filter, map } from 'rxjs';
 import { messageOf } from '../../../core/http/api-error';
 import { ConfirmDialog, type ConfirmDialogData } from '../../../shared/ui/confirm-dialog/confirm-dialog';
+import { JobCoverageDialog, type JobCoverageDialogData } from '../../../shared/map/job-coverage-dialog/job-coverage-dialog';
 import { AssignmentCard, type MoveTarget } from '../assignment-card/assignment-card';
 import { AssignmentForm, type AssignmentFormData } from '../assignment-form/assignment-form';
 import { BoardApi } from '../board-api';
@@ -30,7 +31,8 @@ import {
   conflictsByCard,
   orderAfterMove,
 } from '../board-columns';
-import { addDays, dateOf, hoursText, isIsoDay, isoDay, longDay, shortDay, stampTime, tomorrow } from '../board-day';
+import { addDays, dateOf, hoursText, isIsoDay, isoDay, longDay, shortDay, tomorrow } from '../board-day';
+import { farmTime } from '@shared/farm-time';
 import { DayStrip } from '../day-strip/day-strip';
 import { describeChanges, staleBoardOf } from '../stale-board';
 import { AuthStore } from '../../../core/auth/auth-store';
@@ -82,6 +84,9 @@ export class BoardPage {
   });
   protected readonly dayDate = computed(() => dateOf(this.day()));
   protected readonly dayLabel = computed(() => longDay(this.day()));
+  /** The day's task data: a plain link, so the browser downloads it with the session cookie. */
+  protected readonly taskDataHref = computed(() => API.boardTaskData(this.day()));
+  protected readonly taskDataName = computed(() => `TASKDATA-${this.day()}.zip`);
 
   protected readonly board = httpResource<Board>(() => API.board(this.day()));
   private readonly crew = httpResource<CrewMember[]>(() => API.crew, { defaultValue: [] });
@@ -127,7 +132,10 @@ export class BoardPage {
 
   protected readonly hoursText = hoursText;
   protected readonly changesText = changesText;
-  protected readonly stamp = stampTime;
+  /** An instant with its day at the farm's clock, whatever the browser's zone: "May 15, 14:05". */
+  protected stamp(iso: string): string {
+    return farmTime(iso, this.auth.farm()?.timeZone, 'stamp');
+  }
   protected readonly limit = computed(() => this.current()?.dayHoursLimit ?? 0);
 
   protected goTo(day: string): void {
@@ -150,7 +158,7 @@ export class BoardPage {
     const what = order.kind === 'withdrawn' ? 'Withdrawal' : 'Work order';
     if (order.status === 'queued') return `${what} queued to send`;
     if (order.status === 'failed') return `${what} failed to send`;
-    return `${what} sent${order.sentAt ? ` ${stampTime(order.sentAt)}` : ''}`;
+    return `${what} sent${order.sentAt ? ` ${this.stamp(order.sentAt)}` : ''}`;
   }
 
   protected moveTargets(column: BoardColumn): MoveTarget[] {
@@ -188,6 +196,16 @@ export class BoardPage {
       .subscribe((saved) => {
         if (saved) this.notice.set(options.assignment ? 'Card saved.' : 'Card added.');
       });
+  }
+
+  /** A job's track and what it covered, on its map (the owner sends a track there). */
+  protected openCoverage(a: BoardAssignment): void {
+    this.dialog.open<JobCoverageDialog, JobCoverageDialogData>(JobCoverageDialog, {
+      data: { assignmentId: a.id, title: this.titleOf(a) },
+      width: '48rem',
+      maxWidth: 'calc(100vw - 1rem)',
+      autoFocus: 'dialog',
+    });
   }
 
   protected remove(a: BoardAssignment): void {
@@ -316,7 +334,7 @@ export class BoardPage {
     const stale = staleBoardOf(err);
     if (stale) {
       this.board.set(stale.current);
-      this.stale.set({ what, message: stale.message, changes: describeChanges(stale.changes), retry });
+      this.stale.set({ what, message: stale.message, changes: describeChanges(stale.changes, this.auth.farm()?.timeZone), retry });
       return;
     }
     this.problem.set(`${what}: ${messageOf(err)}`);

@@ -62,6 +62,14 @@ function season(
       jobsFinished: operation === 'harrowing' ? 2 : 0,
       jobsCalledOff: lost(operation).jobsCalledOffForWeather,
       ...lost(operation),
+      costCents: 0,
+      machineCents: 0,
+      labourCents: 0,
+      fuelCents: 0,
+      costPerAcreCents: null,
+      jobsUnpriced: 0,
+      jobsMeasured: 0,
+      acresMeasured: 0,
     })),
     weekly: [
       { operation: 'harrowing', week: `${year}-04-20`, acresFinished: harrowAcres / 2, cumulativeAcres: harrowAcres / 2 },
@@ -73,9 +81,11 @@ function season(
         field: 'North Quarter',
         crop: 'durum',
         acres: 400,
-        operations: { harrowing: { acres: harrowAcres, hours: harrowHours, dateFinished: null } },
+        operations: { harrowing: { acres: harrowAcres, hours: harrowHours, costCents: 0, dateFinished: null, jobs: 2, measured: null } },
         totalAcres: harrowAcres,
         totalHours: harrowHours,
+        costCents: 0,
+        costPerAcreCents: null,
       },
     ],
     byPerson: [
@@ -98,6 +108,9 @@ function season(
       jobsCalledOff: rainedOff.length,
       ...lost(),
       fieldsWorked: 1,
+      costCents: 0,
+      costPerAcreCents: null,
+      jobsUnpriced: 0,
     },
   };
 }

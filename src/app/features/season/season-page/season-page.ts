@@ -22,6 +22,7 @@ import {
   fieldsTable,
   formatCell,
   machinesTable,
+  measuredTable,
   operationsTable,
   peopleTable,
   weatherTable,
@@ -121,6 +122,11 @@ export class SeasonPage {
   protected readonly operations = computed(() => (this.data() ? operationsTable(this.data()!, this.units.system()) : null));
   protected readonly weather = computed(() => (this.data() ? weatherTable(this.data()!) : null));
   protected readonly fields = computed(() => (this.data() ? fieldsTable(this.data()!, this.units.system()) : null));
+  /** Measured from tracks: shown only when some job of the season has a measured track. */
+  protected readonly measured = computed(() => {
+    const t = this.data() ? measuredTable(this.data()!, this.units.system()) : null;
+    return t && t.rows.length ? t : null;
+  });
   protected readonly people = computed(() => (this.data() ? peopleTable(this.data()!, this.units.system()) : null));
   protected readonly machines = computed(() => (this.data() ? machinesTable(this.data()!, this.units.system()) : null));
   /** The older season on the left. */
