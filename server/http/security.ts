@@ -2,6 +2,12 @@ import { randomBytes } from 'node:crypto';
 import type { RequestHandler, Response } from 'express';
 import helmet from 'helmet';
 
+/**
+ * The scripts the browser may run as the app's service worker: Furlong's (Angular's worker with the
+ * outbox's Background Sync), the Angular worker it imports, and its off switch.
+ */
+const SERVICE_WORKER_SCRIPTS = new Set(['/furlong-sw.js', '/ngsw-worker.js', '/safety-worker.js', '/worker-basic.min.js']);
+
 export const nonceOf = (res: Response): string => res.locals.cspNonce as string;
 
 /**
@@ -15,6 +21,10 @@ export const nonceOf = (res: Response): string => res.locals.cspNonce as string;
  * may be kept by the browser's disk cache or a shared proxy: `Cache-Control: no-store` unless a
  * route sets its own. The work board still sends an ETag and answers 304 to a client that sends
  * `If-None-Match` (Express checks freshness against the request, whatever the answer's policy).
+ *
+ * The service worker's script gets a policy of its own: a worker is bound by the policy its
+ * script came with, and it fetches on the page's behalf, so a map background (an image on the
+ * page) is a fetch there and needs the tile origin under `connect-src`.
  */
 export function securityHeaders(secure: boolean, tileUrl: string | null = null): RequestHandler {
   // A configured map background is the one other origin pages may load (images only).
@@ -48,7 +58,15 @@ export function securityHeaders(secure: boolean, tileUrl: string | null = null):
     ...common,
     contentSecurityPolicy: { useDefaults: false, directives: { defaultSrc: ["'none'"], frameAncestors: ["'none'"] } },
   });
+  const workerHeaders = helmet({
+    ...common,
+    contentSecurityPolicy: {
+      useDefaults: false,
+      directives: { defaultSrc: ["'none'"], scriptSrc: ["'self'"], connectSrc: ["'self'", ...tileOrigin] },
+    },
+  });
   return (req, res, next) => {
+    if (SERVICE_WORKER_SCRIPTS.has(req.path)) return workerHeaders(req, res, next);
     if (req.path.startsWith('/api/')) {
       res.set('Cache-Control', 'no-store');
       return apiHeaders(req, res, next);

@@ -2,15 +2,18 @@ import { provideHttpClient, withInterceptors } from '@angular/common/http';
 import {
   type ApplicationConfig,
   inject,
+  isDevMode,
   provideAppInitializer,
   provideBrowserGlobalErrorListeners,
   provideZonelessChangeDetection,
 } from '@angular/core';
 import { MatIconRegistry } from '@angular/material/icon';
 import { provideRouter, withComponentInputBinding } from '@angular/router';
+import { provideServiceWorker } from '@angular/service-worker';
 import { routes } from './app.routes';
 import { AuthStore } from './core/auth/auth-store';
 import { errorInterceptor } from './core/http/error.interceptor';
+import { keepPageForOffline } from './core/offline/keep-page';
 
 export const appConfig: ApplicationConfig = {
   providers: [
@@ -24,5 +27,10 @@ export const appConfig: ApplicationConfig = {
       inject(MatIconRegistry).setDefaultFontSetClass('material-symbols-outlined');
     }),
     provideAppInitializer(() => inject(AuthStore).load()),
+    // The app shell, fonts and icons stay on the device (ngsw-config.json), so a phone that opened
+    // Furlong once opens it again with no signal. Production builds only: `ng serve` rebuilds too often.
+    // furlong-sw.js is Angular's worker (it imports ngsw-worker.js) with the outbox's Background Sync.
+    provideServiceWorker('furlong-sw.js', { enabled: !isDevMode(), registrationStrategy: 'registerWhenStable:5000' }),
+    provideAppInitializer(keepPageForOffline),
   ],
 };

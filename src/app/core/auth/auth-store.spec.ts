@@ -1,7 +1,15 @@
 import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { AuthStore } from './auth-store';
+import type { Me } from '@shared/schemas/auth';
+import { AuthStore, SIGNED_IN_KEY } from './auth-store';
+
+const OPERATOR: Me = {
+  user: { id: 7, email: 'wren@example.test', name: 'Wren Halloway' },
+  farm: { id: 3, name: 'Tamarack Ridge Farm', units: 'us', timeZone: 'America/Chicago' },
+  membershipId: 11,
+  role: 'operator',
+};
 
 describe('AuthStore', () => {
   beforeEach(() => TestBed.configureTestingModule({ providers: [provideHttpClient(), provideHttpClientTesting()] }));
@@ -51,5 +59,74 @@ describe('AuthStore start-up', () => {
       .flush({ error: { code: 'signed_out', message: 'Sign in' } }, { status: 401, statusText: 'Unauthorized' });
     expect(await loading).toBeNull();
     expect(store.unavailable()).toBeNull();
+  });
+});
+
+describe('AuthStore with no signal', () => {
+  beforeEach(() => {
+    localStorage.clear();
+    TestBed.configureTestingModule({ providers: [provideHttpClient(), provideHttpClientTesting()] });
+  });
+
+  /** Starts the app's "who am I" and answers it with no network at all. */
+  async function loadOffline(store: AuthStore): Promise<Me | null> {
+    const loading = store.load();
+    TestBed.inject(HttpTestingController).expectOne('/api/auth/me').error(new ProgressEvent('error'), { status: 0, statusText: '' });
+    return loading;
+  }
+
+  it('when the person signed in on this device before and the phone has no network, then the app opens as them, marked as taken from the device', async () => {
+    const store = TestBed.inject(AuthStore);
+    const loading = store.load();
+    TestBed.inject(HttpTestingController).expectOne('/api/auth/me').flush(OPERATOR);
+    expect(await loading).toEqual(OPERATOR);
+    expect(store.fromDevice()).toBe(false);
+
+    // The next start of the app, in a draw with no signal.
+    TestBed.resetTestingModule();
+    TestBed.configureTestingModule({ providers: [provideHttpClient(), provideHttpClientTesting()] });
+    const later = TestBed.inject(AuthStore);
+    expect(later.signedIn()).toBe(false);
+    expect(await loadOffline(later)).toEqual(OPERATOR);
+    expect(later.signedIn()).toBe(true);
+    expect(later.role()).toBe('operator');
+    expect(later.fromDevice()).toBe(true);
+    expect(later.unavailable()).toBeNull();
+  });
+
+  it('when nobody signed in on this device, then no network is still the outage it was', async () => {
+    const store = TestBed.inject(AuthStore);
+    expect(await loadOffline(store)).toBeNull();
+    expect(store.signedIn()).toBe(false);
+    expect(store.unavailable()).toEqual(expect.any(String));
+  });
+
+  it('when the server says the session ended (401), or the person signs out, then the device forgets them', async () => {
+    const store = TestBed.inject(AuthStore);
+    store.signedInAs(OPERATOR);
+    expect(localStorage.getItem(SIGNED_IN_KEY)).not.toBeNull();
+    const loading = store.load();
+    TestBed.inject(HttpTestingController)
+      .expectOne('/api/auth/me')
+      .flush({ error: { code: 'signed_out', message: 'Sign in' } }, { status: 401, statusText: 'Unauthorized' });
+    expect(await loading).toBeNull();
+    expect(localStorage.getItem(SIGNED_IN_KEY)).toBeNull();
+    expect(await loadOffline(store)).toBeNull();
+
+    store.signedInAs(OPERATOR);
+    store.clear();
+    expect(localStorage.getItem(SIGNED_IN_KEY)).toBeNull();
+  });
+
+  it('when the server answers but its database does not (503), then the device copy is not used: the server is there to ask again', async () => {
+    const store = TestBed.inject(AuthStore);
+    store.signedInAs(OPERATOR);
+    const loading = store.load();
+    TestBed.inject(HttpTestingController)
+      .expectOne('/api/auth/me')
+      .flush({ error: { code: 'db_unavailable', message: 'Not answering' } }, { status: 503, statusText: 'Service Unavailable' });
+    expect(await loading).toBeNull();
+    expect(store.unavailable()).toEqual(expect.any(String));
+    expect(store.fromDevice()).toBe(false);
   });
 });

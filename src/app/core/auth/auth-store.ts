@@ -6,6 +6,13 @@ import { type Observable, catchError, firstValueFrom, map, of, tap } from 'rxjs'
 import { API } from '../http/api-paths';
 
 /**
+ * Who was last signed in on this device, kept so the app opens with no signal (the run sheet in a
+ * draw or a steel cab). It only shapes the screens: the server still decides on every request, and
+ * a 401 or a sign-out forgets it.
+ */
+export const SIGNED_IN_KEY = 'furlong.signed-in';
+
+/**
  * Who is signed in, for the whole app. The server decides what each role may do; this store only
  * shapes the UI (navigation, greetings) around the answer of `GET /api/auth/me`.
  */
@@ -21,6 +28,8 @@ export class AuthStore {
    * sign-in; the app offers to try again instead.
    */
   readonly unavailable = signal<string | null>(null);
+  /** True when the server could not be reached at start-up and the person is who this device last saw. */
+  readonly fromDevice = signal(false);
   /** The page that was asked for when the server could not answer, to open on "Try again". */
   retryUrl: string | null = null;
   readonly signedIn = computed(() => this.current() !== null);
@@ -37,29 +46,41 @@ export class AuthStore {
 
   /**
    * Asks the server once at start-up who this browser belongs to; a 401 just means "nobody", any
-   * other failure means the server could not tell (see `unavailable`).
+   * other failure means the server could not tell (see `unavailable`). With no connection at all
+   * (status 0) the person last signed in on this device is taken, so the app opens offline.
    */
   load(): Promise<Me | null> {
     return firstValueFrom(
       this.http.get<Me>(API.authMe).pipe(
-        tap(() => this.unavailable.set(null)),
+        tap((me) => {
+          this.unavailable.set(null);
+          this.fromDevice.set(false);
+          this.set(me);
+        }),
         catchError((err: unknown) => {
           const e = err as { status?: number; message?: string };
-          this.unavailable.set(e?.status === 401 ? null : (e?.message ?? "Cannot reach Furlong's server; your work is not lost."));
-          return of(null);
+          if (e?.status === 401) {
+            this.unavailable.set(null);
+            this.set(null);
+            return of(null);
+          }
+          const kept = e?.status === 0 ? remembered() : null;
+          this.fromDevice.set(kept !== null);
+          this.unavailable.set(kept ? null : (e?.message ?? "Cannot reach Furlong's server; your work is not lost."));
+          this.current.set(kept);
+          return of(kept);
         }),
-        tap((me) => this.current.set(me)),
       ),
     );
   }
 
   login(email: string, password: string): Observable<Me> {
-    return this.http.post<Me>(API.authLogin, { email, password }).pipe(tap((me) => this.current.set(me)));
+    return this.http.post<Me>(API.authLogin, { email, password }).pipe(tap((me) => this.set(me)));
   }
 
   /** Used by pages whose POST signs the person in (accepting an invitation, a password reset). */
   signedInAs(me: Me): void {
-    this.current.set(me);
+    this.set(me);
   }
 
   logout(): Observable<void> {
@@ -74,10 +95,32 @@ export class AuthStore {
   farmChanged(farm: { id: number; name: string; units: Me['farm']['units']; timeZone: string }): void {
     const me = this.current();
     if (me && me.farm.id === farm.id)
-      this.current.set({ ...me, farm: { id: farm.id, name: farm.name, units: farm.units, timeZone: farm.timeZone } });
+      this.set({ ...me, farm: { id: farm.id, name: farm.name, units: farm.units, timeZone: farm.timeZone } });
   }
 
   clear(): void {
-    this.current.set(null);
+    this.set(null);
+  }
+
+  /** Sets who is signed in and keeps it on this device (or forgets it). */
+  private set(me: Me | null): void {
+    this.current.set(me);
+    this.fromDevice.set(false);
+    try {
+      if (me) localStorage.setItem(SIGNED_IN_KEY, JSON.stringify(me));
+      else localStorage.removeItem(SIGNED_IN_KEY);
+    } catch {
+      // Storage refused (private mode, full): the app still works online.
+    }
+  }
+}
+
+/** The person kept by `set`, if it still reads as one. */
+function remembered(): Me | null {
+  try {
+    const me = JSON.parse(localStorage.getItem(SIGNED_IN_KEY) ?? 'null') as Partial<Me> | null;
+    return me && typeof me.membershipId === 'number' && me.user && me.farm && me.role ? (me as Me) : null;
+  } catch {
+    return null;
   }
 }

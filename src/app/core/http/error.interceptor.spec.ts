@@ -84,6 +84,17 @@ describe('errorInterceptor', () => {
     expect(auth.me()).toEqual(ME);
   });
 
+  it('when the service worker could not send the request (a bare 504, no network), then it is the same "cannot reach" as no answer at all', async () => {
+    const failure = failureOf('/api/run-sheet');
+    // Angular's ngsw-worker.js (safeFetch) answers a fetch that failed with an empty 504 "Gateway Timeout".
+    httpTesting.expectOne('/api/run-sheet').flush(null, { status: 504, statusText: 'Gateway Timeout' });
+    const error = (await failure) as ApiError;
+    expect(error.status).toBe(0);
+    expect(error.code).toBe('offline');
+    expect(error.message).toBe(OFFLINE_MESSAGE);
+    expect(auth.me()).toEqual(ME);
+  });
+
   it('when the database is not answering (503 db_unavailable), then the server message is shown and the person stays signed in', async () => {
     const navigate = jest.spyOn(router, 'navigate').mockResolvedValue(true);
     const message = "The farm's database is not answering; your work is not lost. Try again in a minute.";

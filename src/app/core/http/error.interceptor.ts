@@ -51,8 +51,10 @@ export const errorInterceptor: HttpInterceptorFn = (req, next) => {
 };
 
 export function toApiError(failure: HttpErrorResponse): ApiError {
-  if (failure.status === 0) return new ApiError(0, 'offline', OFFLINE_MESSAGE);
   const body: unknown = failure.error;
+  // With no network the service worker answers a request it could not send with a bare 504
+  // (Angular's ngsw-worker.js, safeFetch); the server never sends a 504 of its own.
+  if (failure.status === 0 || (failure.status === 504 && !isApiErrorBody(body))) return new ApiError(0, 'offline', OFFLINE_MESSAGE);
   if (isApiErrorBody(body)) {
     const { code, message, fields, ...details } = body.error;
     return new ApiError(failure.status, code, message, fields ?? {}, details);

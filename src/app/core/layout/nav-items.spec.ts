@@ -13,16 +13,19 @@ describe('navItemsFor', () => {
       'Fleet',
       'Crew',
       'Season',
+      'Custom work',
+      'Invoices',
       'Members',
     ]);
   });
 
   it('when an operator signs in, then their run sheet and the read-only screens show, not the board or the season', () => {
+    // Operators see no money: no custom work, no invoices.
     expect(labels(navItemsFor('operator'))).toEqual(['Home', 'Run sheet', 'Fields', 'Pass plan', 'Fleet']);
   });
 
   it('when a viewer signs in, then the season and the read-only screens show, not the board or run sheets', () => {
-    expect(labels(navItemsFor('viewer'))).toEqual(['Home', 'Fields', 'Fleet', 'Season']);
+    expect(labels(navItemsFor('viewer'))).toEqual(['Home', 'Fields', 'Fleet', 'Season', 'Custom work', 'Invoices']);
   });
 
   it('when nobody is signed in, then nothing shows', () => {
@@ -41,7 +44,7 @@ describe('navItemsFor', () => {
 
   it('then every planned screen has an entry with a unique path', () => {
     expect(labels([...NAV_ITEMS]).sort()).toEqual(
-      ['Crew', 'Fields', 'Fleet', 'Home', 'Members', 'Pass plan', 'Run sheet', 'Season', 'Work board'].sort(),
+      ['Crew', 'Custom work', 'Fields', 'Fleet', 'Home', 'Invoices', 'Members', 'Pass plan', 'Run sheet', 'Season', 'Work board'].sort(),
     );
     expect(new Set(NAV_ITEMS.map((item) => item.path)).size).toBe(NAV_ITEMS.length);
   });
@@ -56,6 +59,8 @@ describe('navItemsFor', () => {
       '/fleet',
       '/crew',
       '/season',
+      '/custom-work',
+      '/invoices',
       '/members',
     ]);
   });

@@ -23,6 +23,8 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { path: '/fleet', label: 'Fleet', icon: 'agriculture', roles: ['owner', 'operator', 'viewer'], ready: true },
   { path: '/crew', label: 'Crew', icon: 'badge', roles: ['owner'], ready: true },
   { path: '/season', label: 'Season', icon: 'bar_chart', roles: ['owner', 'viewer'], ready: true },
+  { path: '/custom-work', label: 'Custom work', icon: 'handshake', roles: ['owner', 'viewer'], ready: true },
+  { path: '/invoices', label: 'Invoices', icon: 'receipt_long', roles: ['owner', 'viewer'], ready: true },
   { path: '/members', label: 'Members', icon: 'manage_accounts', roles: ['owner'], ready: true },
 ];
 

@@ -1,3 +1,4 @@
+import { webcrypto } from 'node:crypto';
 import { provideHttpClient, withInterceptors } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { ChangeDetectionStrategy, Component } from '@angular/core';
@@ -7,7 +8,14 @@ import type { Me, Role } from '@shared/schemas/auth';
 import { AuthStore } from '../../auth/auth-store';
 import { errorInterceptor } from '../../http/error.interceptor';
 import { THEME_STORAGE_KEY } from '../theme';
-import { Shell } from './shell';
+import { Outbox } from '../../../features/run-sheet/outbox/outbox';
+import { OutboxStore } from '../../../features/run-sheet/outbox-store';
+import { freshDeviceStorage, setOnline, until } from '../../../features/run-sheet/testing/device';
+import { Shell, unsentWarning } from './shell';
+
+// jsdom has neither of these; the browser and Node do.
+globalThis.structuredClone ??= (v: unknown) => JSON.parse(JSON.stringify(v));
+if (!globalThis.crypto?.randomUUID) Object.defineProperty(globalThis, 'crypto', { value: webcrypto });
 
 @Component({ template: '<h1>Page</h1>', changeDetection: ChangeDetectionStrategy.OnPush })
 class Blank {}
@@ -36,6 +44,7 @@ describe('Shell', () => {
   }
 
   beforeEach(() => {
+    freshDeviceStorage();
     localStorage.clear();
     document.documentElement.className = '';
     TestBed.configureTestingModule({
@@ -59,7 +68,19 @@ describe('Shell', () => {
 
   it('when an owner is signed in, then the main navigation offers every screen', async () => {
     await render('owner');
-    expect(navLabels()).toEqual(['Home', 'Work board', 'Run sheet', 'Fields', 'Pass plan', 'Fleet', 'Crew', 'Season', 'Members']);
+    expect(navLabels()).toEqual([
+      'Home',
+      'Work board',
+      'Run sheet',
+      'Fields',
+      'Pass plan',
+      'Fleet',
+      'Crew',
+      'Season',
+      'Custom work',
+      'Invoices',
+      'Members',
+    ]);
     expect(page.querySelector('nav[aria-label="Main"] a[href="/members"]')).not.toBeNull();
   });
 
@@ -105,5 +126,32 @@ describe('Shell', () => {
     await fixture.whenStable();
     expect(TestBed.inject(AuthStore).me()).toBeNull();
     expect(TestBed.inject(Router).url).toBe('/sign-in');
+  });
+
+  it('when run-sheet actions are not sent yet, then Sign out asks first; kept, the session stays; confirmed, it ends and the actions stay on the phone', async () => {
+    setOnline(false);
+    const box = await Outbox.open();
+    await box.add({ userId: 1, farmId: 1, name: 'Ingrid Sorensen' }, 7, { type: 'start' }, new Date('2031-05-15T13:00:00Z'));
+    box.close();
+    await render('operator');
+    await until(() => TestBed.inject(OutboxStore).entries().length === 1, 'the waiting action');
+    const confirm = jest.spyOn(window, 'confirm').mockReturnValue(false);
+    const signOut = [...page.querySelectorAll('button')].find((b) => b.textContent?.includes('Sign out'))!;
+    signOut.click();
+    expect(confirm).toHaveBeenCalledWith(unsentWarning(1));
+    expect(unsentWarning(1)).toBe(
+      '1 run-sheet action is not sent yet. It stays on this phone and is sent when you sign in here again. Sign out anyway?',
+    );
+    TestBed.inject(HttpTestingController).expectNone('/api/auth/logout');
+
+    confirm.mockReturnValue(true);
+    signOut.click();
+    TestBed.inject(HttpTestingController).expectOne('/api/auth/logout').flush(null, { status: 204, statusText: 'No Content' });
+    await fixture.whenStable();
+    expect(TestBed.inject(Router).url).toBe('/sign-in');
+    const after = await Outbox.open();
+    expect((await after.waiting({ userId: 1, farmId: 1 })).map((e) => e.body.type)).toEqual(['start']);
+    after.close();
+    confirm.mockRestore();
   });
 });

@@ -9,6 +9,7 @@ import { MatToolbarModule } from '@angular/material/toolbar';
 import { Router, RouterLink, RouterLinkActive, RouterOutlet } from '@angular/router';
 import { map } from 'rxjs';
 import { AuthStore } from '../../auth/auth-store';
+import { OutboxStore } from '../../../features/run-sheet/outbox-store';
 import { navItemsFor } from '../nav-items';
 import { ReportsBell } from '../reports-bell/reports-bell';
 import { ThemeStore } from '../theme';
@@ -37,6 +38,7 @@ export class Shell {
   private readonly auth = inject(AuthStore);
   private readonly router = inject(Router);
   protected readonly theme = inject(ThemeStore);
+  private readonly outbox = inject(OutboxStore);
   private readonly sidenav = viewChild.required(MatSidenav);
 
   protected readonly handset = toSignal(
@@ -57,6 +59,13 @@ export class Shell {
   }
 
   protected signOut(): void {
+    // Run-sheet actions not yet sent stay on this phone for the same person, but say so first.
+    const waiting = this.outbox.entries().length;
+    if (waiting && !window.confirm(unsentWarning(waiting))) return;
     this.auth.logout().subscribe(() => void this.router.navigateByUrl('/sign-in'));
   }
 }
+
+/** The question before signing out with run-sheet actions still on the phone. */
+export const unsentWarning = (n: number): string =>
+  `${n === 1 ? '1 run-sheet action is' : `${n} run-sheet actions are`} not sent yet. ${n === 1 ? 'It stays' : 'They stay'} on this phone and ${n === 1 ? 'is' : 'are'} sent when you sign in here again. Sign out anyway?`;

@@ -1,0 +1,229 @@
+// Benchmark of the app opened with no network (not a test): node --import tsx scripts/bench-offline-open.ts
+// A phone that opened the run sheet once (the service worker installed, the app cached) is started
+// again from cold: a new Chromium process on the same profile, with no network, opens /run-sheet.
+// The server is stopped after the first visit, so nothing can answer.
+// Measured per round from the navigation to the run sheet on screen (its heading, and its note that
+// the server cannot be reached, so the page has settled); the browser's own start is printed beside.
+// Target: the median open < 1 s. Exits 1 when the target is missed.
+// Needs a production build of the app: dist/furlong/browser (`npm start` or `ng build`), or
+// FURLONG_STATIC_DIR. The database is furlong_bench_shell on the test cluster, made fresh each run;
+// BENCH_DATABASE_URL names another (migrated; a bench farm is added beside what is there).
+import fs from 'node:fs';
+import type { AddressInfo } from 'node:net';
+import os from 'node:os';
+import path from 'node:path';
+import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import { createDb, migrationConfig } from '../server/db/knex';
+import { makeFarm } from '../tests/support/farm-factory';
+import { waitForOfflineReady } from '../tests/support/offline';
+import { startTestApp, type TestApp } from '../tests/support/test-app';
+// @ts-expect-error -- the set-up helpers are plain ES modules without types
+import { LocalCluster, intEnv } from './lib/setup.mjs';
+
+const DATABASE = 'furlong_bench_shell';
+const ROUNDS = 7;
+const TARGET_MS = 1000;
+const PHONE = { width: 390, height: 844 };
+// As tests/support/browser.ts launches it.
+const ARGS = [
+  '--headless',
+  '--no-sandbox',
+  '--disable-gpu',
+  '--disable-quic',
+  '--no-first-run',
+  '--disable-background-networking',
+  '--disable-component-update',
+  '--disable-sync',
+];
+
+const ms = (n: number) => `${n.toFixed(0)} ms`;
+const median = (xs: number[]) => {
+  const s = [...xs].sort((a, b) => a - b);
+  return s.length % 2 ? s[(s.length - 1) / 2] : (s[s.length / 2 - 1] + s[s.length / 2]) / 2;
+};
+
+const launch = (profile: string, baseURL: string, offline: boolean): Promise<BrowserContext> =>
+  chromium.launchPersistentContext(profile, {
+    executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
+    args: ARGS,
+    viewport: PHONE,
+    baseURL,
+    locale: 'en-US',
+    offline,
+  });
+
+/** The run sheet on screen: its heading, and what it says of the day (here: the server cannot be reached). */
+async function runSheetShown(page: Page): Promise<void> {
+  await page.getByRole('heading', { level: 1, name: 'Run sheet' }).waitFor();
+  // The day read while online, kept on the phone, and said to be the phone's copy.
+  await page.locator('[data-as-of]').getByText('No connection: the run sheet kept on this phone').waitFor();
+}
+
+async function main(): Promise<void> {
+  const staticDir = process.env.FURLONG_STATIC_DIR ?? path.resolve(__dirname, '..', 'dist', 'furlong', 'browser');
+  if (!fs.existsSync(path.join(staticDir, 'ngsw.json'))) {
+    console.error(`No production build with a service worker in ${staticDir}: run ng build --configuration production first.`);
+    process.exit(1);
+  }
+  let cluster: {
+    start(): void;
+    stop(): void;
+    ensureDatabase(n: string, o: object): void;
+    url(n: string): string;
+    startedHere: boolean;
+  } | null = null;
+  let url = process.env.BENCH_DATABASE_URL;
+  if (!url) {
+    cluster = new LocalCluster('pg-test', intEnv('FURLONG_TEST_DB_PORT', 54339));
+    cluster!.start();
+    cluster!.ensureDatabase(DATABASE, { fresh: true });
+    url = cluster!.url(DATABASE);
+  }
+  const db = createDb(url);
+  const profile = fs.mkdtempSync(path.join(os.tmpdir(), 'furlong-bench-shell-'));
+  // The app as the browser tests serve it: the real server in this process, on loopback.
+  process.env.TEST_DATABASE_URL = url;
+  process.env.FURLONG_STATIC_DIR = staticDir;
+  let t: TestApp | null = null;
+  let server: ReturnType<TestApp['app']['listen']> | null = null;
+  try {
+    await db.migrate.latest(migrationConfig);
+    const farm = await makeFarm(db, 'Bench Shell');
+    t = await startTestApp();
+    server = t.app.listen(0, '127.0.0.1');
+    await new Promise((r) => server!.once('listening', r));
+    const baseUrl = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+
+    // The first visit, online: sign in, open the run sheet, let the service worker cache the app.
+    const first = await launch(profile, baseUrl, false);
+    const page = first.pages()[0] ?? (await first.newPage());
+    await page.goto('/sign-in');
+    await page.getByLabel('E-mail').fill(farm.operator.email);
+    await page.getByLabel('Password', { exact: true }).fill(farm.operator.password);
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
+    await page.goto('/run-sheet');
+    await page.getByRole('heading', { level: 1, name: 'Run sheet' }).waitFor();
+    const ready = await waitForOfflineReady(page);
+    await first.close();
+
+    // For comparison (not in the target): the same cold start with the server up, where the
+    // run sheet comes from the server (it shows the day instead of the "cannot reach" note).
+    const online: number[] = [];
+    for (let i = 0; i < 3; i++) {
+      const ctx = await launch(profile, baseUrl, false);
+      const t1 = performance.now();
+      const p = ctx.pages()[0] ?? (await ctx.newPage());
+      await p.goto('/run-sheet');
+      await p.getByRole('heading', { level: 1, name: 'Run sheet' }).waitFor();
+      await p.getByText('No work today').waitFor();
+      online.push(performance.now() - t1);
+      await ctx.close();
+    }
+    // No network from here: the server stops too (the browser's offline mode, given at launch, does
+    // not reach a service worker that starts with the browser), and each round checks it is so.
+    server.closeAllConnections();
+    await new Promise((r) => server!.close(r));
+    server = null;
+
+    const starts: number[] = [];
+    const opens: number[] = [];
+    const headings: number[] = [];
+    const pages: number[] = [];
+    const lastScripts: number[] = [];
+    const meAnswered: number[] = [];
+    const sheetAnswered: number[] = [];
+    for (let i = 0; i < ROUNDS; i++) {
+      const t0 = performance.now();
+      const ctx = await launch(profile, baseUrl, true);
+      const t1 = performance.now();
+      const p = ctx.pages()[0] ?? (await ctx.newPage());
+      await p.goto('/run-sheet');
+      await p.getByRole('heading', { level: 1, name: 'Run sheet' }).waitFor();
+      headings.push(performance.now() - t1);
+      await runSheetShown(p).catch(async (err: Error) => {
+        throw new Error(`${err.message}\nThe page showed: ${(await p.locator('body').innerText()).slice(0, 400)}`);
+      });
+      const t2 = performance.now();
+      // No network at all, the worker's own fetches included: an API call through it fails.
+      const health = (await p.evaluate('fetch("/api/health").then((r) => "status " + r.status, () => "failed")')) as string;
+      if (health !== 'failed' && health !== 'status 504') throw new Error(`the browser reached the server (${health}): not offline`);
+      // When the page itself came (from the worker's copy), from the page's own clock.
+      pages.push((await p.evaluate('performance.getEntriesByType("navigation")[0].responseEnd')) as number);
+      // Where the rest goes, from the page's own clock: the last script in, and the API calls
+      // (who is signed in, the day) answered by the worker's failure.
+      const parts = (await p.evaluate(`(() => {
+        const res = performance.getEntriesByType('resource');
+        const end = (f) => Math.max(0, ...res.filter(f).map((e) => e.responseEnd));
+        return {
+          scripts: end((e) => e.initiatorType === 'script' || /\\.js$/.test(new URL(e.name).pathname)),
+          me: end((e) => new URL(e.name).pathname === '/api/auth/me'),
+          sheet: end((e) => new URL(e.name).pathname.startsWith('/api/run-sheet')),
+        };
+      })()`)) as { scripts: number; me: number; sheet: number };
+      lastScripts.push(parts.scripts);
+      meAnswered.push(parts.me);
+      sheetAnswered.push(parts.sheet);
+      starts.push(t1 - t0);
+      opens.push(t2 - t1);
+      await ctx.close();
+    }
+
+    const open = median(opens);
+    const rows = [
+      {
+        bench: `run sheet opened offline after a cold browser start (median of ${ROUNDS})`,
+        target: `< ${TARGET_MS} ms`,
+        measured: `${ms(open)} (fastest ${ms(Math.min(...opens))}, slowest ${ms(Math.max(...opens))})`,
+        result: open < TARGET_MS ? 'PASS' : 'FAIL',
+      },
+      {
+        bench: 'of which: the page from the worker / the run sheet heading on screen',
+        target: '—',
+        measured: `${ms(median(pages))} / ${ms(median(headings))} median`,
+        result: '',
+      },
+      {
+        bench: 'of which (page clock): last script in / /api/auth/me failed / /api/run-sheet failed',
+        target: '—',
+        measured: `${ms(median(lastScripts))} / ${ms(median(meAnswered))} / ${ms(median(sheetAnswered))} median`,
+        result: '',
+      },
+      {
+        bench: 'the same start with the server up (for comparison, median of 3)',
+        target: '—',
+        measured: ms(median(online)),
+        result: '',
+      },
+      {
+        bench: 'the browser process starting (not in the target)',
+        target: '—',
+        measured: `${ms(median(starts))} median`,
+        result: '',
+      },
+    ];
+    console.log(
+      `${ready.prefetched.length} files prefetched by the service worker; load average ${os
+        .loadavg()
+        .map((l) => l.toFixed(1))
+        .join(' ')} on ${os.cpus().length} cores`,
+    );
+    console.log('\nTargets');
+    console.table(rows);
+    process.exitCode = open < TARGET_MS ? 0 : 1;
+  } finally {
+    if (server) {
+      server.closeAllConnections();
+      await new Promise((r) => server!.close(r));
+    }
+    await t?.close();
+    await db.destroy();
+    fs.rmSync(profile, { recursive: true, force: true });
+    if (cluster?.startedHere) cluster.stop();
+  }
+}
+
+main().catch((err: Error) => {
+  console.error(err);
+  process.exit(1);
+});
