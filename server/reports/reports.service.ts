@@ -7,6 +7,7 @@ import type { Tx } from '../db/knex';
 import { AppError, notFound } from '../http/errors';
 import type { SessionPrincipal } from '../http/session-user';
 import { enqueueMail } from '../mail/outbox.repository';
+import { keptActions } from '../run-sheet/client-events.repository';
 import { confirmHazard, lockReport, openReports, ownersToTell, setReview } from './reports.repository';
 
 const KIND_WORDS: Record<FieldReport['kind'], string> = { breakdown: 'a breakdown', hazard: 'a new hazard', other: 'a problem' };
@@ -17,7 +18,7 @@ export async function listReports(deps: AppDeps, by: SessionPrincipal): Promise<
   // Newest first: the oldest open breakdown of a machine is the one it is down since.
   for (const r of reports)
     if (r.kind === 'breakdown') down.set(r.machine.id, { machineId: r.machine.id, name: r.machine.name, reportId: r.id, since: r.at });
-  return { reports, machinesDown: [...down.values()] };
+  return { reports, machinesDown: [...down.values()], keptActions: await keptActions(deps.db, by.farmId) };
 }
 
 /**

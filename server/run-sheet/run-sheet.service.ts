@@ -4,7 +4,7 @@ import { OPERATION_INFO } from '../../shared/operations';
 import { dayIn } from '../../shared/calendar';
 import type { RunSheet, RunSheetItem, RunSheetOpened } from '../../shared/schemas/run-sheet';
 import type { AppDeps } from '../app-deps';
-import type { ConflictCard } from '../board/conflicts';
+import { weatherWindowOf, type ConflictCard } from '../board/conflicts';
 import { loadDay, planKey, type DayContext } from '../board/day-context';
 import type { Db } from '../db/knex';
 import type { Logger } from '../logging/logger';
@@ -12,6 +12,7 @@ import { hazardFeature } from '../fields/fields.service';
 import { forbidden, notFound } from '../http/errors';
 import type { SessionPrincipal } from '../http/session-user';
 import { getAssignment } from '../jobs/assignments.repository';
+import type { DbAssignmentRow } from '../jobs/jobs.rows';
 import { eventsOfJobs } from '../jobs/events.repository';
 import { engineHoursRun } from '../jobs/hours';
 import { boundariesOf, callOffWeatherOf, nextDayWithWork } from './run-sheet.repository';
@@ -31,7 +32,7 @@ async function itemsOf(db: Db, who: Reader, ctx: DayContext, cards: ConflictCard
   const weather = await weatherOfJobs(
     db,
     who,
-    cards.map((c) => ({ id: c.a.id, date: c.a.date, fieldId: c.a.field.id, operation: c.a.operation, window: c.window })),
+    cards.map((c) => ({ id: c.a.id, date: c.a.date, fieldId: c.a.field.id, operation: c.a.operation, window: weatherWindowOf(c) })),
     ctx.farm.dayHoursLimit,
     who.log,
   );
@@ -54,7 +55,7 @@ async function itemsOf(db: Db, who: Reader, ctx: DayContext, cards: ConflictCard
             headlandPasses: plan.headland_passes,
             headingDeg: plan.heading_deg,
             coverage: plan.coverage,
-            speedMph: plan.speed_mph,
+            speedMps: plan.speed_mps,
             efficiency: plan.efficiency,
             turnSeconds: plan.turn_seconds,
             summary: plan.summary,
@@ -117,11 +118,22 @@ export async function readRunSheet(
   };
 }
 
-/** One job as its operator's run sheet shows it (the answer to a logged action). */
-export async function runSheetItem(deps: AppDeps, by: SessionPrincipal, id: number): Promise<RunSheetItem> {
-  const a = await getAssignment(deps.db, by.farmId, id);
+/**
+ * One job as its operator's run sheet shows it (the answer to a logged action); `db` may be the
+ * action's own transaction, so an answer kept for replays is read before it commits. Only the
+ * operator's column of that day is read (the job's times depend on it alone); `known` is the job's
+ * day and operator when the caller has already read them (an action's locked row).
+ */
+export async function runSheetItem(
+  deps: AppDeps,
+  by: SessionPrincipal,
+  id: number,
+  db: Db = deps.db,
+  known?: Pick<DbAssignmentRow, 'day' | 'operator_id'>,
+): Promise<RunSheetItem> {
+  const a = known ?? (await getAssignment(db, by.farmId, id));
   if (!a) throw notFound('That job');
-  const ctx = await loadDay(deps.db, by.farmId, a.day);
+  const ctx = await loadDay(db, by.farmId, a.day, { operatorId: a.operator_id });
   const card = ctx.cards.find((c) => c.a.id === id)!;
-  return (await itemsOf(deps.db, readerOf(deps, by), ctx, [card], a.operator_id))[0];
+  return (await itemsOf(db, readerOf(deps, by), ctx, [card], a.operator_id))[0];
 }

@@ -20,6 +20,11 @@ export const eventBody = z
     reason: z.enum(CALL_OFF_REASONS, { message: 'Reason must be weather, breakdown or other' }).optional(),
     /** When it happened (ISO 8601), for taps queued on a phone without a signal; default now. */
     at: z.iso.datetime({ offset: true, message: 'Use a date and time such as 2026-05-01T08:30:00Z' }).optional(),
+    /**
+     * An id the device made when the action was tapped: the server records it once per farm, and
+     * the same id sent again gets the first answer and changes nothing.
+     */
+    clientEventId: z.uuid({ message: 'The action id must be a UUID made on the device' }).optional(),
   })
   .refine((v) => v.type !== 'call-off' || v.reason, {
     message: 'Say why the job is called off: weather, breakdown or other',
@@ -30,6 +35,21 @@ export const eventBody = z
     path: ['note'],
   });
 export type EventInput = z.infer<typeof eventBody>;
+
+/**
+ * The short answer to an action sent with a device-made id when the request says
+ * `Prefer: return=minimal` (RFC 7240): the phone's outbox reads the day once after sending,
+ * rather than the whole job after each action.
+ */
+export interface MinimalEventAnswer {
+  clientEventId: string;
+  /** The job. */
+  id: number;
+  /** The job's state after the action. */
+  state: string;
+  /** The log entry it made. */
+  eventId: number;
+}
 
 export const logPatchBody = z
   .object({
@@ -56,9 +76,52 @@ export const problemBody = z
     clearanceM: z.number().min(0, 'Clearance cannot be negative').max(500).optional(),
     /** A breakdown pauses the job unless this is false. */
     pause: z.boolean().optional(),
+    /** When it was reported (ISO 8601), for a report queued on a phone without a signal; default now. */
+    at: z.iso.datetime({ offset: true, message: 'Use a date and time such as 2026-05-01T08:30:00Z' }).optional(),
+    /** An id the device made when the report was written: recorded once per farm, as for logged actions. */
+    clientEventId: z.uuid({ message: 'The report id must be a UUID made on the device' }).optional(),
   })
   .refine((v) => !v.geometry || v.kind === 'hazard', { message: 'Only a hazard report carries a place on the map', path: ['geometry'] });
 export type ProblemInput = z.infer<typeof problemBody>;
+
+/** The most actions one send of the outbox may carry (`POST /api/run-sheet/outbox`). */
+export const OUTBOX_BATCH_MAX = 200;
+
+/**
+ * A phone's waiting actions sent at once, in tap order: each is what `POST /api/assignments/:id/events`
+ * (or `/problems`, with `type: 'problem'`) takes, with its job's id, its device-made id and its tap
+ * time. The rest of each action is checked on its own, so one malformed action is refused alone.
+ */
+export const outboxBody = z.object({
+  events: z
+    .array(
+      z.looseObject({
+        assignmentId: dbId,
+        type: z.enum([...EVENT_TYPES, 'problem'], { message: `Type must be one of: ${[...EVENT_TYPES, 'problem'].join(', ')}` }),
+        clientEventId: z.uuid({ message: 'The action id must be a UUID made on the device' }),
+        at: z.iso.datetime({ offset: true, message: 'Use a date and time such as 2026-05-01T08:30:00Z' }),
+      }),
+    )
+    .min(1, 'Send at least one action')
+    .max(OUTBOX_BATCH_MAX, `Send at most ${OUTBOX_BATCH_MAX} actions at once`),
+});
+export type OutboxInput = z.infer<typeof outboxBody>;
+
+/**
+ * One action's answer in a batch: the status and body `POST /api/assignments/:id/events` (or
+ * `/problems`) gives it when asked `Prefer: return=minimal`; a replay gets its first answer again.
+ */
+export interface OutboxResult {
+  clientEventId: string;
+  assignmentId: number;
+  status: number;
+  body: unknown;
+}
+
+/** The answers to a batch, in the order the actions were sent. */
+export interface OutboxAnswer {
+  results: OutboxResult[];
+}
 
 /** Without a date, the sheet opens on the person's next day with work (see `RunSheet.opened`). */
 export const runSheetQuery = z.object({ date: isoDate.optional(), membershipId: dbId.optional() });
@@ -69,7 +132,8 @@ export interface PassPlanOnSheet {
   headlandPasses: number;
   headingDeg: number | null;
   coverage: 'full' | 'gaps-ok';
-  speedMph: number;
+  /** Working speed, metres per second. */
+  speedMps: number;
   efficiency: number;
   turnSeconds: number;
   summary: Record<string, unknown>;
@@ -122,7 +186,7 @@ export interface JobWeather {
   ageMinutes: number | null;
   stale: boolean;
   staleReason: string | null;
-  /** `job`: the window the owner set; `working-day`: the farm's working day (the job has none). */
+  /** `job`: the job's own hours (the window the owner set, or from the start the owner set for its planned hours); `working-day`: the farm's working day (no time set). */
   over: 'job' | 'working-day';
   /** 'HH:MM' of the hours judged. */
   from: string;
@@ -180,6 +244,26 @@ export interface FieldReport {
   hazardId: number | null;
 }
 
+/**
+ * An action sent from a phone that could not be applied when it arrived (the job was deleted or
+ * moved, or it did not fit the job's log in the order it was tapped): kept as a log for the owner.
+ */
+export interface KeptAction {
+  id: number;
+  /** The job as the phone sent it; `exists` is false when it has since been deleted. */
+  job: { id: number; exists: boolean };
+  type: (typeof EVENT_TYPES)[number] | 'problem';
+  /** When it was tapped and when it arrived. */
+  at: string;
+  receivedAt: string;
+  by: string | null;
+  /** Why it was kept: job_deleted, job_moved, invalid_transition or the refusal's own code. */
+  outcome: string;
+  message: string;
+  /** What was sent with it (acres, engine hours, reason, note). */
+  input: Record<string, unknown>;
+}
+
 export interface FieldReports {
   /** Open reports, newest first. */
   reports: FieldReport[];
@@ -188,4 +272,9 @@ export interface FieldReports {
    * owner confirms it is dealt with or dismisses it).
    */
   machinesDown: Array<{ machineId: number; name: string; reportId: number; since: string }>;
+  /**
+   * Actions from phones kept as a log only, newest first (at most 100). The server always sends
+   * it; optional so screens and fixtures written before it still type-check.
+   */
+  keptActions?: KeptAction[];
 }

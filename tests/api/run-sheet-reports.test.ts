@@ -93,7 +93,7 @@ describe('reports from the field', () => {
     expect(mails[0].text_body).toContain('The job was paused.');
     expect(mails[0].text_body).toMatch(/Confirm or dismiss it: http\S+\/reports/);
     // Another farm sees none of it.
-    expect((await otherOwner.get('/api/reports')).body).toEqual({ reports: [], machinesDown: [] });
+    expect((await otherOwner.get('/api/reports')).body).toEqual({ reports: [], machinesDown: [], keptActions: [] });
   });
 
   it('when a report is refused for bad input, then there is no report and no e-mail', async () => {

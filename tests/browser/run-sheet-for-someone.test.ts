@@ -1,5 +1,5 @@
 import { DEMO_FARM_NAME } from '../../seeds/01_demo_farm';
-import { demo, screenshot, seriousViolations, signIn, startRig, type BrowserRig } from '../support/browser';
+import { demo, screenshot, seriousViolations, signIn, startRig, type BrowserRig, openedDialog } from '../support/browser';
 
 /** A day far ahead that no board has yet, so this test's one job leaves the demo farm's days alone. */
 async function freeDay(rig: BrowserRig): Promise<string> {
@@ -63,7 +63,7 @@ describe("The owner logs on someone's run sheet in a real browser", () => {
     expect(page.url()).toContain(`date=${day}`);
     const panel = page.locator('mat-expansion-panel').filter({ hasText: 'Harrowing' });
     await panel.getByRole('button', { name: 'Start' }).click();
-    const dialog = page.getByRole('dialog');
+    const dialog = await openedDialog(page);
     await dialog.getByLabel('Engine hours at the start').waitFor();
     await dialog.getByRole('button', { name: 'Start' }).click();
     await dialog.waitFor({ state: 'detached' });

@@ -6,14 +6,22 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatRadioModule } from '@angular/material/radio';
 import { CALL_OFF_REASONS } from '@shared/schemas/jobs';
-import type { RunSheetItem } from '@shared/schemas/run-sheet';
-import { RunSheetApi } from '../run-sheet-api';
-import { sendFailure } from '../send-failure';
+import { OutboxStore } from '../outbox-store';
+import { retryMessage } from '../send-failure';
 import type { JobDialogData } from '../start-dialog/start-dialog';
+import { from } from 'rxjs';
+import type { FormFields } from '../../../shared/forms/field-labels';
 import { FormSubmission } from '../../../shared/forms/form-submission';
 
 type Reason = (typeof CALL_OFF_REASONS)[number];
 const REASON_LABELS: Record<Reason, string> = { weather: 'Weather', breakdown: 'Breakdown', other: 'Other' };
+
+/** Each key of a call-off's API body and the box it is typed in, by its label. */
+export const CALL_OFF_FIELDS: FormFields = {
+  reason: { control: 'reason', label: 'Why is it called off?' },
+  note: { control: 'note', label: 'Note' },
+  at: { control: 'at', label: 'Time of the tap' },
+};
 
 /** Call a job off: why (weather, breakdown, other) and a note, needed for "other". */
 @Component({
@@ -24,8 +32,8 @@ const REASON_LABELS: Record<Reason, string> = { weather: 'Weather', breakdown: '
   styleUrl: '../job-dialog.scss',
 })
 export class CallOffDialog {
-  private readonly api = inject(RunSheetApi);
-  private readonly ref = inject<MatDialogRef<CallOffDialog, RunSheetItem>>(MatDialogRef);
+  private readonly outbox = inject(OutboxStore);
+  private readonly ref = inject<MatDialogRef<CallOffDialog>>(MatDialogRef);
   protected readonly data = inject<JobDialogData>(MAT_DIALOG_DATA);
 
   protected readonly reasons = CALL_OFF_REASONS.map((value) => ({ value, label: REASON_LABELS[value] }));
@@ -33,22 +41,17 @@ export class CallOffDialog {
     reason: new FormControl<Reason | null>(null, Validators.required),
     note: new FormControl('', { nonNullable: true, validators: [Validators.maxLength(1000)] }),
   });
-  private readonly submission = new FormSubmission(this.form, (err, form) => sendFailure(err, 'Call off', form));
+  private readonly submission = new FormSubmission(this.form, CALL_OFF_FIELDS, (err) => retryMessage(err, 'Call off'));
   protected readonly busy = this.submission.busy;
   protected readonly error = this.submission.error;
+  protected readonly blocked = this.submission.blocked;
 
   protected submit(): void {
     const v = this.form.getRawValue();
     if (v.reason === 'other' && !v.note.trim()) this.form.controls.note.setErrors({ required: true });
     if (!this.submission.ready()) return;
-    this.submission.send(
-      this.api.event(this.data.item.id, {
-        type: 'call-off',
-        reason: v.reason!,
-        ...(v.note.trim() ? { note: v.note.trim() } : {}),
-        at: this.data.at,
-      }),
-      (item) => this.ref.close(item),
-    );
+    const action = { type: 'call-off' as const, reason: v.reason!, ...(v.note.trim() ? { note: v.note.trim() } : {}) };
+    // Written to the phone's outbox with the tap time; the dialog closes and sending follows.
+    this.submission.send(from(this.outbox.tap(this.data.item.id, action, new Date(this.data.at))), (entry) => this.ref.close(entry));
   }
 }

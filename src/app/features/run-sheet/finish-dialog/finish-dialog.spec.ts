@@ -1,3 +1,4 @@
+import { webcrypto } from 'node:crypto';
 import { provideHttpClient, withInterceptors } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { type ComponentFixture, TestBed } from '@angular/core/testing';
@@ -8,7 +9,13 @@ import { AuthStore } from '../../../core/auth/auth-store';
 import { errorInterceptor } from '../../../core/http/error.interceptor';
 import { job } from '../../board/testing/board-fixtures';
 import type { JobDialogData } from '../start-dialog/start-dialog';
+import { OutboxStore } from '../outbox-store';
+import { freshDeviceStorage, setOnline, until } from '../testing/device';
 import { FinishDialog } from './finish-dialog';
+
+// jsdom has neither of these; the browser and Node do.
+globalThis.structuredClone ??= (v: unknown) => JSON.parse(JSON.stringify(v));
+if (!globalThis.crypto?.randomUUID) Object.defineProperty(globalThis, 'crypto', { value: webcrypto });
 
 describe('FinishDialog', () => {
   let fixture: ComponentFixture<FinishDialog>;
@@ -19,6 +26,8 @@ describe('FinishDialog', () => {
 
   function open(units: UnitSystem, item = job({ state: 'underway', acresPlanned: 150 }), startReading = 4211): void {
     const data: JobDialogData = { item: { ...item, log: { ...item.log, engineHoursStart: startReading } }, at };
+    freshDeviceStorage();
+    setOnline(false);
     TestBed.configureTestingModule({
       imports: [FinishDialog],
       providers: [
@@ -55,47 +64,31 @@ describe('FinishDialog', () => {
     expect(inputs().map((i) => i.value)).toEqual(['150', '4211']);
   });
 
-  it('when the farm is metric, then it asks hectares and sends acres', async () => {
+  /** The actions waiting in the phone's outbox once the dialog has written its own. */
+  async function kept() {
+    const store = TestBed.inject(OutboxStore);
+    await until(() => store.entries().length > 0, 'the finish in the outbox');
+    return store.entries();
+  }
+
+  it('when the farm is metric, then it asks hectares and keeps acres', async () => {
     open('metric');
     expect(el.textContent).toContain('Hectares done');
     expect(inputs()[0].value).toBe('60.7');
     submit();
-    const req = http.expectOne('/api/assignments/7/events');
-    expect(req.request.body.acres).toBeCloseTo(150, 0);
-    req.flush(job({ state: 'finished' }));
-    await fixture.whenStable();
+    const [entry] = await kept();
+    // 60.7 ha ÷ 0.40468564224 ha/ac (NIST SP 811, acre = 4046.8564224 m²) = 149.99 ac.
+    expect(entry.body.type === 'finish' && entry.body.acres).toBeCloseTo(150, 0);
   });
 
-  it('when finished with the defaults, then it sends finish, acres, engine hours and the tap time, and closes with the job', async () => {
+  it('when finished with no signal, then finish, acres, engine hours and the tap time are kept on the phone under a new id, nothing is sent, and it closes', async () => {
     open('us');
     submit();
-    const req = http.expectOne('/api/assignments/7/events');
-    expect(req.request.body).toEqual({ type: 'finish', acres: 150, engineHours: 4211, at });
-    const done = job({ state: 'finished' });
-    req.flush(done);
-    await fixture.whenStable();
-    expect(close).toHaveBeenCalledWith(done);
-  });
-
-  it('when the server refuses engine hours running backwards (422), then its message shows and the dialog stays with the entries', async () => {
-    open('us');
-    const hours = inputs()[1];
-    hours.value = '4100';
-    hours.dispatchEvent(new Event('input'));
-    submit();
-    http.expectOne('/api/assignments/7/events').flush(
-      {
-        error: {
-          code: 'engine_hours_backwards',
-          message: 'The meter cannot read 4100 h: that is below the reading at the start of this job (4211 h)',
-        },
-      },
-      { status: 422, statusText: 'Unprocessable Entity' },
-    );
-    await fixture.whenStable();
-    expect(el.querySelector('[role="alert"]')?.textContent).toContain('below the reading at the start of this job');
-    expect(close).not.toHaveBeenCalled();
-    expect(inputs()[1].value).toBe('4100');
+    const [entry] = await kept();
+    expect(entry.jobId).toBe(7);
+    expect(entry.body).toEqual({ type: 'finish', acres: 150, engineHours: 4211, at, clientEventId: entry.clientEventId });
+    await until(() => close.mock.calls.length > 0, 'the dialog to close');
+    http.expectNone('/api/assignments/7/events');
   });
 
   it('when the acres are emptied, then nothing is sent and it says what to fix', async () => {
@@ -115,5 +108,14 @@ describe('FinishDialog', () => {
     await fixture.whenStable();
     // 2789.4 − 2781 = 8.4 (the worked example).
     expect(el.querySelector('[data-hint="engine-hours"]')?.textContent).toContain('8.4 engine hours on this job');
+  });
+
+  it('when the end reading is a whole number of hours on, then the hint has the one decimal every hour figure has (8.0, not 8)', async () => {
+    open('us', job({ state: 'underway' }), 2781);
+    inputs()[1].value = '2789';
+    inputs()[1].dispatchEvent(new Event('input'));
+    await fixture.whenStable();
+    // 2789 − 2781 = 8; hours read to a tenth everywhere (shared/figures.ts), the start grouped by thousands.
+    expect(el.querySelector('[data-hint="engine-hours"]')?.textContent).toContain('At the start: 2,781.0 h · 8.0 engine hours on this job');
   });
 });

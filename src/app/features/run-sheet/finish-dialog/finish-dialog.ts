@@ -5,15 +5,25 @@ import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
-import type { RunSheetItem } from '@shared/schemas/run-sheet';
+import { FIGURE_DECIMALS, figure, formatEngineHours } from '@shared/figures';
 import { roundTo } from '@shared/round';
 import { acresToHa, haToAcres } from '@shared/units';
 import { Units } from '../../../shared/units/units';
 import { finishDefaults } from '../job-actions';
-import { RunSheetApi } from '../run-sheet-api';
-import { sendFailure } from '../send-failure';
+import { OutboxStore } from '../outbox-store';
+import { retryMessage } from '../send-failure';
 import type { JobDialogData } from '../start-dialog/start-dialog';
+import { from } from 'rxjs';
+import type { FormFields } from '../../../shared/forms/field-labels';
 import { FormSubmission } from '../../../shared/forms/form-submission';
+
+/** Each key of a finish's API body and the box it is typed in, by its label. */
+export const FINISH_FIELDS: FormFields = {
+  acres: { control: 'acres', label: 'Area done' },
+  engineHours: { control: 'engineHours', label: 'Engine hours at the end' },
+  note: { control: 'note', label: 'Note' },
+  at: { control: 'at', label: 'Time of the tap' },
+};
 
 /** Finish a job: area done (acres, or hectares on a metric farm) and the engine-hour meter at the end. */
 @Component({
@@ -24,8 +34,8 @@ import { FormSubmission } from '../../../shared/forms/form-submission';
   styleUrl: '../job-dialog.scss',
 })
 export class FinishDialog {
-  private readonly api = inject(RunSheetApi);
-  private readonly ref = inject<MatDialogRef<FinishDialog, RunSheetItem>>(MatDialogRef);
+  private readonly outbox = inject(OutboxStore);
+  private readonly ref = inject<MatDialogRef<FinishDialog>>(MatDialogRef);
   private readonly units = inject(Units);
   protected readonly data = inject<JobDialogData>(MAT_DIALOG_DATA);
 
@@ -53,26 +63,20 @@ export class FinishDialog {
   protected readonly meterHint = computed(() => {
     const start = this.data.item.log.engineHoursStart!;
     const end = this.endReading();
-    if (typeof end !== 'number' || end < start) return `At the start: ${start} h`;
-    return `At the start: ${start} h · ${roundTo(end - start, 1)} engine hours on this job`;
+    if (typeof end !== 'number' || end < start) return `At the start: ${formatEngineHours(start)}`;
+    return `At the start: ${formatEngineHours(start)} · ${figure(end - start, FIGURE_DECIMALS.hours)} engine hours on this job`;
   });
-  private readonly submission = new FormSubmission(this.form, (err, form) => sendFailure(err, 'Finish', form));
+  private readonly submission = new FormSubmission(this.form, FINISH_FIELDS, (err) => retryMessage(err, 'Finish'));
   protected readonly busy = this.submission.busy;
   protected readonly error = this.submission.error;
+  protected readonly blocked = this.submission.blocked;
 
   protected submit(): void {
     if (!this.submission.ready()) return;
     const v = this.form.getRawValue();
     const acres = this.metric() ? roundTo(haToAcres(v.acres!), 2) : v.acres!;
-    this.submission.send(
-      this.api.event(this.data.item.id, {
-        type: 'finish',
-        acres,
-        engineHours: v.engineHours!,
-        ...(v.note.trim() ? { note: v.note.trim() } : {}),
-        at: this.data.at,
-      }),
-      (item) => this.ref.close(item),
-    );
+    const action = { type: 'finish' as const, acres, engineHours: v.engineHours!, ...(v.note.trim() ? { note: v.note.trim() } : {}) };
+    // Written to the phone's outbox with the tap time; the dialog closes and sending follows.
+    this.submission.send(from(this.outbox.tap(this.data.item.id, action, new Date(this.data.at))), (entry) => this.ref.close(entry));
   }
 }

@@ -9,22 +9,35 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatRadioModule } from '@angular/material/radio';
 import { MatSelectModule } from '@angular/material/select';
+import { formatLatLon } from '@shared/figures';
 import { PROBLEM_KINDS } from '@shared/schemas/jobs';
-import type { ProblemInput, RunSheetItem } from '@shared/schemas/run-sheet';
+import type { ProblemInput } from '@shared/schemas/run-sheet';
 import { HAZARD_KINDS, HAZARD_LABELS, type HazardKind } from '@shared/schemas/fields';
-import * as L from 'leaflet';
+import type * as L from 'leaflet';
 import { FieldMap } from '../../../shared/map/field-map/field-map';
 import type { HazardFeature, MapField } from '../../../shared/map/map-types';
 import { Units } from '../../../shared/units/units';
-import { RunSheetApi } from '../run-sheet-api';
-import { sendFailure } from '../send-failure';
+import { OutboxStore } from '../outbox-store';
+import { retryMessage } from '../send-failure';
 import type { JobDialogData } from '../start-dialog/start-dialog';
+import { from } from 'rxjs';
+import type { FormFields } from '../../../shared/forms/field-labels';
 import { FormSubmission } from '../../../shared/forms/form-submission';
 
 type ProblemKind = (typeof PROBLEM_KINDS)[number];
 const KIND_LABELS: Record<ProblemKind, string> = { breakdown: 'Breakdown', hazard: 'A new hazard', other: 'Something else' };
 /** A new hazard's clearance until the operator says otherwise, metres (about 50 ft). */
 const DEFAULT_CLEARANCE_M = 15;
+
+/** Each key of a problem report's API body and the box it is typed in, by its label. */
+export const PROBLEM_FIELDS: FormFields = {
+  kind: { control: 'kind', label: 'What is it?' },
+  note: { control: 'note', label: 'What happened' },
+  geometry: { control: 'geometry', label: 'Place on the map' },
+  hazardKind: { control: 'hazardKind', label: 'Kind of hazard' },
+  clearanceM: { control: 'clearance', label: 'Clearance' },
+  pause: { control: 'pause', label: 'Pause the job' },
+};
 
 /**
  * Report a problem on a job: a breakdown (pauses the job unless unticked), a new hazard marked on
@@ -49,8 +62,8 @@ const DEFAULT_CLEARANCE_M = 15;
   styleUrls: ['../job-dialog.scss', './problem-dialog.scss'],
 })
 export class ProblemDialog {
-  private readonly api = inject(RunSheetApi);
-  private readonly ref = inject<MatDialogRef<ProblemDialog, RunSheetItem>>(MatDialogRef);
+  private readonly outbox = inject(OutboxStore);
+  private readonly ref = inject<MatDialogRef<ProblemDialog>>(MatDialogRef);
   protected readonly units = inject(Units);
   protected readonly data = inject<JobDialogData>(MAT_DIALOG_DATA);
 
@@ -69,24 +82,21 @@ export class ProblemDialog {
     clearance: new FormControl<number | null>(this.units.fromMetres(DEFAULT_CLEARANCE_M), [Validators.min(0)]),
     pause: new FormControl(true, { nonNullable: true }),
   });
-  private readonly submission = new FormSubmission(this.form, (err, form) => sendFailure(err, 'Send report', form));
+  private readonly submission = new FormSubmission(this.form, PROBLEM_FIELDS, (err) => retryMessage(err, 'Send report'));
   protected readonly busy = this.submission.busy;
   protected readonly error = this.submission.error;
+  protected readonly blocked = this.submission.blocked;
   protected readonly kind = toSignal(this.form.controls.kind.valueChanges, { initialValue: this.form.controls.kind.value });
   /** The hazard's place, [lon, lat]. */
   protected readonly point = signal<[number, number] | null>(null);
   protected readonly pointText = computed(() => {
     const p = this.point();
-    return p ? `Marked at ${p[1].toFixed(5)}, ${p[0].toFixed(5)}` : 'Not marked yet: tap the map where it is.';
+    return p ? `Marked at ${formatLatLon(p[0], p[1])}` : 'Not marked yet: tap the map where it is.';
   });
   protected readonly locating = signal(false);
   protected readonly canLocate = typeof navigator !== 'undefined' && !!navigator.geolocation;
 
-  private map: L.Map | null = null;
-  private marker: L.CircleMarker | null = null;
-
   protected mapReady(map: L.Map): void {
-    this.map = map;
     map.on('click', (e: L.LeafletMouseEvent) => this.mark(e.latlng.lng, e.latlng.lat));
   }
 
@@ -105,11 +115,9 @@ export class ProblemDialog {
     );
   }
 
+  /** The map draws the point (FieldMap's `mark`) and keeps the field's name off it. */
   private mark(lon: number, lat: number): void {
     this.point.set([lon, lat]);
-    if (!this.map) return;
-    this.marker?.remove();
-    this.marker = L.circleMarker([lat, lon], { radius: 9, className: 'new-hazard-mark', weight: 3 }).addTo(this.map);
   }
 
   protected submit(): void {
@@ -123,6 +131,8 @@ export class ProblemDialog {
       if (v.clearance != null) body.clearanceM = this.units.toMetres(v.clearance);
     }
     if (v.kind === 'breakdown') body.pause = this.canPause && v.pause;
-    this.submission.send(this.api.problem(this.data.item.id, body), (item) => this.ref.close(item));
+    // Written to the phone's outbox with the tap time; the dialog closes and sending follows.
+    const report = from(this.outbox.tap(this.data.item.id, { type: 'problem', ...body }, new Date(this.data.at)));
+    this.submission.send(report, (entry) => this.ref.close(entry));
   }
 }

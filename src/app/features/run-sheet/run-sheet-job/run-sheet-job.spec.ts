@@ -1,5 +1,6 @@
+import { webcrypto } from 'node:crypto';
 import { provideHttpClient, withInterceptors } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpTestingController, type TestRequest, provideHttpClientTesting } from '@angular/common/http/testing';
 import { type ComponentFixture, TestBed } from '@angular/core/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { provideRouter } from '@angular/router';
@@ -9,24 +10,29 @@ import { errorInterceptor } from '../../../core/http/error.interceptor';
 import { FieldMap } from '../../../shared/map/field-map/field-map';
 import { FieldMapStub } from '../../../shared/map/field-map/field-map-stub';
 import { job } from '../../board/testing/board-fixtures';
+import { OutboxStore } from '../outbox-store';
+import { freshDeviceStorage, setOnline, until } from '../testing/device';
 import { RunSheetJob, clockSpan } from './run-sheet-job';
+
+// jsdom has neither of these; the browser and Node do.
+globalThis.structuredClone ??= (v: unknown) => JSON.parse(JSON.stringify(v));
+if (!globalThis.crypto?.randomUUID) Object.defineProperty(globalThis, 'crypto', { value: webcrypto });
 
 describe('RunSheetJob', () => {
   let fixture: ComponentFixture<RunSheetJob>;
   let http: HttpTestingController;
   let el: HTMLElement;
-  let changed: RunSheetItem[];
 
   function create(item: RunSheetItem): void {
     fixture = TestBed.createComponent(RunSheetJob);
     fixture.componentRef.setInput('item', item);
-    changed = [];
-    fixture.componentInstance.changed.subscribe((i) => changed.push(i));
     el = fixture.nativeElement as HTMLElement;
     fixture.detectChanges();
   }
 
   beforeEach(() => {
+    freshDeviceStorage();
+    setOnline(false);
     TestBed.configureTestingModule({
       imports: [RunSheetJob],
       providers: [
@@ -81,7 +87,7 @@ describe('RunSheetJob', () => {
       headlandPasses: 2,
       headingDeg: 91.6,
       coverage: 'gaps-ok' as const,
-      speedMph: 10,
+      speedMps: 4.4704,
       efficiency: 0.8,
       turnSeconds: 20,
       summary: { passCount: 31, turns: 30, hours: 6.25 },
@@ -102,60 +108,82 @@ describe('RunSheetJob', () => {
     const rows = [...el.querySelectorAll('.plan dl > div')].map(
       (d) => `${d.querySelector('dt')?.textContent?.trim()}: ${d.querySelector('dd')?.textContent?.replace(/\s+/g, ' ').trim()}`,
     );
-    expect(rows).toEqual(['Heading: 92°', 'Passes: 31', 'Headland: 2 passes around', 'Turns: 30', 'Hours: 6.3 h whole field']);
+    expect(rows).toEqual(['Heading: 91.6°', 'Passes: 31', 'Headland: 2 passes around', 'Turns: 30', 'Hours: 6.3 h whole field']);
     expect(el.querySelector('.hazards')?.textContent?.replace(/\s+/g, ' ')).toContain('keep 33 ft clear — Pole by the approach');
   });
 
-  it('when Pause is tapped twice on a slow line, then one request goes, with the tap time, and the button waits', async () => {
+  it('when Pause is tapped with no signal, then it is kept on the phone with its id and tap time, nothing is sent, and the job shows paused, marked not sent yet', async () => {
+    setOnline(false);
+    create(job({ state: 'underway' }));
+    const tapped = Date.now();
+    actionButton('pause').click();
+    await until(
+      () => el.querySelector('[data-unsent]') !== null,
+      'the job marked as not sent',
+      () => fixture.detectChanges(),
+    );
+    http.expectNone('/api/run-sheet/outbox');
+    http.expectNone('/api/assignments/7/events');
+    expect(el.querySelector('.log-actions .state')?.textContent?.trim()).toBe('paused');
+    expect(el.querySelector('.unsent-note')?.textContent).toContain('1 action on this phone, not sent yet');
+    expect(buttons()).toEqual(['Resume', 'Finish', 'Call off', 'Report a problem']);
+    expect(el.querySelector('.log li.unsent')?.textContent).toContain('Paused');
+    const [waiting] = TestBed.inject(OutboxStore).entries();
+    expect(waiting.body.type).toBe('pause');
+    // RFC 4122 version 4 layout.
+    expect(waiting.body.clientEventId).toMatch(/^[0-9a-f]{8}-[0-9a-f]{4}-4[0-9a-f]{3}-[89ab][0-9a-f]{3}-[0-9a-f]{12}$/);
+    expect(Math.abs(Date.parse(waiting.body.at) - tapped)).toBeLessThan(5000);
+  });
+
+  it('when Pause is tapped with a signal, then it is sent with its job, id and tap time through the outbox route, and the mark goes once answered', async () => {
+    setOnline(true);
     create(job({ state: 'underway' }));
     actionButton('pause').click();
+    let req: TestRequest | undefined;
+    await until(() => (req = http.match('/api/run-sheet/outbox')[0]) !== undefined, 'the pause to be sent');
+    expect(req!.request.body).toEqual({
+      events: [{ assignmentId: 7, type: 'pause', at: expect.any(String), clientEventId: expect.any(String) }],
+    });
+    const clientEventId = req!.request.body.events[0].clientEventId;
+    req!.flush({
+      results: [{ clientEventId, assignmentId: 7, status: 201, body: { clientEventId, id: 7, state: 'paused', eventId: 90 } }],
+    });
+    await until(
+      () => TestBed.inject(OutboxStore).entries().length === 0,
+      'the outbox to empty',
+      () => fixture.detectChanges(),
+    );
+    expect(el.querySelector('[data-unsent]')).toBeNull();
+    // Answered, but the day not read again yet: the job stays paused (no flash of underway and
+    // its Pause button), the pause in its log without the not-sent mark.
     fixture.detectChanges();
-    expect(actionButton('pause').disabled).toBe(true);
-    expect(actionButton('pause').textContent).toContain('Sending');
-    actionButton('pause').click();
-    const req = http.expectOne('/api/assignments/7/events');
-    expect(req.request.body.type).toBe('pause');
-    expect(Date.now() - Date.parse(req.request.body.at)).toBeLessThan(5000);
-    req.flush(job({ state: 'paused' }));
-    await fixture.whenStable();
-    expect(changed.map((i) => i.state)).toEqual(['paused']);
+    expect(el.querySelector('.log-actions .state')?.textContent?.trim()).toBe('paused');
+    expect(buttons()).toEqual(['Resume', 'Finish', 'Call off', 'Report a problem']);
+    expect(el.querySelector('.log li.unsent')).toBeNull();
+    expect([...el.querySelectorAll('.log li')].map((li) => li.textContent)).toEqual([expect.stringContaining('Paused')]);
+    // The day read again: the server's job replaces the preview.
+    fixture.componentRef.setInput('item', job({ state: 'paused' }));
+    fixture.detectChanges();
+    expect(el.querySelector('.log-actions .state')?.textContent?.trim()).toBe('paused');
+    expect(el.querySelectorAll('.log li')).toHaveLength(0);
   });
 
-  it('when the connection drops, then a retry message shows and Try again sends the same tap time', async () => {
+  it('when the server kept the action as a log (the owner moved the job), then its plain sentence shows on the job', async () => {
+    setOnline(true);
     create(job({ state: 'underway' }));
     actionButton('pause').click();
-    const first = http.expectOne('/api/assignments/7/events');
-    const at = first.request.body.at as string;
-    first.error(new ProgressEvent('error'), { status: 0, statusText: '' });
-    await fixture.whenStable();
-    const alert = el.querySelector('.failure[role="alert"]') as HTMLElement;
-    expect(alert.textContent).toContain('Cannot reach Furlong');
-    expect(alert.textContent).toContain('tap Pause to try again');
-    expect(actionButton('pause').disabled).toBe(false);
-
-    (alert.querySelector('button') as HTMLButtonElement).click();
-    const second = http.expectOne('/api/assignments/7/events');
-    expect(second.request.body).toEqual({ type: 'pause', at });
-    second.flush(job({ state: 'paused' }));
-    await fixture.whenStable();
-    expect(el.querySelector('.failure')).toBeNull();
-  });
-
-  it('when the server says the job moved on (409), then its message shows without a retry', async () => {
-    create(job({ state: 'underway' }));
-    let outdated = 0;
-    fixture.componentInstance.outdated.subscribe(() => outdated++);
-    actionButton('pause').click();
-    http
-      .expectOne('/api/assignments/7/events')
-      .flush(
-        { error: { code: 'invalid_transition', message: 'This job is paused: it cannot be paused.' } },
-        { status: 409, statusText: 'Conflict' },
-      );
-    await fixture.whenStable();
-    expect(el.querySelector('.failure')?.textContent).toContain('This job is paused: it cannot be paused.');
-    expect(el.querySelector('.failure button')).toBeNull();
-    expect(outdated).toBe(1);
+    let req: TestRequest | undefined;
+    await until(() => (req = http.match('/api/run-sheet/outbox')[0]) !== undefined, 'the pause to be sent');
+    const message = 'The owner moved this job to Ada; your pause at 10:05 was kept as your log.';
+    const clientEventId = req!.request.body.events[0].clientEventId;
+    req!.flush({ results: [{ clientEventId, assignmentId: 7, status: 409, body: { error: { code: 'job_moved', message } } }] });
+    await until(
+      () => el.querySelector('[data-outcome]') !== null,
+      'the outcome on the job',
+      () => fixture.detectChanges(),
+    );
+    expect(el.querySelector('[data-outcome] span')?.textContent?.trim()).toBe(message);
+    expect(el.querySelector('[data-unsent]')).toBeNull();
   });
 
   it('when Start is tapped, then a dialog asks for the meter, prefilled with the machine reading', async () => {
@@ -172,7 +200,7 @@ describe('RunSheetJob', () => {
     await fixture.whenStable();
     // 2789.4 − 2781 = 8.4 h: the issue's worked example, by plain subtraction.
     const total = (name: string) => el.querySelector(`[data-total="${name}"] dd`)?.textContent?.replace(/\s+/g, ' ').trim();
-    expect(total('engine-hours')).toBe('8.4 h meter 2781 → 2789.4 h');
+    expect(total('engine-hours')).toBe('8.4 h meter 2,781.0 h → 2,789.4 h');
     // 0.02 h × 60 = 1.2 min, rounded to the minute.
     expect(total('clock-time')).toBe('1 min start to finish, less pauses');
     expect(el.textContent).not.toMatch(/Worked: 0 h/);
@@ -202,5 +230,35 @@ describe('RunSheetJob', () => {
     create(job({ date: '2031-05-16' }));
     await fixture.whenStable();
     expect(el.querySelectorAll('.cautions li')).toHaveLength(2);
+  });
+
+  describe('task data', () => {
+    const link = () => el.querySelector('.taskdata a') as HTMLAnchorElement | null;
+
+    it("when the job's operator opens it, then a link downloads that job's TASKDATA.zip for the tractor's display", () => {
+      create(job({ id: 42, date: '2031-05-15', role: 'operator' }));
+      const a = link()!;
+      expect(a.textContent?.replace(/\s+/g, ' ').trim()).toBe('download Task data (ISO 11783-10)');
+      // The route of the public API contract: GET /api/assignments/:id/taskdata.zip.
+      expect(a.getAttribute('href')).toBe('/api/assignments/42/taskdata.zip');
+      expect(a.getAttribute('download')).toBe('TASKDATA-2031-05-15-job-42.zip');
+      expect(el.querySelector(`#${a.getAttribute('aria-describedby')}`)?.textContent).toContain("for the tractor's display");
+    });
+
+    it("when a mentor opens it, then there is no link: the server gives task data to the job's operator and the owner only", () => {
+      create(job({ role: 'mentor' }));
+      expect(link()).toBeNull();
+    });
+
+    it('when the owner opens a job on a sheet whose person mentors it, then the owner still has the link', () => {
+      TestBed.inject(AuthStore).signedInAs({
+        user: { id: 1, email: 'o@example.test', name: 'Ingrid Sorensen' },
+        farm: { id: 1, name: 'F', units: 'us', timeZone: 'America/Chicago' },
+        membershipId: 9,
+        role: 'owner',
+      });
+      create(job({ id: 7, role: 'mentor' }));
+      expect(link()?.getAttribute('href')).toBe('/api/assignments/7/taskdata.zip');
+    });
   });
 });

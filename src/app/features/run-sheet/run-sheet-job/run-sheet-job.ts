@@ -7,18 +7,20 @@ import {
   inject,
   input,
   linkedSignal,
-  output,
   signal,
 } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
+import { farmTime } from '@shared/farm-time';
+import { formatEngineHours, formatHeading } from '@shared/figures';
 import { OPERATION_INFO } from '@shared/operations';
 import { type AssignmentEvent, type EventType, STATE_LABELS } from '@shared/schemas/jobs';
 import type { RunSheetEvent, RunSheetItem } from '@shared/schemas/run-sheet';
 import { HAZARD_LABELS, type HazardKind } from '@shared/schemas/fields';
 import { AuthStore } from '../../../core/auth/auth-store';
-import { ApiError } from '../../../core/http/api-error';
+import { messageOf } from '../../../core/http/api-error';
+import { API } from '../../../core/http/api-paths';
 import { FieldMap } from '../../../shared/map/field-map/field-map';
 import { HourlyWindow } from '../../../shared/weather/hourly-window/hourly-window';
 import { HazardSymbol } from '../../../shared/map/hazard-symbol/hazard-symbol';
@@ -26,14 +28,16 @@ import type { HazardFeature, MapField } from '../../../shared/map/map-types';
 import { AreaPipe } from '../../../shared/units/area-pipe';
 import { LengthPipe } from '../../../shared/units/length-pipe';
 import { Units } from '../../../shared/units/units';
-import { clockTime, hoursText } from '../../board/board-day';
+import { hoursText } from '../../board/board-day';
 import { CallOffDialog } from '../call-off-dialog/call-off-dialog';
 import { CautionsRead } from '../cautions-read';
 import { FinishDialog } from '../finish-dialog/finish-dialog';
-import { ACTION_ICONS, ACTION_LABELS, actionsFor, canReportProblem } from '../job-actions';
+import type { OutboxEntry } from '../outbox/outbox';
+import { ACTION_ICONS, ACTION_LABELS, type UnsentAction, actionsFor, canReportProblem, withUnsent } from '../job-actions';
+import { OutboxStore } from '../outbox-store';
+import { JobPosition } from '../job-position/job-position';
 import { ProblemDialog } from '../problem-dialog/problem-dialog';
-import { RunSheetApi } from '../run-sheet-api';
-import { sendFailure } from '../send-failure';
+import { TrackRecorder } from '../track-recorder/track-recorder';
 import { type JobDialogData, StartDialog } from '../start-dialog/start-dialog';
 
 const DIALOGS: Partial<Record<EventType, Type<unknown>>> = { start: StartDialog, finish: FinishDialog, 'call-off': CallOffDialog };
@@ -51,32 +55,60 @@ const EVENT_WORDS: Record<AssignmentEvent['type'], string> = {
 
 /**
  * One job of the run sheet, opened: what to do with what, the field's hazards and the cautions,
- * the pass plan, big buttons to log it, and the log so far. Pause and resume send at once; the rest
- * ask first. The time sent is the tap's, so a slow connection does not shift the log.
+ * the pass plan, big buttons to log it, and the log so far. Pause and resume are written at once;
+ * the rest ask first. Every action goes to the phone's outbox with the time of the tap and is sent
+ * from there, so no signal never stops the work: the job shows what waits, marked as not sent yet,
+ * and what the server said of an action it could not apply.
  */
 @Component({
   selector: 'app-run-sheet-job',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [AreaPipe, FieldMap, HazardSymbol, HourlyWindow, LengthPipe, MatButtonModule, MatIconModule],
+  imports: [AreaPipe, FieldMap, HazardSymbol, HourlyWindow, JobPosition, LengthPipe, MatButtonModule, MatIconModule, TrackRecorder],
   templateUrl: './run-sheet-job.html',
   styleUrl: './run-sheet-job.scss',
 })
 export class RunSheetJob {
-  private readonly api = inject(RunSheetApi);
+  private readonly outbox = inject(OutboxStore);
   private readonly dialog = inject(MatDialog);
   private readonly units = inject(Units);
   private readonly auth = inject(AuthStore);
   private readonly cautionsRead = inject(CautionsRead);
 
   readonly item = input.required<RunSheetItem>();
-  readonly changed = output<RunSheetItem>();
-  /** The job moved on elsewhere (a 409): the page should read the sheet again. */
-  readonly outdated = output<void>();
+
+  /** This job's actions waiting on the device, in tap order. */
+  private readonly waiting = computed(() => this.outbox.entries().filter((e) => e.jobId === this.item().id));
+  protected readonly unsent = computed(() => this.waiting().map((e) => e.body as UnsentAction));
+  /**
+   * Actions seen waiting since this reading of the job (the item), in tap order: once sent they
+   * leave the outbox before the day is read again, and until then they still shape what is shown.
+   */
+  private seenSince: { item: RunSheetItem | null; entries: OutboxEntry[] } = { item: null, entries: [] };
+  private readonly sentNotRead = computed(() => {
+    const item = this.item();
+    const waiting = this.waiting();
+    if (this.seenSince.item !== item) this.seenSince = { item, entries: [] };
+    const seen = this.seenSince.entries;
+    for (const e of waiting) if (!seen.some((s) => s.clientEventId === e.clientEventId)) seen.push(e);
+    return seen.filter((s) => !waiting.some((e) => e.clientEventId === s.clientEventId)).map((s) => s.body as UnsentAction);
+  });
+  protected readonly unsentText = computed(() => {
+    const n = this.unsent().length;
+    return `${n === 1 ? '1 action' : `${n} actions`} on this phone, not sent yet: kept here and sent when there is a connection.`;
+  });
+  /** The job as it will be once what waits is sent (the server's answer replaces it). */
+  protected readonly job = computed(() => withUnsent(this.item(), this.unsent(), this.sentNotRead()));
+  /** What the server said of this job's last action it could not apply (it kept it as a log). */
+  protected readonly outcome = computed(() => this.outbox.view()?.outcomes.get(this.item().id)?.message ?? null);
 
   protected readonly operationLabel = computed(() => OPERATION_INFO[this.item().operation].label);
-  protected readonly actions = computed(() => actionsFor(this.item()));
-  protected readonly canReport = computed(() => canReportProblem(this.item().state));
-  protected readonly stateLabel = computed(() => STATE_LABELS[this.item().state]);
+  protected readonly actions = computed(() => actionsFor(this.job()));
+  protected readonly canReport = computed(() => canReportProblem(this.job().state));
+  protected readonly stateLabel = computed(() => STATE_LABELS[this.job().state]);
+  /** The job's operator and the owner may take its task data; a mentor rides along and does not. */
+  protected readonly canTaskData = computed(() => this.item().role === 'operator' || this.auth.isOwner());
+  protected readonly taskDataHref = computed(() => API.assignmentTaskData(this.item().id));
+  protected readonly taskDataName = computed(() => `TASKDATA-${this.item().date}-job-${this.item().id}.zip`);
   protected readonly planHours = computed(() => hoursText(this.item().planHours));
   protected readonly mapFields = computed<MapField[]>(() => [
     { id: this.item().field.id, name: this.item().field.name, boundary: this.item().field.boundary },
@@ -89,19 +121,24 @@ export class RunSheetJob {
     const num = (k: string) => (typeof s[k] === 'number' ? (s[k] as number) : null);
     const heading = p.headingDeg ?? num('headingDeg');
     return {
-      heading: heading == null ? '—' : `${Math.round(heading)}°`,
+      heading: formatHeading(heading, 180),
       passes: num('passCount'),
       turns: num('turns'),
       headland: p.headlandPasses,
       hours: num('hours'),
       widthM: p.widthM,
-      speedMph: p.speedMph,
+      speedMps: p.speedMps,
     };
   });
   protected readonly log = computed(() =>
-    [...this.item().events]
+    [...this.job().events]
       .sort((a, b) => a.at.localeCompare(b.at))
-      .map((e) => ({ id: e.id, time: clockTime(e.at), text: eventText(e, (acres) => this.units.area(acres)) })),
+      .map((e) => ({
+        id: e.id,
+        time: farmTime(e.at, this.auth.farm()?.timeZone),
+        text: eventText(e, (acres) => this.units.area(acres)),
+        unsent: 'unsent' in e && e.unsent === true,
+      })),
   );
 
   /** Who reads, which day, which operation: the cautions are read once per person, day and operation on this device. */
@@ -128,9 +165,10 @@ export class RunSheetJob {
   protected readonly clockSpan = clockSpan;
   protected readonly icons = ACTION_ICONS;
   protected readonly hoursText = hoursText;
-  /** The action being sent, so its button (and the others) wait. */
+  protected readonly meterText = formatEngineHours;
+  /** The action being written to the device, so its button (and the others) wait. */
   protected readonly sending = signal<EventType | null>(null);
-  protected readonly failure = signal<{ message: string; retry: (() => void) | null } | null>(null);
+  protected readonly failure = signal<string | null>(null);
 
   protected hazardLabel(kind: string): string {
     return HAZARD_LABELS[kind as HazardKind] ?? kind;
@@ -145,7 +183,7 @@ export class RunSheetJob {
       this.openDialog(dialog, at);
       return;
     }
-    this.send(type, at);
+    this.write(type, at);
   }
 
   protected report(): void {
@@ -154,44 +192,27 @@ export class RunSheetJob {
   }
 
   private openDialog(component: Type<unknown>, at: string): void {
-    const data: JobDialogData = { item: this.item(), at };
-    this.dialog
-      .open<unknown, JobDialogData, RunSheetItem>(component, {
-        data,
-        width: '30rem',
-        maxWidth: 'calc(100vw - 1rem)',
-        autoFocus: 'first-tabbable',
-      })
-      .afterClosed()
-      .subscribe((item) => {
-        if (item) this.changed.emit(item);
-      });
-  }
-
-  /** Pause and resume: one tap sends; a failure keeps the same tap time for the retry. */
-  private send(type: EventType, at: string): void {
-    this.sending.set(type);
-    this.api.event(this.item().id, { type, at }).subscribe({
-      next: (item) => {
-        this.sending.set(null);
-        this.changed.emit(item);
-      },
-      error: (err: unknown) => {
-        this.sending.set(null);
-        const conflict = err instanceof ApiError && err.status === 409;
-        this.failure.set({
-          message: sendFailure(err, this.labels[type]) ?? '',
-          retry: conflict ? null : () => this.retry(type, at),
-        });
-        if (conflict) this.outdated.emit();
-      },
+    // The job as the operator sees it, unsent actions included: a finish after an offline start
+    // starts from that start's meter reading.
+    const data: JobDialogData = { item: this.job(), at };
+    this.dialog.open<unknown, JobDialogData>(component, {
+      data,
+      width: '30rem',
+      maxWidth: 'calc(100vw - 1rem)',
+      autoFocus: 'first-tabbable',
     });
   }
 
-  private retry(type: EventType, at: string): void {
-    if (this.sending()) return;
-    this.failure.set(null);
-    this.send(type, at);
+  /** Pause and resume: one tap writes it to the outbox with the tap time; sending follows. */
+  private write(type: EventType, at: string): void {
+    this.sending.set(type);
+    this.outbox.tap(this.item().id, { type }, new Date(at)).then(
+      () => this.sending.set(null),
+      (err: unknown) => {
+        this.sending.set(null);
+        this.failure.set(`${messageOf(err)} Nothing was kept: tap ${this.labels[type]} again.`);
+      },
+    );
   }
 }
 
@@ -214,7 +235,7 @@ export function eventText(e: RunSheetEvent, area: (acres: number) => string): st
   if (e.type === 'problem' && e.reason) parts[0] = `Problem reported: ${e.reason === 'hazard' ? 'new hazard' : e.reason}`;
   if (e.type === 'call-off' && e.reason) parts.push(`(${e.reason})`);
   if (e.acres != null) parts.push(`· ${area(e.acres)}`);
-  if (e.engineHours != null) parts.push(`· meter ${e.engineHours} h`);
+  if (e.engineHours != null) parts.push(`· meter ${formatEngineHours(e.engineHours)}`);
   if (e.by) parts.push(`· ${e.by}`);
   let text = parts.join(' ');
   if (e.note) text = `${text}: “${e.note}”`;

@@ -1,5 +1,6 @@
+import { webcrypto } from 'node:crypto';
 import { provideHttpClient, withInterceptors } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpTestingController, type TestRequest, provideHttpClientTesting } from '@angular/common/http/testing';
 import { type ComponentFixture, TestBed } from '@angular/core/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { provideRouter } from '@angular/router';
@@ -11,10 +12,18 @@ import { FieldMap } from '../../../shared/map/field-map/field-map';
 import { FieldMapStub } from '../../../shared/map/field-map/field-map-stub';
 import { MILO, TOMAS, job } from '../../board/testing/board-fixtures';
 import { RunSheetJob } from '../run-sheet-job/run-sheet-job';
+import { Outbox } from '../outbox/outbox';
+import { freshDeviceStorage, setOnline, until } from '../testing/device';
 import { RunSheetPage, firstOpen } from './run-sheet-page';
 
+// jsdom has neither of these; the browser and Node do.
+globalThis.structuredClone ??= (v: unknown) => JSON.parse(JSON.stringify(v));
+if (!globalThis.crypto?.randomUUID) Object.defineProperty(globalThis, 'crypto', { value: webcrypto });
+
 /** The page for a signed-in person on 2031-05-15, its HTTP calls held for the test to answer. */
-function setUp(me: Me): { fixture: ComponentFixture<RunSheetPage>; http: HttpTestingController; el: HTMLElement } {
+function setUp(me: Me, fresh = true): { fixture: ComponentFixture<RunSheetPage>; http: HttpTestingController; el: HTMLElement } {
+  if (fresh) freshDeviceStorage();
+  setOnline(true);
   TestBed.configureTestingModule({
     imports: [RunSheetPage],
     providers: [
@@ -29,6 +38,20 @@ function setUp(me: Me): { fixture: ComponentFixture<RunSheetPage>; http: HttpTes
   const fixture = TestBed.createComponent(RunSheetPage);
   fixture.componentRef.setInput('date', '2031-05-15');
   return { fixture, http: TestBed.inject(HttpTestingController), el: fixture.nativeElement as HTMLElement };
+}
+
+/** Answers the reads of the days after `day` that the page keeps on the phone (empty days). */
+async function answerAhead(http: HttpTestingController, day: string, person = TOMAS): Promise<string[]> {
+  const asked: string[] = [];
+  for (let i = 1; i <= 3; i++) {
+    const date = new Date(Date.parse(`${day}T00:00:00Z`) + i * 86_400_000).toISOString().slice(0, 10);
+    const url = `/api/run-sheet?date=${date}`;
+    let req: TestRequest | undefined;
+    await until(() => (req = http.match(url)[0]) !== undefined, `the read of ${date}`);
+    req!.flush({ date, today: day, opened: 'asked', person, assignments: [] });
+    asked.push(date);
+  }
+  return asked;
 }
 
 describe('RunSheetPage', () => {
@@ -73,15 +96,6 @@ describe('RunSheetPage', () => {
     expect(el.querySelector('[data-job="1"] app-run-sheet-job')).toBeNull();
   });
 
-  it('when a logged action answers with the job, then the sheet shows its new state', async () => {
-    http.expectOne('/api/run-sheet?date=2031-05-15').flush(sheet([job({ id: 7 })]));
-    await fixture.whenStable();
-    const jobView = fixture.debugElement.query((d) => d.componentInstance instanceof RunSheetJob);
-    (jobView.componentInstance as RunSheetJob).changed.emit(job({ id: 7, state: 'underway' }));
-    await fixture.whenStable();
-    expect(el.querySelector('.job-sub .state')?.textContent?.trim()).toBe('underway');
-  });
-
   it('when the day has no jobs, then it says so', async () => {
     http.expectOne('/api/run-sheet?date=2031-05-15').flush(sheet([]));
     await fixture.whenStable();
@@ -102,6 +116,8 @@ describe('RunSheetPage', () => {
     expect(el.querySelector('.who')?.textContent).toContain('Wednesday, May 21, 2031');
     expect(el.querySelector('[data-job="9"] app-run-sheet-job')).not.toBeNull();
     expect(el.textContent).not.toContain('Nothing on your run sheet');
+    // Opened from the navigation (no day asked): the days after the one shown are read to keep on the phone.
+    expect(await answerAhead(http, '2031-05-21')).toEqual(['2031-05-22', '2031-05-23', '2031-05-24']);
   });
 
   it('when no day is in the address and no published day ahead has work, then it says so on today', async () => {
@@ -112,6 +128,7 @@ describe('RunSheetPage', () => {
     http.expectOne('/api/run-sheet').flush(sheet([], { opened: 'no-work-ahead' }));
     await fixture.whenStable();
     expect(el.querySelector('.opened-note span')?.textContent?.trim()).toBe('No work today, and none on the published days ahead.');
+    await answerAhead(http, '2031-05-15');
   });
 
   it('when the sheet cannot load, then the server message shows with Try again', async () => {
@@ -122,6 +139,190 @@ describe('RunSheetPage', () => {
     TestBed.tick();
     http.expectOne('/api/run-sheet?date=2031-05-15').flush(sheet([]));
     await fixture.whenStable();
+  });
+});
+
+describe('RunSheetPage on a phone with no signal', () => {
+  const TOMAS_ME: Me = {
+    user: { id: 2, email: 't@example.test', name: 'Tomas Reyes' },
+    farm: { id: 1, name: 'F', units: 'us', timeZone: 'America/Chicago' },
+    membershipId: TOMAS.membershipId,
+    role: 'operator',
+  };
+  const day = (assignments: RunSheet['assignments']): RunSheet => ({
+    date: '2031-05-15',
+    today: '2031-05-15',
+    opened: 'asked',
+    person: TOMAS,
+    assignments,
+  });
+  /** The page over a phone whose storage already holds what `seed` writes. */
+  async function onPhone(seed: (box: Outbox) => Promise<void>, online = true) {
+    freshDeviceStorage();
+    const box = await Outbox.open();
+    await seed(box);
+    box.close();
+    const set = setUp(TOMAS_ME, false);
+    setOnline(online);
+    return set;
+  }
+  const text = (el: HTMLElement, sel: string) => el.querySelector(sel)?.textContent?.replace(/\s+/g, ' ').trim();
+
+  it('when the network gives no answer and the phone kept the day, then the kept jobs show "as of" their time on the farm clock, with no error', async () => {
+    // 11:12 UTC on 15 May is 06:12 in Chicago: Central Daylight Time is UTC−5 (IANA time zone database, America/Chicago).
+    const { fixture, http, el } = await onPhone((box) =>
+      box.keepSheet('2:1:/api/run-sheet?date=2031-05-15', day([job({ id: 7 })]), new Date('2031-05-15T11:12:00Z')),
+    );
+    fixture.detectChanges();
+    http.expectOne('/api/run-sheet?date=2031-05-15').error(new ProgressEvent('error'), { status: 0, statusText: '' });
+    await until(
+      () => el.querySelector('[data-as-of]') !== null,
+      'the kept sheet',
+      () => fixture.detectChanges(),
+    );
+    expect(text(el, '[data-as-of] span')).toBe('No connection: the run sheet kept on this phone, as of 06:12.');
+    expect(el.querySelector('[data-job="7"]')).not.toBeNull();
+    expect(el.querySelector('.load-error')).toBeNull();
+    http.verify();
+  });
+
+  it('when the network answers, then the day is kept on the phone for next time', async () => {
+    const { fixture, http } = setUp(TOMAS_ME);
+    fixture.detectChanges();
+    http.expectOne('/api/run-sheet?date=2031-05-15').flush(day([job({ id: 7 })]));
+    await fixture.whenStable();
+    const box = await Outbox.open();
+    let kept: Awaited<ReturnType<Outbox['keptSheet']>>;
+    await until(
+      () => kept !== undefined,
+      'the kept copy',
+      () => void box.keptSheet('2:1:/api/run-sheet?date=2031-05-15').then((k) => (kept = k)),
+    );
+    expect(kept!.sheet.assignments.map((a) => a.id)).toEqual([7]);
+    box.close();
+  });
+
+  it('when the sheet opened without a day, then the days after it are kept too and open with no signal', async () => {
+    const { fixture, http, el } = setUp(TOMAS_ME);
+    fixture.componentRef.setInput('date', undefined);
+    fixture.detectChanges();
+    http.expectOne('/api/run-sheet').flush(day([job({ id: 7 })]));
+    await fixture.whenStable();
+    const asked = await answerAhead(http, '2031-05-15');
+    fixture.componentRef.setInput('date', asked[1]);
+    TestBed.tick();
+    // Wait until the last day read is kept, then ask for one of them with no signal.
+    const box = await Outbox.open();
+    let keptLast = false;
+    await until(
+      () => keptLast,
+      'the last day kept',
+      () => void box.keptSheet(`2:1:/api/run-sheet?date=${asked[2]}`).then((k) => (keptLast = !!k)),
+    );
+    box.close();
+    http.expectOne(`/api/run-sheet?date=${asked[1]}`).error(new ProgressEvent('error'), { status: 0, statusText: '' });
+    await until(
+      () => el.querySelector('[data-as-of]') !== null,
+      'the kept day',
+      () => fixture.detectChanges(),
+    );
+    expect(el.querySelector('.load-error')).toBeNull();
+    expect(el.querySelector('.who')?.textContent).toContain('Saturday, May 17, 2031');
+    http.verify();
+  });
+
+  it('when two actions wait with no signal, then the sheet says "Offline — 2 actions waiting" and marks their job as not sent', async () => {
+    const tomas = { userId: 2, farmId: 1, name: 'Tomas Reyes' };
+    const { fixture, http, el } = await onPhone(async (box) => {
+      await box.add(tomas, 7, { type: 'start', engineHours: 4211 }, new Date('2031-05-15T13:00:00Z'));
+      await box.add(tomas, 7, { type: 'finish', acres: 150, engineHours: 4218.4 }, new Date('2031-05-15T18:40:00Z'));
+    }, false);
+    fixture.detectChanges();
+    http.expectOne('/api/run-sheet?date=2031-05-15').flush(day([job({ id: 7 }), job({ id: 8 })]));
+    await until(
+      () => el.querySelector('[data-sync]') !== null,
+      'the sync line',
+      () => fixture.detectChanges(),
+    );
+    expect(text(el, '[data-sync] span')).toBe('Offline — 2 actions waiting');
+    expect(el.querySelector('[data-job="7"] .job-sub [data-unsent]')?.textContent?.trim()).toBe('not sent yet');
+    expect(el.querySelector('[data-job="8"] .job-sub [data-unsent]')).toBeNull();
+  });
+
+  it('when the signal returns while a read of the day is on its way, then the day is read again after the outbox is answered and the job shows the server state, not the older answer', async () => {
+    const tomas = { userId: 2, farmId: 1, name: 'Tomas Reyes' };
+    const { fixture, http, el } = await onPhone(async (box) => {
+      await box.add(tomas, 7, { type: 'start', engineHours: 4211 }, new Date('2031-05-15T13:00:00Z'));
+    }, false);
+    const url = '/api/run-sheet?date=2031-05-15';
+    fixture.detectChanges();
+    http.expectOne(url).flush(day([job({ id: 7, state: 'planned' })]));
+    await until(
+      () => text(el, '[data-sync] span') === 'Offline — 1 action waiting',
+      'the waiting action',
+      () => fixture.detectChanges(),
+    );
+    // The signal returns: the page reads the day again and the outbox sends, at the same moment.
+    setOnline(true);
+    window.dispatchEvent(new Event('online'));
+    fixture.detectChanges();
+    const early = http.expectOne(url);
+    let post: TestRequest | undefined;
+    await until(() => (post = http.match('/api/run-sheet/outbox')[0]) !== undefined, 'the start sent');
+    const [sent] = post!.request.body.events;
+    post!.flush({
+      results: [
+        {
+          clientEventId: sent.clientEventId,
+          assignmentId: 7,
+          status: 201,
+          body: { clientEventId: sent.clientEventId, id: 7, state: 'underway', eventId: 90 },
+        },
+      ],
+    });
+    await until(
+      () => text(el, '[data-sync] span')?.startsWith('All sent') === true,
+      'all sent',
+      () => fixture.detectChanges(),
+    );
+    // The read that left before the start was applied is dropped for one made after the answer.
+    let late: TestRequest | undefined;
+    await until(
+      () => (late = http.match(url)[0]) !== undefined,
+      'the day read after the answer',
+      () => fixture.detectChanges(),
+    );
+    expect(early.cancelled).toBe(true);
+    // The jobs stay on screen while the day is read again.
+    fixture.detectChanges();
+    expect(el.querySelector('[data-job="7"]')).not.toBeNull();
+    late!.flush(day([job({ id: 7, state: 'underway' })]));
+    await until(
+      () => el.querySelector('[data-job="7"] .state')?.getAttribute('data-state') === 'underway',
+      'the server state',
+      () => fixture.detectChanges(),
+    );
+    expect(el.querySelector('[data-job="7"] [data-action="start"]')).toBeNull();
+    expect(el.querySelector('[data-job="7"] [data-action="pause"]')).not.toBeNull();
+    http.verify();
+  });
+
+  it("when another person's actions wait on this phone, then they are not sent and the sheet says whose they are", async () => {
+    const { fixture, http, el } = await onPhone(async (box) => {
+      await box.add({ userId: 5, farmId: 1, name: 'Milo Sorensen' }, 9, { type: 'start' }, new Date('2031-05-15T13:00:00Z'));
+    });
+    fixture.detectChanges();
+    http.expectOne('/api/run-sheet?date=2031-05-15').flush(day([]));
+    await until(
+      () => el.querySelector('[data-others]') !== null,
+      'the line for the other person',
+      () => fixture.detectChanges(),
+    );
+    expect(text(el, '[data-others] span')).toBe(
+      '1 action tapped by Milo Sorensen waits on this device. It is sent only when that person signs in here again.',
+    );
+    http.expectNone('/api/assignments/9/events');
+    http.expectNone('/api/run-sheet/outbox');
   });
 });
 

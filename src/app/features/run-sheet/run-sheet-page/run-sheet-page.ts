@@ -1,5 +1,16 @@
 import { httpResource } from '@angular/common/http';
-import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  DestroyRef,
+  computed,
+  effect,
+  inject,
+  input,
+  linkedSignal,
+  signal,
+  untracked,
+} from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { provideNativeDateAdapter } from '@angular/material/core';
 import { type MatDatepickerInputEvent, MatDatepickerModule } from '@angular/material/datepicker';
@@ -10,6 +21,7 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { Router } from '@angular/router';
+import { farmTime } from '@shared/farm-time';
 import { OPERATION_INFO } from '@shared/operations';
 import { STATE_LABELS } from '@shared/schemas/jobs';
 import type { RunSheet, RunSheetItem } from '@shared/schemas/run-sheet';
@@ -17,7 +29,9 @@ import type { CrewMember } from '@shared/schemas/fleet';
 import { messageOf } from '../../../core/http/api-error';
 import { addDays, dateOf, isIsoDay, isoDay, longDay, today } from '../../board/board-day';
 import { RunSheetJob } from '../run-sheet-job/run-sheet-job';
+import { JobCoverageMap } from '../../../shared/map/job-coverage/job-coverage';
 import { runSheetUrl } from '../run-sheet-api';
+import { OutboxStore } from '../outbox-store';
 import { AuthStore } from '../../../core/auth/auth-store';
 import { API } from '../../../core/http/api-paths';
 
@@ -41,7 +55,9 @@ export function firstOpen(items: readonly RunSheetItem[]): number | null {
 /**
  * The signed-in person's run sheet for a day (today unless `?date=` says otherwise): their jobs in
  * running order, each opening to its map, hazards, cautions, pass plan and the buttons to log it.
- * The owner can open anyone's (`?person=`), to log for someone who phoned the work in.
+ * The owner can open anyone's (`?person=`), to log for someone who phoned the work in. Each sheet
+ * the network gives is kept on the device; with no answer the kept copy shows, "as of" its time.
+ * The outbox's state shows on top, and a job with actions not yet sent is marked.
  */
 @Component({
   selector: 'app-run-sheet-page',
@@ -56,6 +72,7 @@ export function firstOpen(items: readonly RunSheetItem[]): number | null {
     MatProgressBarModule,
     MatSelectModule,
     RunSheetJob,
+    JobCoverageMap,
   ],
   providers: [provideNativeDateAdapter()],
   templateUrl: './run-sheet-page.html',
@@ -64,6 +81,7 @@ export function firstOpen(items: readonly RunSheetItem[]): number | null {
 export class RunSheetPage {
   private readonly router = inject(Router);
   private readonly auth = inject(AuthStore);
+  protected readonly outbox = inject(OutboxStore);
 
   /** `?date=YYYY-MM-DD` from the address. */
   readonly date = input<string | undefined>();
@@ -73,10 +91,7 @@ export class RunSheetPage {
     const asked = this.date();
     return isIsoDay(asked) ? asked : null;
   });
-  protected readonly day = computed(() => {
-    const shown = this.sheet.hasValue() ? this.sheet.value()?.date : undefined;
-    return this.asked() ?? shown ?? today(this.auth.farm()?.timeZone);
-  });
+  protected readonly day = computed(() => this.asked() ?? this.shown()?.date ?? today(this.auth.farm()?.timeZone));
   protected readonly dayDate = computed(() => dateOf(this.day()));
   protected readonly dayLabel = computed(() => longDay(this.day()));
 
@@ -88,10 +103,54 @@ export class RunSheetPage {
     const id = Number(this.person());
     return this.auth.isOwner() && Number.isInteger(id) && id > 0 && id !== this.auth.me()?.membershipId ? id : null;
   });
-  protected readonly sheet = httpResource<RunSheet>(() => runSheetUrl(this.asked(), this.personId()));
+  /** The sheet's address: a day (or the day the server picks) of a person. */
+  private readonly address = computed(() => runSheetUrl(this.asked(), this.personId()));
+  /**
+   * Grows each time the day must be read again (the outbox's answers, the connection back). A new
+   * read replaces one still on its way: that one may have left before the server applied what the
+   * outbox sent, and `reload()` would be ignored while it runs, leaving its older answer on screen.
+   */
+  private readonly readAgain = signal(0);
+  protected readonly sheet = httpResource<RunSheet>(() => {
+    this.readAgain();
+    return this.address();
+  });
+  /** The copy kept on this device for the address, read when the network gives no sheet. */
+  private readonly kept = signal<{ address: string; sheet: RunSheet; savedAt: string } | null>(null);
+  /**
+   * The sheet shown: the network's, else the device's copy of the same address. While the same
+   * address is read again, what was shown stays (no blank page between the two answers).
+   */
+  protected readonly shown = linkedSignal<
+    { address: string; network: RunSheet | null; error: boolean; loading: boolean; kept: RunSheet | null },
+    RunSheet | null
+  >({
+    source: () => {
+      const address = this.address();
+      const kept = this.kept();
+      return {
+        address,
+        network: this.sheet.hasValue() ? (this.sheet.value() ?? null) : null,
+        error: this.sheet.error() !== undefined,
+        loading: this.sheet.isLoading(),
+        kept: kept?.address === address ? kept.sheet : null,
+      };
+    },
+    computation: (now, before) => {
+      if (now.network) return now.network;
+      if (now.error) return now.kept;
+      return now.loading && before?.source.address === now.address ? before.value : null;
+    },
+  });
+  /** "as of 06:12" (the farm's clock) when the sheet shown is the device's copy. */
+  protected readonly asOf = computed(() => {
+    const kept = this.kept();
+    if (!kept || this.shown() !== kept.sheet) return null;
+    return `as of ${farmTime(kept.savedAt, this.auth.farm()?.timeZone, 'clock')}`;
+  });
   /** Why this day shows when the person did not ask for one: "No work today; showing Thursday, April 16, the next day with work". */
   protected readonly openedNote = computed(() => {
-    const s = this.sheet.hasValue() ? this.sheet.value() : null;
+    const s = this.shown();
     if (!s || this.sheet.isLoading()) return null;
     const whose = this.personId() === null ? '' : ` for ${s.person.name}`;
     if (s.opened === 'next-day-with-work') return `No work today${whose}; showing ${shortDay(s.date)}, the next day with work.`;
@@ -112,18 +171,51 @@ export class RunSheetPage {
   /** The name of the person whose sheet the owner has open, when it is not their own. */
   protected readonly otherName = computed(() => {
     if (this.personId() === null) return null;
-    const s = this.sheet.hasValue() ? this.sheet.value() : null;
+    const s = this.shown();
     return s?.person.name ?? this.people().find((p) => p.membershipId === this.personId())?.name ?? null;
   });
   protected readonly items = computed(() =>
-    this.sheet.hasValue() && this.sheet.value()
-      ? [...this.sheet.value()!.assignments].sort((a, b) => a.startTime.localeCompare(b.startTime) || a.order - b.order || a.id - b.id)
-      : [],
+    [...(this.shown()?.assignments ?? [])].sort((a, b) => a.startTime.localeCompare(b.startTime) || a.order - b.order || a.id - b.id),
   );
   protected readonly loadError = computed(() => {
     const error = this.sheet.error();
-    return error ? messageOf(error) : null;
+    return error && !this.shown() ? messageOf(error) : null;
   });
+
+  constructor() {
+    // Whatever the network gives is kept on the device for the next time there is none.
+    // The person's own sheet opened without a day (the one the navigation opens): the days after
+    // it are read and kept as well.
+    effect(() => {
+      const value = this.sheet.hasValue() && !this.sheet.isLoading() ? this.sheet.value() : null;
+      const address = this.address();
+      const ownDefault = this.asked() === null && this.personId() === null;
+      if (value)
+        untracked(() => void this.outbox.keepSheet(address, value).then(() => (ownDefault ? this.outbox.keepAhead(value) : undefined)));
+    });
+    // No answer: the device's copy of the same address, if it has one.
+    effect(() => {
+      const failed = this.sheet.error();
+      const address = this.address();
+      if (failed)
+        untracked(
+          () => void this.outbox.keptSheet(address).then((k) => k && this.address() === address && this.kept.set({ address, ...k })),
+        );
+    });
+    // The server answered actions from the outbox: read the day again (once per run of sends).
+    let answered = this.outbox.answered();
+    effect(() => {
+      const now = this.outbox.answered();
+      if (now !== answered) {
+        answered = now;
+        untracked(() => this.readAgain.update((n) => n + 1));
+      }
+    });
+    // The connection is back: the day may have changed meanwhile.
+    const online = () => this.readAgain.update((n) => n + 1);
+    window.addEventListener('online', online);
+    inject(DestroyRef).onDestroy(() => window.removeEventListener('online', online));
+  }
   private readonly chosen = signal<{ day: string; id: number | null } | null>(null);
   protected readonly openId = computed(() => {
     const chosen = this.chosen();
@@ -159,9 +251,5 @@ export class RunSheetPage {
 
   protected picked(event: MatDatepickerInputEvent<Date>): void {
     if (event.value) this.goTo(isoDay(event.value));
-  }
-
-  protected replace(item: RunSheetItem): void {
-    this.sheet.update((sheet) => (sheet ? { ...sheet, assignments: sheet.assignments.map((a) => (a.id === item.id ? item : a)) } : sheet));
   }
 }

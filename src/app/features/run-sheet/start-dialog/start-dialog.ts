@@ -5,9 +5,11 @@ import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/materia
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import type { RunSheetItem } from '@shared/schemas/run-sheet';
+import { from } from 'rxjs';
 import { startDefaults } from '../job-actions';
-import { RunSheetApi } from '../run-sheet-api';
-import { sendFailure } from '../send-failure';
+import { OutboxStore } from '../outbox-store';
+import { retryMessage } from '../send-failure';
+import type { FormFields } from '../../../shared/forms/field-labels';
 import { FormSubmission } from '../../../shared/forms/form-submission';
 
 export interface JobDialogData {
@@ -16,7 +18,13 @@ export interface JobDialogData {
   at: string;
 }
 
-/** Start a job: the engine-hour meter reading, prefilled with the machine's last known reading. */
+/** Each key of a start's API body and the box it is typed in, by its label. */
+export const START_FIELDS: FormFields = {
+  engineHours: { control: 'engineHours', label: 'Engine hours at the start' },
+  at: { control: 'at', label: 'Time of the tap' },
+};
+
+/** Start a job: the engine-hour meter reading, prefilled with the machine's last known reading; kept in the outbox, then sent. */
 @Component({
   selector: 'app-start-dialog',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -25,8 +33,8 @@ export interface JobDialogData {
   styleUrl: '../job-dialog.scss',
 })
 export class StartDialog {
-  private readonly api = inject(RunSheetApi);
-  private readonly ref = inject<MatDialogRef<StartDialog, RunSheetItem>>(MatDialogRef);
+  private readonly outbox = inject(OutboxStore);
+  private readonly ref = inject<MatDialogRef<StartDialog>>(MatDialogRef);
   protected readonly data = inject<JobDialogData>(MAT_DIALOG_DATA);
 
   protected readonly form = new FormGroup({
@@ -36,15 +44,15 @@ export class StartDialog {
       Validators.max(200_000),
     ]),
   });
-  private readonly submission = new FormSubmission(this.form, (err, form) => sendFailure(err, 'Start', form));
+  private readonly submission = new FormSubmission(this.form, START_FIELDS, (err) => retryMessage(err, 'Start'));
   protected readonly busy = this.submission.busy;
   protected readonly error = this.submission.error;
+  protected readonly blocked = this.submission.blocked;
 
   protected submit(): void {
     if (!this.submission.ready()) return;
-    this.submission.send(
-      this.api.event(this.data.item.id, { type: 'start', engineHours: this.form.getRawValue().engineHours!, at: this.data.at }),
-      (item) => this.ref.close(item),
-    );
+    // Written to the phone's outbox with the tap time; the dialog closes and sending follows.
+    const action = { type: 'start' as const, engineHours: this.form.getRawValue().engineHours! };
+    this.submission.send(from(this.outbox.tap(this.data.item.id, action, new Date(this.data.at))), (entry) => this.ref.close(entry));
   }
 }
