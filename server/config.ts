@@ -24,6 +24,12 @@ const schema = z
     FAKE_WEATHER_PORT: z.coerce.number().int().min(0).max(65535).default(0),
     /** The local fake's scenario: calm, windy-afternoon, rain-tomorrow, cold-morning or calm-clear-evening. */
     FAKE_WEATHER_SCENARIO: z.string().default('calm'),
+    /** The payment service's secret API key (sk_live_… / sk_test_…). Unset: a local fake payment server answers. */
+    STRIPE_SECRET_KEY: z.string().min(1).optional(),
+    /** The payment service's webhook signing secret (whsec_…); required with STRIPE_SECRET_KEY. */
+    STRIPE_WEBHOOK_SECRET: z.string().min(1).optional(),
+    /** Port of the local fake payment server when STRIPE_SECRET_KEY is unset (0: any free port). */
+    FAKE_PAYMENTS_PORT: z.coerce.number().int().min(0).max(65535).default(0),
     /** Optional map background: a tile URL template and its attribution. No tiles by default. */
     MAP_TILE_URL: z.string().optional(),
     MAP_TILE_ATTRIBUTION: z.string().optional(),
@@ -36,6 +42,13 @@ const schema = z
     LOG_LEVEL: z.enum(LOG_LEVELS, { message: `LOG_LEVEL must be one of ${LOG_LEVELS.join(', ')}` }).optional(),
   })
   .superRefine((c, ctx) => {
+    if (c.STRIPE_SECRET_KEY && !c.STRIPE_WEBHOOK_SECRET) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['STRIPE_WEBHOOK_SECRET'],
+        message: 'STRIPE_WEBHOOK_SECRET is required when STRIPE_SECRET_KEY is set',
+      });
+    }
     if (c.NODE_ENV === 'production' && !c.SESSION_SECRET) {
       ctx.addIssue({ code: 'custom', path: ['SESSION_SECRET'], message: 'SESSION_SECRET is required in production' });
     }
@@ -59,6 +72,10 @@ export interface Config {
   weatherUrl: string | null;
   fakeWeatherPort: number;
   fakeWeatherScenario: string;
+  /** Null: the local fake payment server (on `fakePaymentsPort`). */
+  paymentSecretKey: string | null;
+  paymentWebhookSecret: string | null;
+  fakePaymentsPort: number;
   mapTileUrl: string | null;
   mapTileAttribution: string | null;
   trustProxy: boolean;
@@ -91,6 +108,9 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     weatherUrl: c.WEATHER_URL ?? null,
     fakeWeatherPort: c.FAKE_WEATHER_PORT,
     fakeWeatherScenario: c.FAKE_WEATHER_SCENARIO,
+    paymentSecretKey: c.STRIPE_SECRET_KEY ?? null,
+    paymentWebhookSecret: c.STRIPE_WEBHOOK_SECRET ?? null,
+    fakePaymentsPort: c.FAKE_PAYMENTS_PORT,
     mapTileUrl: c.MAP_TILE_URL ?? null,
     mapTileAttribution: c.MAP_TILE_ATTRIBUTION ?? null,
     trustProxy: c.TRUST_PROXY === '1',

@@ -9,6 +9,8 @@ import { createDb } from './db/knex';
 import { createSessionStore } from './http/session';
 import { createLogger, type Logger } from './logging/logger';
 import { FakeMailServer } from './mail/fake-smtp';
+import { FakePaymentServer } from './payments/fake-payments';
+import { createPaymentService } from './payments/payments.client';
 import { MailWorker } from './mail/mail-worker';
 import { createTransport } from './mail/transport';
 import { projectRoot } from './paths';
@@ -57,6 +59,20 @@ async function startFakeWeather(config: Config, log: Logger): Promise<FakeForeca
   return fake;
 }
 
+/**
+ * Starts the local fake payment server when no payment service is configured. Its events go to
+ * this server's webhook on loopback, signed as the service signs them.
+ */
+async function startFakePayments(config: Config, log: Logger): Promise<FakePaymentServer | null> {
+  if (config.paymentSecretKey) return null;
+  const fake = new FakePaymentServer();
+  await fake.start(config.fakePaymentsPort);
+  const host = config.host === '0.0.0.0' || config.host === '::' ? '127.0.0.1' : config.host;
+  fake.webhookUrl = `http://${host}:${config.port}/api/payments/webhook`;
+  log.info({ port: fake.port }, 'local fake payment server started (STRIPE_SECRET_KEY is unset)');
+  return fake;
+}
+
 /** The forecast endpoint: WEATHER_URL, or the local fake's on FAKE_WEATHER_PORT. */
 const weatherUrlOf = (config: Config, fake: FakeForecastServer | null): string =>
   config.weatherUrl ?? `http://127.0.0.1:${fake?.port ?? config.fakeWeatherPort}/v1/forecast`;
@@ -66,9 +82,11 @@ async function primary(config: Config, log: Logger): Promise<void> {
   new ClusterMemoryStorePrimary().init();
   const fakeMail = await startFakeMail(config);
   const fakeWeather = await startFakeWeather(config, log);
+  const fakePayments = await startFakePayments(config, log);
   const env = {
     FAKE_SMTP_PORT: String(fakeMail?.port ?? config.fakeSmtpPort),
     FAKE_WEATHER_PORT: String(fakeWeather?.port ?? config.fakeWeatherPort),
+    FAKE_PAYMENTS_PORT: String(fakePayments?.port ?? config.fakePaymentsPort),
   };
   let stopping = false;
   let listening = 0;
@@ -114,6 +132,7 @@ async function primary(config: Config, log: Logger): Promise<void> {
     );
     await fakeMail?.stop().catch(() => undefined);
     await fakeWeather?.stop().catch(() => undefined);
+    await fakePayments?.stop().catch(() => undefined);
     log.info({ exitCode: code }, 'stopped');
     process.exit(code);
   };
@@ -128,6 +147,7 @@ async function serve(config: Config, log: Logger, { background, single }: { back
   const sessions = createSessionStore(config.databaseUrl);
   const fakeMail = single ? await startFakeMail(config) : null;
   const fakeWeather = single ? await startFakeWeather(config, log) : null;
+  const fakePayments = single ? await startFakePayments(config, log) : null;
 
   let boss: PgBoss | null = null;
   let mail: MailWorker | null = null;
@@ -155,7 +175,8 @@ async function serve(config: Config, log: Logger, { background, single }: { back
     weather.start();
   }
 
-  const app = createApp({ config, db, sessions, nudgeMail: () => mail?.nudge(), logger: log });
+  const payments = createPaymentService({ ...config, fakePaymentsPort: fakePayments?.port ?? config.fakePaymentsPort });
+  const app = createApp({ config, db, sessions, payments, nudgeMail: () => mail?.nudge(), logger: log });
   const server = app.listen(config.port, config.host, () => {
     if (single) sayListening(config, 1);
     else log.info({ background }, 'server process listening');
@@ -181,6 +202,7 @@ async function serve(config: Config, log: Logger, { background, single }: { back
       ['the background job upkeep', async () => boss?.stop({ graceful: false, wait: true })],
       ['the fake mail server', async () => fakeMail?.stop()],
       ['the fake forecast server', async () => fakeWeather?.stop()],
+      ['the fake payment server', async () => fakePayments?.stop()],
       ['the sessions pool', () => sessions.close()],
       ['the database pool', () => db.destroy()],
     ] as const) {

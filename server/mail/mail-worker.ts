@@ -5,7 +5,7 @@ import { jobQueue, sqlOn, type JobData } from '../background/queue';
 import type { Db } from '../db/knex';
 import { logMessage } from '../http/errors';
 import { silentLogger, type Logger } from '../logging/logger';
-import { mailById, markAttempt, markSent } from './outbox.repository';
+import { attachmentsOf, mailById, markAttempt, markSent } from './outbox.repository';
 
 export interface MailWorkerOptions {
   from: string;
@@ -140,6 +140,7 @@ export class MailWorker {
       await this.boss.complete('mail', job.id);
       return false;
     }
+    const attachments = await attachmentsOf(this.db, mail.id);
     try {
       await this.transport.sendMail({
         from: this.options.from,
@@ -147,6 +148,7 @@ export class MailWorker {
         subject: mail.subject,
         text: mail.text_body,
         html: mail.html_body ?? undefined,
+        ...(attachments.length ? { attachments } : {}),
       });
     } catch (err) {
       const e = err as { responseCode?: number; message?: string };

@@ -10,6 +10,14 @@ export interface OutgoingMail {
   subject: string;
   text: string;
   html?: string | null;
+  /** Files sent with the message (an invoice's PDF), kept with it so every attempt sends the same bytes. */
+  attachments?: MailAttachment[];
+}
+
+export interface MailAttachment {
+  filename: string;
+  contentType: string;
+  content: Buffer;
 }
 
 /**
@@ -29,11 +37,27 @@ export async function enqueueMail(db: Tx, mail: OutgoingMail): Promise<number> {
       html_body: mail.html ?? null,
     })
     .returning('id');
+  if (mail.attachments?.length)
+    await db('mail_attachments').insert(
+      mail.attachments.map((a) => ({ mail_id: row.id, filename: a.filename, content_type: a.contentType, content: a.content })),
+    );
   await enqueue(db, 'mail', { mailId: row.id, farmId: mail.farmId, kind: mail.kind });
   return row.id;
 }
 
 export const mailById = (db: Tx, id: number): Promise<DbMailRow | undefined> => db<DbMailRow>('mail_outbox').where({ id }).first();
+
+export async function attachmentsOf(db: Tx, mailId: number): Promise<MailAttachment[]> {
+  const rows = (await db('mail_attachments')
+    .where({ mail_id: mailId })
+    .orderBy('id')
+    .select('filename', 'content_type', 'content')) as Array<{
+    filename: string;
+    content_type: string;
+    content: Buffer;
+  }>;
+  return rows.map((r) => ({ filename: r.filename, contentType: r.content_type, content: r.content }));
+}
 
 /** The mail server took the message. */
 export async function markSent(db: Tx, id: number, attempts: number): Promise<void> {

@@ -1,0 +1,17 @@
+import { ChangeDetectionStrategy, Component } from '@angular/core';
+
+/**
+ * Where the payment service sends a customer after paying an invoice. The customer is not a member
+ * of the farm: the page only thanks them; the invoice is marked paid by the service's webhook.
+ */
+@Component({
+  selector: 'app-paid-page',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  template: `
+    <main class="page">
+      <h1>Thank you: the payment went through</h1>
+      <p>The farm is told by the payment service and marks the invoice paid. You can close this page.</p>
+    </main>
+  `,
+})
+export class PaidPage {}
