@@ -9,4 +9,5 @@ module.exports = {
   transformIgnorePatterns: ['/node_modules/(?!(jsts|fast-check|shpjs|@turf)/)'],
   moduleFileExtensions: ['ts', 'js', 'mjs', 'json'],
   testTimeout: 90000,
+  testSequencer: '<rootDir>/tests/browser/sequencer.js',
 };

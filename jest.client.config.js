@@ -7,6 +7,8 @@ module.exports = {
   displayName: 'client',
   rootDir: __dirname,
   testEnvironment: 'jsdom',
+  // Map specs draw with Leaflet under jsdom; on a busy two-core machine 5 s was not always enough.
+  testTimeout: 15000,
   testMatch: ['<rootDir>/src/**/*.spec.ts'],
   setupFilesAfterEnv: ['<rootDir>/src/test-setup.ts'],
   moduleNameMapper: {

@@ -9,6 +9,10 @@ const benches = [
   ['limits', ['--import', 'tsx', 'scripts/bench-limits.ts']],
   ['request log', ['--import', 'tsx', 'scripts/bench-request-log.ts']],
   ['weather', ['--import', 'tsx', 'scripts/bench-weather.ts']],
+  ['offline', ['--import', 'tsx', 'scripts/bench-offline.ts']],
+  ['offline-open', ['--import', 'tsx', 'scripts/bench-offline-open.ts']],
+  ['taskdata', ['--import', 'tsx', 'scripts/bench-taskdata.ts']],
+  ['coverage', ['--import', 'tsx', 'scripts/bench-coverage.ts']],
 ];
 const only = process.argv.slice(2);
 

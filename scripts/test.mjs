@@ -3,7 +3,7 @@
 import { spawnSync } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
-import { LocalCluster, ensureChromium, ensureNodeModules, intEnv, log, root, run } from './lib/setup.mjs';
+import { LocalCluster, ensureChromium, ensureNodeModules, ensureXmllint, intEnv, log, root, run } from './lib/setup.mjs';
 
 const only = process.argv.slice(2); // e.g. `npm test -- api browser` runs just those steps
 const want = (step) => only.length === 0 || only.includes(step);
@@ -12,6 +12,7 @@ fs.mkdirSync(artifacts, { recursive: true });
 
 ensureNodeModules();
 if (want('browser')) ensureChromium();
+if (want('api')) ensureXmllint();
 // The test cluster and its fresh databases, for the steps that use them (all of them when no
 // step is named). `npm test -- faults` alone leaves the test cluster untouched.
 const needsTestDb = want('api') || want('browser');

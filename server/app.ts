@@ -4,6 +4,8 @@ import cookieParser from 'cookie-parser';
 import express, { type Express } from 'express';
 import session from 'express-session';
 import type { AppDeps } from './app-deps';
+import { trackCoverageRoutes } from './track-coverage/coverage.routes';
+import { phoneTrackRoutes } from './phone-track/phone-track.routes';
 import { authRoutes } from './auth/auth.routes';
 import { backgroundRoutes } from './background/background.routes';
 import { sharedComputePool, type ComputePool } from './compute/pool';
@@ -21,6 +23,7 @@ import { cropPlanRoutes, fieldRoutes } from './fields/fields.routes';
 import { memberRoutes } from './members/members.routes';
 import { planRoutes } from './plans/plans.routes';
 import { assignmentRoutes, boardRoutes } from './board/board.routes';
+import { boardTaskDataRoutes, jobTaskDataRoutes } from './taskdata/taskdata.routes';
 import { crewRoutes } from './crew/crew.routes';
 import { fleetRoutes } from './fleet/fleet.routes';
 import { jobLogRoutes, runSheetRoutes } from './run-sheet/run-sheet.routes';
@@ -28,9 +31,17 @@ import { reportRoutes } from './reports/reports.routes';
 import { seasonRoutes } from './season/season.routes';
 import { openapiRoutes } from './openapi/openapi.routes';
 import { weatherRoutes } from './weather/weather.routes';
+import { createPaymentService, type PaymentService } from './payments/payments.client';
+import { paymentWebhookRoutes } from './payments/payments.routes';
+import { costRoutes } from './costs/costs.routes';
+import { customerRoutes, fieldCustomerRoutes } from './customers/customers.routes';
+import { rateCardRoutes } from './rate-card/rate-card.routes';
+import { invoiceRoutes } from './invoices/invoices.routes';
 import { projectRoot } from './paths';
 
-export interface CreateAppOptions extends Omit<AppDeps, 'compute'> {
+export interface CreateAppOptions extends Omit<AppDeps, 'compute' | 'payments'> {
+  /** Defaults to the service (or the local fake) the configuration names. */
+  payments?: PaymentService;
   /** Defaults to the process's shared compute pool. */
   compute?: ComputePool;
   sessions: SessionStore;
@@ -43,6 +54,7 @@ export function createApp(options: CreateAppOptions): Express {
   const deps: CreateAppOptions & AppDeps = {
     ...options,
     compute: options.compute ?? sharedComputePool({ timeLimitMs: options.config.computeTimeLimitMs }),
+    payments: options.payments ?? createPaymentService(options.config),
   };
   const { config } = deps;
   const app = express();
@@ -53,6 +65,12 @@ export function createApp(options: CreateAppOptions): Express {
   app.use(requestLogger(deps.logger ?? createLogger(config)));
   if (config.trustProxy) app.set('trust proxy', 1);
   app.use(securityHeaders(config.secureCookies, config.mapTileUrl));
+
+  // The payment service's webhook reads its body raw (its signature covers the exact bytes) and
+  // carries no session or CSRF token: the signature is its authentication. So it comes first.
+  const hooks = new Routes('/api/payments', routes);
+  paymentWebhookRoutes(hooks, deps);
+  app.use('/api/payments', hooks.router);
 
   const api = express.Router();
   api.use(express.json({ limit: '1mb' }));
@@ -88,12 +106,21 @@ export function createApp(options: CreateAppOptions): Express {
   mount('/fleet', (r) => fleetRoutes(r, deps));
   mount('/crew', (r) => crewRoutes(r, deps));
   mount('/board', (r) => boardRoutes(r, deps));
+  mount('/board', (r) => boardTaskDataRoutes(r, deps));
   mount('/assignments', (r) => assignmentRoutes(r, deps));
   mount('/assignments', (r) => jobLogRoutes(r, deps));
+  mount('/assignments', (r) => jobTaskDataRoutes(r, deps));
+  mount('/assignments', (r) => trackCoverageRoutes(r, deps));
+  mount('/assignments', (r) => phoneTrackRoutes(r, deps));
   mount('/run-sheet', (r) => runSheetRoutes(r, deps));
   mount('/reports', (r) => reportRoutes(r, deps));
   mount('/season', (r) => seasonRoutes(r, deps));
   mount('/weather', (r) => weatherRoutes(r, deps));
+  mount('/costs', (r) => costRoutes(r, deps));
+  mount('/customers', (r) => customerRoutes(r, deps));
+  mount('/fields', (r) => fieldCustomerRoutes(r, deps));
+  mount('/rate-card', (r) => rateCardRoutes(r, deps));
+  mount('/invoices', (r) => invoiceRoutes(r, deps));
   mount('', (r) => openapiRoutes(r, deps));
   api.use(apiNotFound);
   app.use('/api', api);
@@ -103,20 +130,32 @@ export function createApp(options: CreateAppOptions): Express {
   return app;
 }
 
-/** Serves the built app; every other path gets index.html with this request's CSP nonce. */
+/** The service worker's own files: each start of the app asks for them anew, so a new version is found. */
+const SERVICE_WORKER_FILES = new Set(['furlong-sw.js', 'ngsw-worker.js', 'ngsw.json', 'safety-worker.js', 'worker-basic.min.js']);
+
+/**
+ * Serves the built app; every other path gets index.html with this request's CSP nonce.
+ *
+ * `/index.html` itself gets a nonce too: the service worker (ngsw-config.json) keeps its last copy
+ * of the page, with the CSP header it came with, to open the app with no network. Its nonce was
+ * made for one request of this device and is in no shared file (a copy made at build time would
+ * carry the same placeholder for everyone); offline starts on that device reuse it.
+ */
 function serveApp(app: Express, dir: string): void {
   const indexFile = path.join(dir, 'index.html');
   const index = fs.existsSync(indexFile) ? fs.readFileSync(indexFile, 'utf8') : null;
-  app.use(express.static(dir, { index: false, maxAge: '1h', setHeaders: noCacheForIndex }));
-  app.get('/{*splat}', (_req, res) => {
+  const sendIndex: express.RequestHandler = (_req, res) => {
     if (!index) throw new AppError(503, 'not_built', 'The app is not built yet: run npm start');
     res
       .set('Cache-Control', 'no-cache')
       .type('html')
       .send(index.replaceAll('CSP_NONCE', nonceOf(res)));
-  });
+  };
+  app.get('/index.html', sendIndex);
+  app.use(express.static(dir, { index: false, maxAge: '1h', setHeaders: noCacheForIndex }));
+  app.get('/{*splat}', sendIndex);
 }
 
 function noCacheForIndex(res: express.Response, file: string): void {
-  if (file.endsWith('.html')) res.set('Cache-Control', 'no-cache');
+  if (file.endsWith('.html') || SERVICE_WORKER_FILES.has(path.basename(file))) res.set('Cache-Control', 'no-cache');
 }

@@ -111,6 +111,14 @@ export const mpsToMph = (mps: number): number => (mps * HOUR_S) / MILE_M;
 export const kmhToMps = (kmh: number): number => kmh / 3.6;
 
 /**
+ * Metres per second to kilometres per hour.
+ * @param mps speed in metres per second
+ * @returns speed in kilometres per hour
+ * @example mpsToKmh(10) // 36
+ */
+export const mpsToKmh = (mps: number): number => mps * 3.6;
+
+/**
  * Miles per hour to kilometres per hour.
  * @param mph speed in statute miles per hour
  * @returns speed in kilometres per hour

@@ -72,6 +72,11 @@ export function ensureChromium() {
   if (!fs.existsSync('/usr/bin/chromium')) aptInstall(['chromium', 'fonts-liberation']);
 }
 
+/** Debian's xmllint: the API tests validate exported task data against the ISO 11783-10 schemas. */
+export function ensureXmllint() {
+  if (!fs.existsSync('/usr/bin/xmllint')) aptInstall(['libxml2-utils']);
+}
+
 /** A secret kept in .data so that it survives restarts (session keys, database password). */
 export function localSecret(name) {
   fs.mkdirSync(dataDir, { recursive: true, mode: 0o700 });

@@ -1,6 +1,5 @@
-import { effectiveCapacityAcPerH } from '../../shared/plan/field-capacity';
+import { fieldCapacityAcPerH } from '../../shared/plan/field-capacity';
 import { implementDefaults, type ImplementKind } from '../../shared/plan/implement-defaults';
-import { mToFt } from '../../shared/units';
 import { roundTo } from '../../shared/round';
 
 export interface PlanHours {
@@ -29,6 +28,6 @@ export function planHours(
     return { hours: roundTo(planSummaryHours * (acresPlanned / fieldAcres)), source: 'pass-plan' };
   }
   const d = implementDefaults(implement.kind);
-  const capacity = effectiveCapacityAcPerH(mToFt(implement.widthM), d.speedMph, d.efficiency);
+  const capacity = fieldCapacityAcPerH(implement.widthM, d.speedMps, d.efficiency);
   return { hours: roundTo(capacity > 0 ? acresPlanned / capacity : 0), source: 'estimate' };
 }

@@ -45,7 +45,7 @@ export async function publishBoard(deps: AppDeps, by: SessionPrincipal, day: str
         continue;
       }
       const mail = p.content
-        ? workOrderMail(p.content, p.email, by.farmId, p.membershipId)
+        ? workOrderMail(p.content, p.email, by.farmId, p.membershipId, ctx.farm.timeZone)
         : withdrawalMail(
             { name: p.name, farm: ctx.farm.name, date: day, dateLabel: dateLabel(day), link: `${publicUrl}/run-sheet?date=${day}` },
             p.email,

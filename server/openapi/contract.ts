@@ -34,7 +34,31 @@ import {
 } from '../../shared/schemas/fields';
 import { implementBody, implementPatchBody, machineBody, machinePatchBody, skillBody, skillParams } from '../../shared/schemas/fleet';
 import { planListQuery, planParams, planPreviewBody, planSettings } from '../../shared/schemas/plans';
-import { eventBody, logPatchBody, problemBody, runSheetQuery } from '../../shared/schemas/run-sheet';
+import { paymentWebhookAnswer } from '../../shared/schemas/payments';
+import { eventBody, logPatchBody, outboxBody, problemBody, runSheetQuery } from '../../shared/schemas/run-sheet';
+import { trackChunkBody } from '../../shared/schemas/phone-track';
+import { costItemParams, costSettingsAnswer, fuelCostBody, hourlyCostBody } from '../../shared/schemas/costs';
+import {
+  customer,
+  customerBody,
+  customerList,
+  customerPatchBody,
+  fieldCustomerAnswer,
+  fieldCustomerBody,
+} from '../../shared/schemas/customers';
+import { rateBody, rateCard, rateParams } from '../../shared/schemas/rate-card';
+import {
+  invoiceCreditBody,
+  invoiceDetail,
+  invoiceDraftBody,
+  invoiceExportParams,
+  invoiceList,
+  invoiceSettings,
+  invoiceSettingsBody,
+  invoiceVoidBody,
+  paymentList,
+  receivables,
+} from '../../shared/schemas/invoices';
 import { seasonExportParams, seasonIndex, seasonParams, seasonSummary } from '../../shared/schemas/season';
 import { fieldForecast, weatherFieldParams, weatherLimitsAnswer, weatherLimitsBody } from '../../shared/schemas/weather';
 
@@ -329,6 +353,16 @@ export const CONTRACT: Record<string, RouteContract> = {
     boardVersion: 'header',
     responses: [json('What was published and sent.', 'PublishResult')],
   },
+  'GET /api/board/:date/taskdata.zip': {
+    summary: 'Downloads every job of a board day as ISO 11783-10 task data for a tractor terminal.',
+    params: boardDateParam,
+    responses: [{ status: 200, description: 'A zip holding TASKDATA/TASKDATA.XML (task-data version 4).', contentType: 'application/zip' }],
+  },
+  'GET /api/assignments/:id/taskdata.zip': {
+    summary: 'Downloads one job as ISO 11783-10 task data for a tractor terminal.',
+    params: idParam,
+    responses: [{ status: 200, description: 'A zip holding TASKDATA/TASKDATA.XML (task-data version 4).', contentType: 'application/zip' }],
+  },
   'POST /api/assignments': {
     summary: 'Puts a job on the board.',
     body: assignmentCreateBody,
@@ -354,6 +388,36 @@ export const CONTRACT: Record<string, RouteContract> = {
     body: eventBody,
     responses: [json('The job as it shows on the run sheet.', 'RunSheetItem', 201)],
   },
+  'POST /api/assignments/:id/coverage': {
+    summary:
+      'Measures what a track file (GPX, GeoJSON, or an ISO 11783-10 TimeLog in a TASKDATA.zip) covered of the job field and stores it with the job.',
+    params: idParam,
+    upload: { file: 'file', fields: {} },
+    responses: [json('Covered, skipped and twice-worked acres, the skips and where they are.', 'JobCoverage', 201)],
+  },
+  'GET /api/assignments/:id/coverage': {
+    summary: 'A job measured coverage (null until a track is measured) with its field, for the job map.',
+    params: idParam,
+    responses: [json('The job, its field and its coverage.', 'JobCoverageView')],
+  },
+  'POST /api/assignments/:id/track-points': {
+    summary:
+      'Stores a chunk of the phone track the job operator records while the job is underway; the same chunk id sent again adds nothing and gets the same answer.',
+    params: idParam,
+    body: trackChunkBody,
+    responses: [json('The chunk id and the number of its points.', 'TrackChunkAnswer', 201)],
+  },
+  'GET /api/assignments/:id/track-points': {
+    summary: 'The phone track recorded for a job, in the order it was taken (the owner and the job operator).',
+    params: idParam,
+    responses: [json('Every point with its time, position, accuracy, heading and speed.', 'PhoneTrack')],
+  },
+  'POST /api/assignments/:id/coverage/from-phone-track': {
+    summary:
+      'Measures what the job phone track covered (every point while underway counts as working) and stores it with the job, its source "phone track".',
+    params: idParam,
+    responses: [json('Covered, skipped and twice-worked acres, the skips and where they are.', 'JobCoverage', 201)],
+  },
   'POST /api/assignments/:id/problems': {
     summary: 'Reports a problem on a job: a breakdown, a hazard or something else.',
     params: idParam,
@@ -375,6 +439,12 @@ export const CONTRACT: Record<string, RouteContract> = {
     summary: "Gives a person's jobs for a day, in order; without a day, their next day with work.",
     query: runSheetQuery,
     responses: [json('The run sheet.', 'RunSheet')],
+  },
+  'POST /api/run-sheet/outbox': {
+    summary:
+      "Sends a phone's waiting run-sheet actions at once, in tap order, each answered as the single action routes answer it (short answers), exactly once per action id.",
+    body: outboxBody,
+    responses: [json("Each action's status and answer, in the order sent.", 'OutboxAnswer')],
   },
   'GET /api/reports': {
     summary: 'Lists the open reports from the field and the machines a breakdown has put down.',
@@ -418,6 +488,149 @@ export const CONTRACT: Record<string, RouteContract> = {
     summary: "Sets the farm's weather limits per operation.",
     body: weatherLimitsBody,
     responses: [json('The limits after the change.', weatherLimitsAnswer)],
+  },
+
+  // Payments
+  'POST /api/payments/webhook': {
+    summary:
+      "Takes the payment service's events. Public and outside the CSRF check: the Stripe-Signature header, checked with the service's SDK, authenticates it. Each event id is recorded once; a replay answers as the first time and changes nothing.",
+    responses: [json('Received: what was done with the event, and whether it was a replay.', paymentWebhookAnswer)],
+  },
+
+  // Costs of the farm's own work (money: owner and viewers only)
+  'GET /api/costs': {
+    summary:
+      "Gives the farm's fuel price, fuel use per acre per operation with each default's source, and the hourly costs of machines and people.",
+    responses: [json('The rates.', costSettingsAnswer)],
+  },
+  'PUT /api/costs/fuel': {
+    summary: 'Sets the fuel price and the fuel use per acre of each operation.',
+    body: fuelCostBody,
+    responses: [json('The rates after the change.', costSettingsAnswer)],
+  },
+  'PUT /api/costs/machines/:id': {
+    summary: "Sets or clears a machine's hourly cost (ownership and operating, per engine hour).",
+    params: costItemParams,
+    body: hourlyCostBody,
+    responses: [json('The rates after the change.', costSettingsAnswer)],
+  },
+  'PUT /api/costs/people/:id': {
+    summary: "Sets or clears a person's hourly labour cost.",
+    params: costItemParams,
+    body: hourlyCostBody,
+    responses: [json('The rates after the change.', costSettingsAnswer)],
+  },
+
+  // Customers of custom work (owner and viewers read; the owner changes)
+  'GET /api/customers': {
+    summary: 'Lists the customers of custom work with the fields marked as theirs.',
+    responses: [json('The customers.', customerList)],
+  },
+  'POST /api/customers': {
+    summary: 'Adds a customer: name, contact e-mail (invoices go there) and postal address.',
+    body: customerBody,
+    responses: [json('The customer.', customer, 201)],
+  },
+  'GET /api/customers/:id': {
+    summary: 'Gives one customer with their fields.',
+    params: idParam,
+    responses: [json('The customer.', customer)],
+  },
+  'PATCH /api/customers/:id': {
+    summary: "Changes a customer's name, e-mail or address.",
+    params: idParam,
+    body: customerPatchBody,
+    responses: [json('The customer.', customer)],
+  },
+  'DELETE /api/customers/:id': {
+    summary: 'Removes a customer who has no invoices; their fields become the farm’s own.',
+    params: idParam,
+    responses: [noContent('Removed.')],
+  },
+  'PUT /api/fields/:id/customer': {
+    summary: "Marks a field as a customer's (custom work), or the farm's own with null.",
+    params: idParam,
+    body: fieldCustomerBody,
+    responses: [json('Whose field it is now.', fieldCustomerAnswer)],
+  },
+
+  // Custom-work rate card (owner and viewers read; the owner sets)
+  'GET /api/rate-card': {
+    summary: 'Gives the custom-work rate per operation (per acre or per hour), the owner’s own or the published default with its source.',
+    responses: [json('The rate card.', rateCard)],
+  },
+  'PUT /api/rate-card/:operation': {
+    summary: "Sets the owner's own custom-work rate for an operation.",
+    params: rateParams,
+    body: rateBody,
+    responses: [json('The rate card after the change.', rateCard)],
+  },
+  'DELETE /api/rate-card/:operation': {
+    summary: 'Returns an operation to the published default rate.',
+    params: rateParams,
+    responses: [json('The rate card after the change.', rateCard)],
+  },
+
+  // Invoices for custom work (owner and viewers read and export; the owner drafts, sends, voids and credits)
+  'GET /api/invoices/settings': {
+    summary: 'Gives the tax line (name and rate in basis points) and currency new invoices get.',
+    responses: [json('The settings.', invoiceSettings)],
+  },
+  'PUT /api/invoices/settings': {
+    summary: 'Sets the tax line and currency for invoices drafted from now on.',
+    body: invoiceSettingsBody,
+    responses: [json('The settings.', invoiceSettings)],
+  },
+  'GET /api/invoices/receivables': {
+    summary: 'Lists sent invoices neither paid nor credited, oldest first, with the days outstanding and their total.',
+    responses: [json('The receivables.', receivables)],
+  },
+  'GET /api/invoices/payments': {
+    summary: 'Lists payments received online, newest first.',
+    responses: [json('The payments.', paymentList)],
+  },
+  'GET /api/invoices/export/:table.csv': {
+    summary: 'Downloads the invoices, the receivables or the payments as CSV.',
+    params: invoiceExportParams,
+    responses: [{ status: 200, description: 'The table as CSV.', contentType: 'text/csv' }],
+  },
+  'GET /api/invoices': {
+    summary: 'Lists invoices and credit notes, newest number first, with number, state, customer and totalCents.',
+    responses: [json('The invoices.', invoiceList)],
+  },
+  'POST /api/invoices': {
+    summary:
+      "Drafts an invoice from a customer's finished work over a period: one line per job, the tax line, and the farm's next gapless number.",
+    body: invoiceDraftBody,
+    responses: [json('The draft.', invoiceDetail, 201)],
+  },
+  'GET /api/invoices/:id': {
+    summary: 'Gives one invoice or credit note with its lines, payments, payment link and last payment-service error.',
+    params: idParam,
+    responses: [json('The invoice.', invoiceDetail)],
+  },
+  'GET /api/invoices/:id/pdf': {
+    summary: 'Gives the invoice or credit note as a PDF.',
+    params: idParam,
+    responses: [{ status: 200, description: 'The PDF.', contentType: 'application/pdf' }],
+  },
+  'POST /api/invoices/:id/send': {
+    summary:
+      'Sends a draft (or retries a sent invoice the payment service failed on): makes its hosted checkout and mails the PDF with the payment link. If the service fails, the invoice stays sent with the reason in paymentError.',
+    params: idParam,
+    responses: [json('The invoice.', invoiceDetail)],
+  },
+  'POST /api/invoices/:id/void': {
+    summary: 'Voids a draft or an unpaid sent invoice; it keeps its number.',
+    params: idParam,
+    body: invoiceVoidBody,
+    responses: [json('The invoice.', invoiceDetail)],
+  },
+  'POST /api/invoices/:id/credit': {
+    summary: 'Issues a credit note for the whole of a sent or paid invoice, with the next number and negative amounts.',
+    params: idParam,
+    body: invoiceCreditBody,
+    responses: [json('The credit note.', invoiceDetail, 201)],
   },
 
   // This document

@@ -253,10 +253,10 @@ export interface CardWeather {
   reason: string | null;
   /** Every reason, worst first (spraying's label caution last). */
   reasons: string[];
-  /** The hours judged, 'HH:MM': the window the owner set, or the farm's working day. */
+  /** The hours judged, 'HH:MM': the card's own hours (see weatherWindowOf in server/board/conflicts.ts), or the farm's working day. */
   from: string;
   to: string;
-  /** `card`: the card's own window; `working-day`: the farm's working day (the card has none). */
+  /** `card`: the card's own hours (the window the owner set, or from the start the owner set for its planned hours); `working-day`: the farm's working day (no time set). */
   over: 'card' | 'working-day';
   /** The owner made this operation's weather rule blocking: a no-go is a hard conflict. */
   blocking: boolean;
@@ -300,6 +300,8 @@ export interface BoardWeather {
   cards: CardWeather[];
   /** Null when the farm has no stored forecast for the day. */
   strip: DayStrip | null;
+  /** Why the day has no weather, in words, when it is past the forecasts' reach; null otherwise. */
+  note: string | null;
 }
 
 export interface BoardChange {

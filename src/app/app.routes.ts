@@ -25,6 +25,12 @@ export const routes: Routes = [
     loadComponent: () => import('./features/auth/set-password/set-password').then((m) => m.SetPassword),
   },
   {
+    // Where the payment service sends a customer after paying an invoice: nobody is signed in.
+    path: 'paid',
+    title: 'Payment received · Furlong',
+    loadComponent: () => import('./features/invoices/paid-page/paid-page').then((m) => m.PaidPage),
+  },
+  {
     path: '',
     component: Shell,
     canActivate: [signedIn],
@@ -73,6 +79,16 @@ export const routes: Routes = [
         path: 'season',
         canActivate: [roleGuard(['owner', 'viewer'])],
         loadChildren: () => import('./features/season/season.routes').then((m) => m.SEASON_ROUTES),
+      },
+      {
+        path: 'custom-work',
+        canActivate: [roleGuard(['owner', 'viewer'])],
+        loadChildren: () => import('./features/custom-work/custom-work.routes').then((m) => m.CUSTOM_WORK_ROUTES),
+      },
+      {
+        path: 'invoices',
+        canActivate: [roleGuard(['owner', 'viewer'])],
+        loadChildren: () => import('./features/invoices/invoices.routes').then((m) => m.INVOICES_ROUTES),
       },
       {
         path: 'reports',

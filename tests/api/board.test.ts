@@ -114,7 +114,7 @@ describe('work board', () => {
         headland_passes: 2,
         heading_deg: 90,
         coverage: 'gaps-ok',
-        speed_mph: 8,
+        speed_mps: 3.57632, // 8 mph
         efficiency: 0.85,
         turn_seconds: 20,
         summary: JSON.stringify({ hours: 3.6, headingDeg: 90, passCount: 31 }),
@@ -480,7 +480,7 @@ describe('work board', () => {
       });
       const c = codes(long.body, 'over_day_hours');
       expect(c).toHaveLength(1);
-      expect(c[0]).toMatchObject({ severity: 'soft', message: "Ada has 13 h planned, more than the farm's 12 h day" });
+      expect(c[0]).toMatchObject({ severity: 'soft', message: "Ada has 13.0 h planned, more than the farm's 12.0 h day" });
       const shorter = await owner.patch(`/api/assignments/${long.body.savedAssignmentId}`, {
         version: long.body.version,
         endTime: '17:00',
@@ -496,7 +496,7 @@ describe('work board', () => {
         {
           code: 'service_overdue',
           severity: 'soft',
-          message: expect.stringMatching(/is 50 h past its service interval/),
+          message: expect.stringMatching(/is 50\.0 h past its service interval/),
           assignmentIds: [res.body.savedAssignmentId],
         },
       ]);

@@ -43,7 +43,7 @@ describe('fleet and crew', () => {
       serviceWarning: null,
     });
     const soon = await owner.patch(`/api/fleet/machines/${res.body.id}`, { engineHours: 1240 });
-    expect(soon.body).toMatchObject({ serviceDueInHours: 10, serviceWarning: 'Service due in 10 h' });
+    expect(soon.body).toMatchObject({ serviceDueInHours: 10, serviceWarning: 'Service due in 10.0 h' });
     const late = await owner.patch(`/api/fleet/machines/${res.body.id}`, { engineHours: 1262.5 });
     expect(late.body).toMatchObject({ serviceDueInHours: -12.5, serviceWarning: 'Service overdue by 12.5 h' });
     const serviced = await owner.patch(`/api/fleet/machines/${res.body.id}`, { hoursAtLastService: 1262.5 });
@@ -149,7 +149,7 @@ describe('fleet and crew', () => {
       hoursAtLastService: 150,
     });
     expect(late.status).toBe(422);
-    expect(late.body.error.message).toMatch(/last service \(150 h\) cannot be later than the meter reading \(100 h\)/);
+    expect(late.body.error.message).toMatch(/last service \(150\.0 h\) cannot be later than the meter reading \(100\.0 h\)/);
     expect((await owner.post('/api/fleet/machines', { name: '4wd no. 1', kind: 'tractor-4wd', powerHp: 400 })).status).toBe(409);
     expect(await count('machines')).toBe(before);
   });

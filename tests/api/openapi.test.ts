@@ -10,6 +10,7 @@ import { makeFarm, type TestFarm } from '../support/farm-factory';
 import { Client, startTestApp, type TestApp } from '../support/test-app';
 import { MATRIX } from './matrix';
 import { matrixContext } from './matrix/context';
+import { MATRIX_WALK_MS } from './matrix/types';
 
 const SLOTS: Slot[] = ['params', 'query', 'body'];
 type Recorded = Map<string, Map<Slot, Set<z.ZodType>>>;
@@ -80,57 +81,61 @@ describe('OpenAPI document', () => {
     expect(Object.keys(CONTRACT).sort()).toEqual(routes.map((r) => routeKey(r.method, r.path)).sort());
   });
 
-  it('when every matrix case runs as the owner, then each validator used the very schema object the contract names', async () => {
-    const recorded: Recorded = new Map();
-    recordValidators((route, slot, schema) => {
-      const [method, path] = route.split(' ');
-      const key = routeKey(method, path);
-      const slots = recorded.get(key) ?? new Map<Slot, Set<z.ZodType>>();
-      recorded.set(key, slots);
-      const set = slots.get(slot) ?? new Set<z.ZodType>();
-      slots.set(slot, set);
-      set.add(schema);
-    });
-    const owner = new Client(t.app);
-    await owner.signIn(farm.owner.email, farm.owner.password);
-    const ctx = matrixContext(t, farm);
-    const statuses: string[] = [];
-    try {
-      for (const route of routes) {
-        const key = routeKey(route.method, route.path);
-        const c = MATRIX[key];
-        let client = owner;
-        if (c.fresh) {
-          client = new Client(t.app);
-          await client.signIn(farm.owner.email, farm.owner.password);
+  it(
+    'when every matrix case runs as the owner, then each validator used the very schema object the contract names',
+    async () => {
+      const recorded: Recorded = new Map();
+      recordValidators((route, slot, schema) => {
+        const [method, path] = route.split(' ');
+        const key = routeKey(method, path);
+        const slots = recorded.get(key) ?? new Map<Slot, Set<z.ZodType>>();
+        recorded.set(key, slots);
+        const set = slots.get(slot) ?? new Set<z.ZodType>();
+        slots.set(slot, set);
+        set.add(schema);
+      });
+      const owner = new Client(t.app);
+      await owner.signIn(farm.owner.email, farm.owner.password);
+      const ctx = matrixContext(t, farm);
+      const statuses: string[] = [];
+      try {
+        for (const route of routes) {
+          const key = routeKey(route.method, route.path);
+          const c = MATRIX[key];
+          let client = owner;
+          if (c.fresh) {
+            client = new Client(t.app);
+            await client.signIn(farm.owner.email, farm.owner.password);
+          }
+          const res = await client[route.method](c.path ? await c.path(ctx) : route.path, c.body);
+          if (res.status !== c.expect.owner) statuses.push(`${key}: got ${res.status}, expected ${c.expect.owner}`);
         }
-        const res = await client[route.method](c.path ? await c.path(ctx) : route.path, c.body);
-        if (res.status !== c.expect.owner) statuses.push(`${key}: got ${res.status}, expected ${c.expect.owner}`);
+      } finally {
+        recordValidators(null);
       }
-    } finally {
-      recordValidators(null);
-    }
-    // The owner's calls went as the matrix says, so the validators recorded are the ones a real call reaches.
-    expect(statuses).toEqual([]);
-    expect(contractMismatches(recorded, CONTRACT)).toEqual([]);
-    // Every route whose contract names an input had a validator run, so the check above covered it.
-    const unexercised = Object.entries(CONTRACT)
-      .filter(([key, row]) => SLOTS.some((s) => row[s]) && !recorded.has(key))
-      .map(([key]) => key);
-    expect(unexercised).toEqual([]);
+      // The owner's calls went as the matrix says, so the validators recorded are the ones a real call reaches.
+      expect(statuses).toEqual([]);
+      expect(contractMismatches(recorded, CONTRACT)).toEqual([]);
+      // Every route whose contract names an input had a validator run, so the check above covered it.
+      const unexercised = Object.entries(CONTRACT)
+        .filter(([key, row]) => SLOTS.some((s) => row[s]) && !recorded.has(key))
+        .map(([key]) => key);
+      expect(unexercised).toEqual([]);
 
-    // The check can fail: the same recording against a contract naming an equal but other schema object.
-    const [someKey, someSlots] = [...recorded][0];
-    const [someSlot] = [...someSlots.keys()];
-    const doctored = { ...CONTRACT, [someKey]: { ...CONTRACT[someKey], [someSlot]: CONTRACT[someKey][someSlot]!.clone() } };
-    expect(contractMismatches(recorded, doctored)).toEqual([
-      expect.stringContaining(`${someKey}: the handler validates ${someSlot} with another schema object`),
-    ]);
-    const dropped = { ...CONTRACT, [someKey]: { ...CONTRACT[someKey], [someSlot]: undefined } };
-    expect(contractMismatches(recorded, dropped)).toEqual([
-      expect.stringContaining(`${someKey}: the handler validates ${someSlot}, the contract names no`),
-    ]);
-  });
+      // The check can fail: the same recording against a contract naming an equal but other schema object.
+      const [someKey, someSlots] = [...recorded][0];
+      const [someSlot] = [...someSlots.keys()];
+      const doctored = { ...CONTRACT, [someKey]: { ...CONTRACT[someKey], [someSlot]: CONTRACT[someKey][someSlot]!.clone() } };
+      expect(contractMismatches(recorded, doctored)).toEqual([
+        expect.stringContaining(`${someKey}: the handler validates ${someSlot} with another schema object`),
+      ]);
+      const dropped = { ...CONTRACT, [someKey]: { ...CONTRACT[someKey], [someSlot]: undefined } };
+      expect(contractMismatches(recorded, dropped)).toEqual([
+        expect.stringContaining(`${someKey}: the handler validates ${someSlot}, the contract names no`),
+      ]);
+    },
+    MATRIX_WALK_MS,
+  );
 
   it('when the document is read, then it has the shape of an OpenAPI 3.1 document', () => {
     // OAS 3.1.0 §4.8.1: `openapi` is the version; §4.8.2 info needs title and version.

@@ -2,10 +2,12 @@
 // change made through another: a sign-out through one is refused at once by every other
 // (PostgreSQL LISTEN/NOTIFY, server/http/session.ts), and the sign-in limits count across all
 // the processes of one server (node:cluster, the primary keeps the counts).
+import { spawn } from 'node:child_process';
 import fs from 'node:fs';
 import http from 'node:http';
+import path from 'node:path';
 import { makeFarm, type TestFarm } from '../support/farm-factory';
-import { HttpClient, startServerProcess, type ServerProcess } from '../support/server-process';
+import { HttpClient, freePort, startServerProcess, type ServerProcess } from '../support/server-process';
 import { createDb, type Db } from '../../server/db/knex';
 import { testDatabaseUrl } from '../support/env';
 import { TEST_SECRET } from '../support/test-app';
@@ -127,4 +129,63 @@ describe('the compiled server with WEB_CONCURRENCY=2, as npm start runs it', () 
     // Per-process counts would allow five per process: the sixth would be a plain 401.
     expect(statuses).toEqual([401, 401, 401, 401, 401, 429]);
   });
+});
+
+describe('Ctrl-C on the server, as `npm start` runs it', () => {
+  // A terminal's Ctrl-C sends SIGINT to every process of the foreground group (the supervisor, the
+  // primary and its server processes), and the supervisor (scripts/lib/setup.mjs) then sends
+  // SIGTERM: each process gets two signals and must close its pools once, quietly.
+  const compiled = path.resolve(__dirname, '..', '..', 'dist', 'server', 'server', 'index.js');
+  async function ctrlC(extraEnv: NodeJS.ProcessEnv): Promise<{ code: number | null; signal: NodeJS.Signals | null; output: string }> {
+    const port = await freePort();
+    // The compiled build, as `npm start` runs it (a step of `npm test` builds it).
+    const child = spawn(process.execPath, [compiled], {
+      cwd: path.resolve(__dirname, '..', '..'),
+      env: {
+        ...process.env,
+        NODE_ENV: 'test',
+        HOST: '127.0.0.1',
+        PORT: String(port),
+        FAKE_SMTP_PORT: '0',
+        LOG_LEVEL: 'info',
+        ...env,
+        ...extraEnv,
+      },
+      stdio: ['ignore', 'pipe', 'pipe'],
+      // Its own process group, as a terminal gives `npm start`: the signal goes to the whole group.
+      detached: true,
+    });
+    let output = '';
+    child.stdout.on('data', (c: Buffer) => (output += c.toString()));
+    child.stderr.on('data', (c: Buffer) => (output += c.toString()));
+    const ended = new Promise<{ code: number | null; signal: NodeJS.Signals | null }>((resolve) =>
+      child.once('exit', (code, signal) => resolve({ code, signal })),
+    );
+    const started = Date.now();
+    while (!output.includes('listening on') && Date.now() - started < 30_000) await new Promise((r) => setTimeout(r, 50));
+    expect(output).toContain('listening on');
+    // A request under way keeps a pooled connection busy, as a person's page would.
+    await fetch(`http://127.0.0.1:${port}/api/health`);
+    process.kill(-child.pid!, 'SIGINT');
+    await new Promise((r) => setTimeout(r, 30));
+    process.kill(child.pid!, 'SIGTERM');
+    const force = setTimeout(() => process.kill(-child.pid!, 'SIGKILL'), 15_000);
+    const end = await ended;
+    clearTimeout(force);
+    return { ...end, output };
+  }
+
+  it.each([
+    ['one server process', '1'],
+    ['two server processes', '2'],
+  ])(
+    'when the server with %s is sent SIGINT and then SIGTERM, then it stops with code 0 and prints no error',
+    async (_what, concurrency) => {
+      const run = await ctrlC({ WEB_CONCURRENCY: concurrency });
+      expect(run.output).not.toMatch(/Called end on pool more than once|closing .* failed|Unhandled|Error:/);
+      expect(run.output).toContain('"exitCode":0');
+      expect({ code: run.code, signal: run.signal }).toEqual({ code: 0, signal: null });
+    },
+    60_000,
+  );
 });

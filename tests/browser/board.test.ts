@@ -1,5 +1,5 @@
 import type { Locator, Page } from 'playwright-core';
-import { demo, screenshot, seriousViolations, signIn, startRig, type BrowserRig, freeBoardDay } from '../support/browser';
+import { demo, screenshot, seriousViolations, signIn, startRig, type BrowserRig, freeBoardDay, openedDialog } from '../support/browser';
 
 const PHONE = { width: 390, height: 844 };
 /** Each story drives many screens and two axe runs; the machine may be shared with other suites. */
@@ -36,6 +36,9 @@ async function tallScreenshot(page: Page, name: string, viewport: { width: numbe
 describe('Work board and run sheet in a real browser', () => {
   let rig: BrowserRig;
   let day = '';
+  let farmId = 0;
+  /** The seeding job the owner's story puts on Tomas's day; the phone story finishes it. */
+  let seedingId = 0;
   const tomas = demo('operator', 0);
   const milo = demo('operator', 2);
 
@@ -44,6 +47,7 @@ describe('Work board and run sheet in a real browser', () => {
     const farm = await rig.t.db('farms').where({ name: 'Tamarack Ridge Farm' }).orderBy('id', 'desc').first();
     const fleet = farm ? await rig.t.db('machines').where({ farm_id: farm.id }).first() : null;
     if (!fleet) throw new Error('The demo farm has no fleet: run scripts/prepare-db.ts --reset-demo on the test database');
+    farmId = farm.id;
     day = await freeBoardDay(rig);
   });
   afterAll(async () => {
@@ -72,7 +76,7 @@ describe('Work board and run sheet in a real browser', () => {
 
       // Milo harrows North Section with the heavy harrow: a learner on his own.
       await page.getByRole('button', { name: 'Add a card for Milo Sorensen' }).click();
-      let dialog = page.getByRole('dialog');
+      let dialog = await openedDialog(page);
       await dialog.getByRole('heading', { name: 'New card' }).waitFor();
       await pick(page, dialog, 'Field', /^North Section ·/);
       await pick(page, dialog, 'Operation', 'Harrowing');
@@ -90,7 +94,7 @@ describe('Work board and run sheet in a real browser', () => {
 
       // Fix it: Tomas mentors him.
       await page.getByRole('button', { name: 'Edit North Section harrowing' }).click();
-      dialog = page.getByRole('dialog');
+      dialog = await openedDialog(page);
       await pick(page, dialog, 'Mentor', 'Tomas Reyes');
       await dialog.getByRole('button', { name: 'Save card' }).click();
       await dialog.waitFor({ state: 'detached' });
@@ -99,7 +103,7 @@ describe('Work board and run sheet in a real browser', () => {
 
       // Seeding on the same field, first put on Ada's day…
       await page.getByRole('button', { name: 'Add a card for Ada Lindqvist' }).click();
-      dialog = page.getByRole('dialog');
+      dialog = await openedDialog(page);
       await pick(page, dialog, 'Field', /^North Section ·/);
       await pick(page, dialog, 'Operation', 'Seeding');
       await pick(page, dialog, 'Implement', '60 ft air drill');
@@ -117,13 +121,16 @@ describe('Work board and run sheet in a real browser', () => {
       expect((await ordered).status()).toBe(200);
       await column('Tomas Reyes').locator('app-assignment-card').filter({ hasText: 'Seeding' }).waitFor();
       expect(await column('Ada Lindqvist').locator('app-assignment-card').count()).toBe(0);
-      const saved = await rig.t.db('assignments').where({ day, operation: 'seeding' }).first();
+      // This farm's day only: other files' stories may share the database (and, by chance, a day).
+      const saved = await rig.t.db('assignments').where({ farm_id: farmId, day, operation: 'seeding' });
+      expect(saved).toHaveLength(1);
+      seedingId = saved[0].id;
       const tomasMembership = await rig.t
         .db('memberships')
         .join('users', 'users.id', 'memberships.user_id')
-        .where({ 'users.email': tomas.email, 'memberships.farm_id': saved.farm_id })
+        .where({ 'users.email': tomas.email, 'memberships.farm_id': farmId })
         .first('memberships.id');
-      expect(saved.operator_id).toBe(tomasMembership.id);
+      expect(saved[0].operator_id).toBe(tomasMembership.id);
 
       expect(await page.locator('.conflict-hard').count()).toBe(0);
       const publish = page.getByRole('button', { name: 'Publish work orders' });
@@ -179,7 +186,7 @@ describe('Work board and run sheet in a real browser', () => {
       await tallScreenshot(page, 'run-sheet-1-phone-light', PHONE);
 
       await start.click();
-      let dialog = page.getByRole('dialog');
+      let dialog = await openedDialog(page);
       const meter = dialog.getByLabel('Engine hours at the start');
       const startHours = Number(await meter.inputValue());
       expect(startHours).toBeGreaterThan(0);
@@ -189,7 +196,7 @@ describe('Work board and run sheet in a real browser', () => {
       expect(await panel.getByRole('button', { name: 'Start' }).count()).toBe(0);
 
       await panel.getByRole('button', { name: 'Report a problem' }).click();
-      dialog = page.getByRole('dialog');
+      dialog = await openedDialog(page);
       await dialog.getByRole('radio', { name: 'Something else' }).check();
       await dialog.getByLabel('What happened').fill('East approach gate left open');
       await dialog.getByRole('button', { name: 'Send report' }).click();
@@ -197,7 +204,7 @@ describe('Work board and run sheet in a real browser', () => {
       await panel.locator('.log').getByText('East approach gate left open').waitFor();
 
       await panel.getByRole('button', { name: 'Finish' }).click();
-      dialog = page.getByRole('dialog');
+      dialog = await openedDialog(page);
       expect(await dialog.getByLabel('Acres done').inputValue()).toBe('100');
       await dialog.getByLabel('Acres done').fill('96.5');
       await dialog.getByLabel('Engine hours at the end').fill(String(startHours + 4.5));
@@ -211,7 +218,10 @@ describe('Work board and run sheet in a real browser', () => {
         .getByText(/Finished · 96\.5 ac/)
         .waitFor();
 
-      const row = await rig.t.db('assignments').where({ day, operation: 'seeding' }).first();
+      const row = await rig.t.db('assignments').where({ id: seedingId }).first();
+      const finish = await rig.t.db('assignment_events').where({ assignment_id: seedingId, type: 'finish' });
+      // The finish as logged and as the job keeps it: what was typed, no more and no less.
+      expect(finish.map((e) => Number(e.acres))).toEqual([96.5]);
       expect(row.state).toBe('finished');
       expect(Number(row.acres_done)).toBeCloseTo(96.5, 2);
       expect(Number(row.engine_hours_end)).toBeCloseTo(startHours + 4.5, 1);

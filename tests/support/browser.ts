@@ -2,7 +2,7 @@ import fs from 'node:fs';
 import type { AddressInfo } from 'node:net';
 import path from 'node:path';
 import AxeBuilder from '@axe-core/playwright';
-import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
+import { chromium, type Browser, type BrowserContext, type Locator, type Page } from 'playwright-core';
 import { demoAccounts, type DemoAccount } from '../../seeds/01_demo_farm';
 import { startTestApp, type TestApp } from './test-app';
 
@@ -12,7 +12,11 @@ export interface BrowserRig {
   browser: Browser;
   /** Every request the pages made to anything but 127.0.0.1. */
   outside: string[];
-  newPage: (viewport?: { width: number; height: number }) => Promise<Page>;
+  /**
+   * A page in a fresh browser context. `serviceWorkers: 'block'` for a page that stubs the API with
+   * `page.route`: requests the service worker makes for the page never pass through page routes.
+   */
+  newPage: (viewport?: { width: number; height: number }, options?: { serviceWorkers?: 'allow' | 'block' }) => Promise<Page>;
   close: () => Promise<void>;
 }
 
@@ -44,8 +48,13 @@ export async function startRig(): Promise<BrowserRig> {
     baseUrl,
     browser,
     outside,
-    newPage: async (viewport = { width: 1280, height: 800 }) => {
-      const context = await browser.newContext({ viewport, baseURL: baseUrl, locale: 'en-US' });
+    newPage: async (viewport = { width: 1280, height: 800 }, options = {}) => {
+      const context = await browser.newContext({
+        viewport,
+        baseURL: baseUrl,
+        locale: 'en-US',
+        serviceWorkers: options.serviceWorkers ?? 'allow',
+      });
       contexts.push(context);
       context.on('request', (req) => {
         const url = new URL(req.url());
@@ -73,6 +82,30 @@ export async function signIn(page: Page, account: DemoAccount): Promise<void> {
   await page.getByRole('navigation', { name: 'Main' }).waitFor();
 }
 
+/**
+ * The dialog that is open, once it has finished opening. Material moves the focus into a dialog
+ * (its first box) only when the opening animation ends: text typed into a later box before then
+ * lands at the end of the first one when the focus jumps (96.5 acres became 96.5289 that way).
+ */
+export async function openedDialog(page: Page): Promise<Locator> {
+  const dialog = page.getByRole('dialog');
+  await dialog.waitFor();
+  // Asked of the element, not with waitForFunction: its text predicate failed on the app's
+  // Content-Security-Policy once the service worker served the page.
+  const container = page.locator('mat-dialog-container').last();
+  const deadline = Date.now() + 15_000;
+  for (;;) {
+    const ready = await container.evaluate((c) => {
+      const open = c.classList.contains('mdc-dialog--open') && !c.classList.contains('mdc-dialog--opening');
+      return open && c.contains(c.ownerDocument.activeElement);
+    });
+    if (ready) break;
+    if (Date.now() > deadline) throw new Error('The dialog did not finish opening (no focus inside it) within 15 s');
+    await page.waitForTimeout(50);
+  }
+  return dialog;
+}
+
 export async function screenshot(page: Page, name: string): Promise<string> {
   const dir = path.join(artifacts, 'screenshots');
   fs.mkdirSync(dir, { recursive: true });
@@ -91,12 +124,13 @@ export async function seriousViolations(page: Page): Promise<string[]> {
 
 /**
  * A day far ahead that no board of any farm has yet, so a test builds its own board and leaves
- * the demo farm's days alone.
+ * the demo farm's days alone. `months` (1–12) keeps it to a season: the fake forecast's weather
+ * follows the month, and a spraying day in January is no spraying day.
  */
-export async function freeBoardDay(rig: BrowserRig): Promise<string> {
+export async function freeBoardDay(rig: BrowserRig, months: readonly number[] = [1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12]): Promise<string> {
   for (let i = 0; i < 50; i++) {
     const year = 2040 + Math.floor(Math.random() * 55);
-    const month = 1 + Math.floor(Math.random() * 12);
+    const month = months[Math.floor(Math.random() * months.length)];
     const date = 1 + Math.floor(Math.random() * 28);
     const day = `${year}-${String(month).padStart(2, '0')}-${String(date).padStart(2, '0')}`;
     const [jobs, days] = await Promise.all([rig.t.db('assignments').where({ day }).first(), rig.t.db('board_days').where({ day }).first()]);

@@ -93,8 +93,14 @@ export class HttpClient {
     }
   }
 
-  async request(method: string, url: string, body?: unknown, signal?: AbortSignal): Promise<{ status: number; body: unknown; ms: number }> {
-    const headers: Record<string, string> = { cookie: [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ') };
+  async request(
+    method: string,
+    url: string,
+    body?: unknown,
+    signal?: AbortSignal,
+    extraHeaders: Record<string, string> = {},
+  ): Promise<{ status: number; body: unknown; ms: number }> {
+    const headers: Record<string, string> = { ...extraHeaders, cookie: [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ') };
     const xsrf = this.cookies.get('XSRF-TOKEN');
     if (xsrf) headers['x-xsrf-token'] = decodeURIComponent(xsrf);
     let payload: FormData | string | undefined;

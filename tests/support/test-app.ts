@@ -9,6 +9,7 @@ import { createLogger } from '../../server/logging/logger';
 import { FakeMailServer } from '../../server/mail/fake-smtp';
 import { MailWorker } from '../../server/mail/mail-worker';
 import { createTransport } from '../../server/mail/transport';
+import { FakePaymentServer } from '../../server/payments/fake-payments';
 import { FakeForecastServer } from '../../server/weather/fake-forecast';
 import { testDatabaseUrl } from './env';
 
@@ -20,6 +21,8 @@ export interface TestApp {
   worker: MailWorker;
   /** The in-process fake forecast server; `config.weatherUrl` is its address. */
   weather: FakeForecastServer;
+  /** The in-process fake payment server; the app's payment SDK is pointed at it. */
+  payments: FakePaymentServer;
   sessions: SessionStore;
   /** Everything the app logged (its error handler logs only failures it did not expect). */
   logged: unknown[];
@@ -42,12 +45,15 @@ export async function startTestApp(
   const port = await mail.start(0);
   const weather = new FakeForecastServer();
   await weather.start(0);
+  const payments = new FakePaymentServer();
+  await payments.start(0);
   const config = loadConfig({
     NODE_ENV: 'test',
     DATABASE_URL: testDatabaseUrl(),
     SESSION_SECRET: TEST_SECRET,
     PUBLIC_URL: 'http://127.0.0.1:3999',
     WEATHER_URL: weather.url,
+    FAKE_PAYMENTS_PORT: String(payments.port),
     ...overrides,
   });
   const db = createDb(config.databaseUrl, { min: 0, max: 5 });
@@ -73,6 +79,7 @@ export async function startTestApp(
     mail,
     worker,
     weather,
+    payments,
     sessions,
     logged,
     flushMail: () => worker.drain(),
@@ -80,6 +87,7 @@ export async function startTestApp(
       await worker.stop();
       await mail.stop();
       await weather.stop();
+      await payments.stop();
       await sessions.close();
       await db.destroy();
     },

@@ -130,6 +130,16 @@ export const board: Record<string, Case> = {
     path: () => '/api/run-sheet?date=2031-01-01',
     expect: { anon: 401, owner: 200, operator: 200, viewer: 403, other: 200 },
   },
+  'POST /api/run-sheet/outbox': {
+    // A job no farm has: the batch is taken (200) and that action answered 404 inside it, for
+    // everyone allowed in; the access check comes first for the rest.
+    body: {
+      events: [
+        { assignmentId: 2_000_000_000, type: 'start', clientEventId: '3f1c7a52-9d2e-4b8a-a1c4-6e0d2f9b7c15', at: '2026-05-01T08:00:00Z' },
+      ],
+    },
+    expect: { anon: 401, owner: 200, operator: 200, viewer: 403, other: 200 },
+  },
   'GET /api/reports': { expect: ownerOnly(200) },
   'POST /api/reports/:id/confirm': {
     path: async (c) => `/api/reports/${await openReport(c)}/confirm`,

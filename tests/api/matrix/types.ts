@@ -27,3 +27,6 @@ export const all = (status: number): Expect => ({ anon: status, owner: status, o
 export const ownerOnly = (ok: number, otherFarm = ok): Expect => ({ anon: 401, owner: ok, operator: 403, viewer: 403, other: otherFarm });
 /** Any signed-in member; a member of another farm gets `otherFarm`. */
 export const members = (ok: number, otherFarm = ok): Expect => ({ anon: 401, owner: ok, operator: ok, viewer: ok, other: otherFarm });
+
+/** How long one walk over every matrix case may take: hundreds of requests, heavy ones included. */
+export const MATRIX_WALK_MS = 180_000;
