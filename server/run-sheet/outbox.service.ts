@@ -16,6 +16,7 @@ import type { SessionPrincipal } from '../http/session-user';
 import { checked } from '../http/validate';
 import { claimClientEvents, dropClaims, findClientEvent, type DbClientEventRow } from './client-events.repository';
 import { type CallOffForecast, type EventAnswer, forecastForCallOff, logClientEvent, replay, tappedAt } from './events.service';
+import { measureAfterFinish } from '../phone-track/phone-track.service';
 import { reportClientProblem } from './problems.service';
 import { type BatchMemo, flushMemo, lockBatchDays, newMemo } from './batch-memo';
 
@@ -154,5 +155,8 @@ export async function sendOutbox(deps: AppDeps, by: SessionPrincipal, items: Ite
     return out;
   });
   if (reported) deps.nudgeMail();
+  // A job finished from the outbox gets its phone track measured as the single route measures it.
+  const finished = new Set(results.filter((r, i) => r.status === 201 && items[i].type === 'finish').map((r) => r.assignmentId));
+  for (const id of finished) await measureAfterFinish(deps, by, id);
   return results;
 }

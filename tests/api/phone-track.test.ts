@@ -49,6 +49,7 @@ describe('the phone track of a job', () => {
   let stranger: Client;
   let jobId: number;
   let otherJobId: number;
+  let outboxJobId: number;
   const chunks = [pass(0), pass(1), pass(2)].map((points) => ({ chunkId: randomUUID(), points }));
 
   const send = (c: Client, id: number, body: object) => c.post(`/api/assignments/${id}/track-points`, body);
@@ -107,6 +108,7 @@ describe('the phone track of a job', () => {
       )[0].id as number;
     jobId = await job(farm.operator.membershipId, 1);
     otherJobId = await job(m.id, 2);
+    outboxJobId = await job(farm.operator.membershipId, 3);
     const started = await operator.post(`/api/assignments/${jobId}/events`, { type: 'start', at: STARTED });
     expect(started.status).toBe(201);
   });
@@ -225,6 +227,21 @@ describe('the phone track of a job', () => {
       (await send(operator, jobId, { chunkId: randomUUID(), points: [{ ...pass(2)[40], at: new Date(T0 + 1000).toISOString() }] })).status,
     ).toBe(201);
     expect((await coverage()).source_format).toBe('geojson');
+  });
+
+  it("when the job is finished from the phone's outbox (the signal came back), then its phone track becomes its coverage as with a single finish", async () => {
+    // (5 ac: the field's harrowing this season is mostly done by the first job.)
+    expect((await operator.post(`/api/assignments/${outboxJobId}/events`, { type: 'start', at: STARTED })).status).toBe(201);
+    for (const k of [0, 1]) expect((await send(operator, outboxJobId, { chunkId: randomUUID(), points: pass(k) })).status).toBe(201);
+    const sent = await operator.post('/api/run-sheet/outbox', {
+      events: [{ assignmentId: outboxJobId, type: 'finish', at: FINISHED, acres: 5, clientEventId: randomUUID() }],
+    });
+    expect(sent.status).toBe(200);
+    expect(sent.body.results[0].status).toBe(201);
+    const row = await t.db('assignment_coverage').where({ assignment_id: outboxJobId }).first();
+    expect(row?.source_format).toBe('phone');
+    // Hand: two passes of 20 m over the field's 300 m, 40 m apart (no overlap).
+    expect(row.covered_acres).toBeCloseTo(m2ToAcres(2 * WIDTH * 300), 2);
   });
 
   it('when a job has no phone track, then measuring it answers 409 with what to do', async () => {
