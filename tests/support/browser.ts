@@ -114,8 +114,21 @@ export async function screenshot(page: Page, name: string): Promise<string> {
   return file;
 }
 
-/** Serious and critical accessibility violations found by axe on the current page. */
+/**
+ * Serious and critical accessibility violations found by axe on the current page, once what is
+ * moving has settled: a snack bar or dialog half faded in is measured at its partial opacity, and
+ * its text then reads as too faint although the person sees it a moment later at full contrast.
+ * Endless animations (a spinner) are not waited for.
+ */
 export async function seriousViolations(page: Page): Promise<string[]> {
+  await page.waitForFunction(
+    () =>
+      document
+        .getAnimations()
+        .every((a) => a.playState !== 'running' || a.effect?.getComputedTiming().iterations === Number.POSITIVE_INFINITY),
+    undefined,
+    { timeout: 10_000 },
+  );
   const result = await new AxeBuilder({ page }).analyze();
   return result.violations
     .filter((v) => v.impact === 'serious' || v.impact === 'critical')
