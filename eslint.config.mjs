@@ -132,6 +132,10 @@ export default tseslint.config(
           selector: "CallExpression[callee.property.name='toFixed']",
           message: 'Write figures with shared/figures.ts (figure, formatAcres, formatHours, formatWind …), not toFixed.',
         },
+        {
+          selector: "NewExpression[callee.object.name='Intl'][callee.property.name='NumberFormat']",
+          message: 'Write figures with shared/figures.ts (figure, formatCount, formatAreaRate …), not a number format of your own.',
+        },
       ],
     },
   },

@@ -10,6 +10,9 @@ import {
   formatAcres,
   formatArea,
   formatAge,
+  formatAreaRate,
+  formatCount,
+  formatDistance,
   formatEngineHours,
   formatHeading,
   formatHectares,
@@ -80,6 +83,26 @@ describe('figures', () => {
     expect(formatSpeed(2.45872, 'us')).toBe('5.5 mph'); // 5.5 mph
     expect(formatSpeed(10 / 3.6, 'metric')).toBe('10.0 km/h');
     expect(formatSpeed(10 / 3.6, 'us')).toBe('6.2 mph'); // 10 km/h = 6.213 7 mph
+  });
+
+  it('when a distance driven or a work rate is shown, then miles or kilometres and ac/h or ha/h have one decimal', () => {
+    // 1 mile = 1,609.344 m exactly (NIST Handbook 44, Appendix C).
+    expect(formatDistance(1609.344, 'us')).toBe('1.0 mi');
+    expect(formatDistance(1609.344, 'metric')).toBe('1.6 km');
+    expect(formatDistance(20_000, 'us')).toBe('12.4 mi'); // 12.427 4 mi
+    expect(formatDistance(1_234_560, 'metric')).toBe('1,234.6 km');
+    // Worked example of the field-capacity rule, 60 ft × 5 mph × 0.70 ÷ 8.25 = 25.45 ac/h (the rule
+    // of Hancock, Swetnam and Benson, AEN-73, University of Kentucky, 1991; the arithmetic is ours).
+    expect(formatAreaRate((60 * 5 * 0.7) / 8.25, 'us')).toBe('25.5 ac/h');
+    // The metric rule, 18.29 m × 8 km/h × 0.70 ÷ 10 = 10.24 ha/h (same rule in SI units).
+    expect(formatAreaRate((18.29 * 8 * 0.7) / 10, 'metric')).toBe('10.2 ha/h');
+    expect(formatCount(1234)).toBe('1,234');
+    expect(formatCount(96.5)).toBe('97');
+    for (const n of [null, undefined, Number.NaN]) {
+      expect(formatDistance(n, 'us')).toBe('—');
+      expect(formatAreaRate(n, 'metric')).toBe('—');
+      expect(formatCount(n)).toBe('—');
+    }
   });
 
   it('when a forecast age is shown, then whole minutes under an hour and hours with one decimal after, like every hour figure', () => {

@@ -24,7 +24,7 @@
  *   server write the same hour with the same digits and unit words.
  */
 import type { UnitSystem } from './schemas/auth';
-import { acresToHa, cDiffToF, cToF, kmhToMph, mmToIn, mpsToKmh, mpsToMph, mToFt } from './units';
+import { acresToHa, cDiffToF, cToF, kmhToMph, MILE_M, mmToIn, mpsToKmh, mpsToMph, mToFt } from './units';
 
 /** Decimals of each kind of figure, the same on screens, in e-mails and in CSV files. */
 export const FIGURE_DECIMALS = {
@@ -38,6 +38,8 @@ export const FIGURE_DECIMALS = {
   speed: 1,
   /** Clearances around hazards and other distances on the ground, whole ft or whole m. */
   length: 0,
+  /** Distances driven (a pass plan's passes and headland laps), 0.1 mi or 0.1 km. */
+  distance: 1,
   /** A share in per cent (a chance of rain, humidity, cloud cover). */
   percent: 0,
   count: 0,
@@ -187,6 +189,33 @@ export function formatSpeed(mps: number | null | undefined, system: UnitSystem):
     ? `${figure(mpsToKmh(mps), FIGURE_DECIMALS.speed)} km/h`
     : `${figure(mpsToMph(mps), FIGURE_DECIMALS.speed)} mph`;
 }
+
+/**
+ * A distance driven, stored in metres: miles (US) or kilometres (metric), one decimal.
+ * @example formatDistance(1609.344, 'us') // '1.0 mi'; formatDistance(1609.344, 'metric') // '1.6 km'
+ */
+export function formatDistance(metres: number | null | undefined, system: UnitSystem): string {
+  if (!known(metres)) return NO_FIGURE;
+  return system === 'metric'
+    ? `${figure(metres / 1000, FIGURE_DECIMALS.distance)} km`
+    : `${figure(metres / MILE_M, FIGURE_DECIMALS.distance)} mi`;
+}
+
+/**
+ * A work rate: acres per hour (US) or hectares per hour (metric), with the decimals of an area.
+ * The plan works both out from its own rule (ac/h and ha/h each from its published formula), so
+ * the caller gives the one for the farm's unit.
+ * @example formatAreaRate(51.46, 'us') // '51.5 ac/h'; formatAreaRate(20.83, 'metric') // '20.8 ha/h'
+ */
+export function formatAreaRate(perHour: number | null | undefined, system: UnitSystem): string {
+  return known(perHour) ? `${figure(perHour, FIGURE_DECIMALS.area)} ${areaUnit(system)}/h` : NO_FIGURE;
+}
+
+/**
+ * A count of things (passes, turns, laps, seconds), whole and grouped; "—" when there is none.
+ * @example formatCount(1234) // '1,234'
+ */
+export const formatCount = (n: number | null | undefined): string => figure(n, FIGURE_DECIMALS.count);
 
 /**
  * A crop name in sentence case, spaces tidied: the one style of crop names everywhere. Null for none.

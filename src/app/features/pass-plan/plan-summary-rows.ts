@@ -1,7 +1,13 @@
 import type { PlanResult } from '@shared/plan/types';
 import type { UnitSystem } from '@shared/schemas/auth';
-import { formatHeading, formatHours, formatSpeed as sharedSpeed } from '@shared/figures';
-import { MILE_M } from '@shared/units';
+import {
+  formatAreaRate,
+  formatCount,
+  formatDistance as sharedDistance,
+  formatHeading,
+  formatHours,
+  formatSpeed as sharedSpeed,
+} from '@shared/figures';
 import { formatArea } from '../../shared/units/units';
 
 /** One line of the plan's summary card. */
@@ -23,18 +29,11 @@ export const CAPACITY_SOURCE = {
     'Effective field capacity, hectares per hour = speed (km/h) × width (m) × field efficiency ÷ 10: GRDC (Grains Research and Development Corporation, Australia).',
 } as const;
 
-const oneDecimal = new Intl.NumberFormat('en-US', { minimumFractionDigits: 1, maximumFractionDigits: 1 });
-const whole = new Intl.NumberFormat('en-US', { maximumFractionDigits: 0 });
-const ok = (v: number): boolean => Number.isFinite(v);
-const dec = (v: number): string => (ok(v) ? oneDecimal.format(v) : '—');
-const int = (v: number): string => (ok(v) ? whole.format(v) : '—');
+const int = formatCount;
 const plural = (n: number, one: string, many: string): string => `${int(n)} ${n === 1 ? one : many}`;
 
-/** A distance in miles or kilometres, one decimal. */
-export function formatDistance(metres: number, system: UnitSystem): string {
-  if (!ok(metres)) return '—';
-  return system === 'metric' ? `${dec(metres / 1000)} km` : `${dec(metres / MILE_M)} mi`;
-}
+/** A distance driven in miles or kilometres, one decimal (shared/figures.ts). */
+export const formatDistance = (metres: number, system: UnitSystem): string => sharedDistance(metres, system);
 
 /** A speed stored in m/s, in mph or km/h (shared/figures.ts). */
 export const formatSpeed = (mps: number, system: UnitSystem): string => sharedSpeed(mps, system);
@@ -92,14 +91,14 @@ export function summaryRows(r: PlanResult, system: UnitSystem, autoHeading: bool
       ? {
           key: 'capacity',
           label: 'Hectares per hour',
-          value: `${dec(r.capacityHaPerHour)} ha/h`,
+          value: formatAreaRate(r.capacityHaPerHour, system),
           note: 'speed (km/h) × width (m) × field efficiency ÷ 10',
           source: CAPACITY_SOURCE.metric,
         }
       : {
           key: 'capacity',
           label: 'Acres per hour',
-          value: `${dec(r.capacityAcresPerHour)} ac/h`,
+          value: formatAreaRate(r.capacityAcresPerHour, system),
           note: 'width (ft) × speed (mph) × field efficiency ÷ 8.25',
           source: CAPACITY_SOURCE.us,
         },
