@@ -20,6 +20,8 @@ export interface ConflictCard {
   /** Why the machine cannot take the implement, or null. */
   cannotPull: string | null;
   serviceDueInHours: number | null;
+  /** The machine's open breakdown report from a run sheet (since when, in the farm's time), or null. */
+  machineDown?: { since: string; note: string | null } | null;
 }
 
 export type Skills = ReadonlyMap<number, Partial<Record<Operation, SkillLevel>>>;
@@ -199,6 +201,18 @@ export function findConflicts(
         assignmentIds: p.ids,
       });
     }
+  }
+  const down = new Map<number, ConflictCard[]>();
+  for (const c of open.filter((c) => c.machineDown)) down.set(c.a.machine.id, [...(down.get(c.a.machine.id) ?? []), c]);
+  for (const list of down.values()) {
+    const c = list[0];
+    const { since, note } = c.machineDown!;
+    out.push({
+      code: 'machine_reported_down',
+      severity: 'soft',
+      message: `${c.a.machine.name} was reported broken down on ${since}${note ? ` ("${note}")` : ''}: give the job another machine, or confirm the report under "Reports from the field" once it is fixed`,
+      assignmentIds: list.map((x) => x.a.id),
+    });
   }
   const overdue = new Map<number, ConflictCard[]>();
   for (const c of open.filter((c) => c.serviceDueInHours != null && c.serviceDueInHours < 0))

@@ -17,7 +17,8 @@ import { getDay } from './board-days.repository';
 import type { DbBoardDayRow, DbPassPlanRow } from './board.rows';
 import { formatMinutes } from './clock';
 import type { ConflictCard, Skills } from './conflicts';
-import { hazardsOfFields, passPlansOf, peopleOfFarm, type PersonRow } from './day.repository';
+import { hazardsOfFields, machinesReportedDown, passPlansOf, peopleOfFarm, type PersonRow } from './day.repository';
+import { farmTime } from '../../shared/farm-time';
 import { planHours } from './plan-hours';
 import { schedule } from './schedule';
 import { roundTo } from '../../shared/round';
@@ -103,6 +104,9 @@ export async function loadDay(db: Tx, farmId: number, day: string, scope?: DaySc
   const done = await acresDone(db, farmId, seasonOf(day), fieldIds);
   const plans = await passPlansOf(db, farmId, fieldIds);
   const hazards = await hazardsOfFields(db, farmId, fieldIds);
+  // Conflicts are read for the whole day only; one operator's column needs none.
+  const down = scope ? [] : await machinesReportedDown(db, farmId, [...new Set(views.map((v) => v.machine_id))]);
+  const downBy = new Map(down.map((d) => [d.machine_id, { since: farmTime(d.at, farm.timeZone, 'stamp'), note: d.note }]));
   const doneBy = new Map(done.map((d) => [planKey(d.field_id, d.operation), d.acres]));
   const passPlans = new Map(plans.map((p) => [planKey(p.field_id, p.operation), p]));
   const skills = new Map<number, Partial<Record<Operation, SkillLevel>>>();
@@ -143,6 +147,7 @@ export async function loadDay(db: Tx, farmId: number, day: string, scope?: DaySc
         service_interval_hours: v.machine_service_interval_hours,
         hours_at_last_service: v.machine_hours_at_last_service,
       }).dueInHours,
+      machineDown: downBy.get(v.machine_id) ?? null,
     };
   });
   return {

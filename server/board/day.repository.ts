@@ -50,3 +50,27 @@ export async function nextDayWithWork(db: Tx, farmId: number, day: string): Prom
     .first(db.raw(`to_char(min(day), 'YYYY-MM-DD') as day`));
   return (row?.day as string | null | undefined) ?? null;
 }
+
+/** A machine's oldest open breakdown report: the machine is down from then until the owner reviews it. */
+export interface MachineDownRow {
+  machine_id: number;
+  at: Date;
+  note: string | null;
+}
+
+/**
+ * The machines among `machineIds` with an open breakdown report from a run sheet, each with its
+ * oldest open one (server/reports lists the same reports for the owner).
+ */
+export async function machinesReportedDown(db: Tx, farmId: number, machineIds: number[]): Promise<MachineDownRow[]> {
+  if (!machineIds.length) return [];
+  const rows: MachineDownRow[] = await db('assignment_events as e')
+    .join('assignments as a', 'a.id', 'e.assignment_id')
+    .where({ 'e.farm_id': farmId, 'e.type': 'problem', 'e.reason': 'breakdown', 'e.review': 'open' })
+    .whereIn('a.machine_id', machineIds)
+    .orderBy([{ column: 'e.at' }, { column: 'e.id' }])
+    .select('a.machine_id', 'e.at', 'e.note');
+  const first = new Map<number, MachineDownRow>();
+  for (const r of rows) if (!first.has(r.machine_id)) first.set(r.machine_id, r);
+  return [...first.values()];
+}

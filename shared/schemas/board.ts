@@ -193,6 +193,7 @@ export interface Conflict {
     | 'over_day_hours'
     | 'window_too_short'
     | 'service_overdue'
+    | 'machine_reported_down'
     | 'weather_no_go';
   severity: 'hard' | 'soft';
   message: string;

@@ -134,11 +134,40 @@ describe('reports from the field', () => {
     expect(again.body.error.message).toMatch(/already confirmed/);
   });
 
+  it('when a machine is reported broken down, then its open cards on any day carry a soft conflict with the report; a card of another machine none', async () => {
+    const spare = await insertMachine(t.db, farm.id, { name: 'Spare 4WD' });
+    const later = await add('2031-06-05', await field());
+    const res = await owner.post('/api/assignments', {
+      version: (await board('2031-06-05')).version,
+      date: '2031-06-05',
+      operation: 'harrowing',
+      fieldId: await field(),
+      machineId: spare,
+      implementId: await insertImplement(t.db, farm.id),
+      operatorId: farm.owner.membershipId,
+    });
+    expect(res.status).toBe(201);
+    const day = await board('2031-06-05');
+    const down = day.conflicts.filter((c) => c.code === 'machine_reported_down');
+    expect(down).toEqual([
+      {
+        code: 'machine_reported_down',
+        severity: 'soft',
+        message: expect.stringMatching(
+          /^4WD No\. 3 was reported broken down on [A-Z][a-z]{2} \d{1,2}, \d\d:\d\d \("Hydraulic hose burst"\): give the job another machine/,
+        ),
+        assignmentIds: [later],
+      },
+    ]);
+    // Soft (publishing is held back by hard conflicts only): the report may be stale, the owner decides.
+  });
+
   it('when the owner dismisses a breakdown, then the machine is no longer down', async () => {
     const down = (await reports()).machinesDown.find((m) => m.machineId === tractor)!;
     const res = await owner.post(`/api/reports/${down.reportId}/dismiss`);
     expect(res.body.review).toBe('dismissed');
     expect((await reports()).machinesDown).toEqual([]);
+    expect((await board('2031-06-05')).conflicts.filter((c) => c.code === 'machine_reported_down')).toEqual([]);
     expect((await owner.post('/api/reports/abc/dismiss')).status).toBe(400);
   });
 });

@@ -122,6 +122,23 @@ describe('The run sheet on a phone in a real browser', () => {
       .waitFor();
     expect(await seriousViolations(desk)).toEqual([]);
     await screenshot(desk, 'reports-owner-list');
+
+    // The board flags the machine on the job's card while the report is open.
+    await desk.goto(`/board?date=${day}`);
+    const card = desk.locator('app-assignment-card').filter({ hasText: fieldName });
+    await card
+      .locator('.conflict-soft')
+      .filter({ hasText: `4WD ${tag} was reported broken down` })
+      .waitFor();
+    expect(
+      await card
+        .locator('.conflict-soft')
+        .filter({ hasText: `Hydraulic hose burst ${tag}` })
+        .count(),
+    ).toBe(1);
+    await card.scrollIntoViewIfNeeded();
+    await screenshot(desk, 'board-machine-reported-down');
+    await desk.goto('/reports');
     await item.getByRole('button', { name: 'Confirm' }).click();
     await item.waitFor({ state: 'detached' });
     await desk
@@ -132,6 +149,10 @@ describe('The run sheet on a phone in a real browser', () => {
       .where({ farm_id: farmId, kind: 'field-report' })
       .andWhere('text_body', 'like', `%Hydraulic hose burst ${tag}%`);
     expect(mail.length).toBeGreaterThanOrEqual(1);
+    // Confirmed: the board no longer flags the machine.
+    await desk.goto(`/board?date=${day}`);
+    await card.waitFor();
+    expect(await card.locator('.conflict-soft').filter({ hasText: 'reported broken down' }).count()).toBe(0);
   });
 
   it('when the job starts at meter 2781 and finishes at 2789.4, then the log shows 8.4 engine hours and the clock time apart', async () => {
