@@ -48,6 +48,11 @@ const PROBES: Array<{ file: string; code: string; rule: RegExp }> = [
     rule: /no-restricted-syntax: Write figures with shared\/figures\.ts \(figure, formatCount/,
   },
   {
+    file: 'shared/schemas/lint-probe-zod.ts',
+    code: "import { z } from 'zod';\nexport const probe = z.string();\n",
+    rule: /no-restricted-syntax: Import zod as a namespace/,
+  },
+  {
     file: 'server/crew/lint-probe-promise.ts',
     code: 'async function later(): Promise<void> {}\nexport function probe(): void {\n  later();\n}\n',
     rule: /no-floating-promises/,
@@ -55,7 +60,7 @@ const PROBES: Array<{ file: string; code: string; rule: RegExp }> = [
 ];
 
 describe('the lint rules of the architecture', () => {
-  it('when a file breaks a boundary, the knex rule, the promise rules or writes a figure with toFixed or a number format of its own, then eslint fails and names it', () => {
+  it('when a file breaks a boundary, the knex rule, the promise rules or writes a figure with toFixed or a number format of its own, or imports the named z of zod, then eslint fails and names it', () => {
     for (const p of PROBES) fs.writeFileSync(path.join(root, p.file), p.code);
     let out = '';
     try {

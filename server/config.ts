@@ -1,6 +1,6 @@
 import os from 'node:os';
 import { COMPUTE_TIME_LIMIT_MS } from '../shared/limits';
-import { z } from 'zod';
+import * as z from 'zod';
 
 export const LOG_LEVELS = ['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent'] as const;
 export type LogLevel = (typeof LOG_LEVELS)[number];

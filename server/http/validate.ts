@@ -1,5 +1,5 @@
 import type { Request } from 'express';
-import type { z } from 'zod';
+import type * as z from 'zod';
 import { NUL_MESSAGE, hasNul } from '../../shared/schemas/common';
 import { AppError } from './errors';
 

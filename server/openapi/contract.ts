@@ -2,7 +2,7 @@
 // The schemas are the very objects the handlers validate with; tests/api/openapi.test.ts records
 // which schema each validator used and fails when this file names another one, or none.
 // Who may call a route is not repeated here: the document takes it from the route registry.
-import { z } from 'zod';
+import * as z from 'zod';
 import { forgotBody, inviteBody, loginBody, roleChangeBody, setPasswordBody, tokenParam } from '../../shared/schemas/auth';
 import {
   assignmentCreateBody,

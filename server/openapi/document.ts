@@ -1,7 +1,7 @@
 // The OpenAPI 3.1 document of the API, built from the route registry (method, path, access) and
 // the contract (server/openapi/contract.ts). OpenAPI 3.1 schemas are JSON Schema 2020-12, which
 // is what zod's own toJSONSchema writes, so the schemas go in as zod makes them.
-import { z } from 'zod';
+import * as z from 'zod';
 import type { Access, RouteEntry } from '../http/routes';
 import { CONTRACT, routeKey, type ResponseContract, type RouteContract } from './contract';
 

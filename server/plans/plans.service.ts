@@ -5,7 +5,7 @@ import { OPERATION_INFO, type Operation } from '../../shared/operations';
 import type { PassProperties, PlanInput, PlanResult } from '../../shared/plan/types';
 import type { PlanSummary, SavedPlan } from '../../shared/schemas/plans';
 import type { planSettings } from '../../shared/schemas/plans';
-import type { z } from 'zod';
+import type * as z from 'zod';
 import type { AppDeps } from '../app-deps';
 import { AppError, notFound } from '../http/errors';
 import { getField, hazardsOfField } from '../fields/fields.repository';

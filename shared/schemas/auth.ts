@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 import { email } from './common';
 
 export const ROLES = ['owner', 'operator', 'viewer'] as const;

@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 
 /** A background job that failed for good (a dead letter), as the owner's list shows it. */
 export const failedJob = z.object({

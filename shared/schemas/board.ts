@@ -1,7 +1,7 @@
 // The work board and its work orders: the owner's edits (request bodies), the rules between a
 // card's fields, and the shapes the API answers. A job's states and log are in ./jobs, the run
 // sheet's requests in ./run-sheet.
-import { z } from 'zod';
+import * as z from 'zod';
 import { OPERATIONS, type Operation } from '../operations';
 import type { ImplementKind } from '../plan/implement-defaults';
 import { DB_INT_MAX, dbIdNumber, isoDate } from './common';

@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 
 /** The one error shape every API failure uses; the UI shows `message`. */
 export interface ApiErrorBody {

@@ -1,7 +1,7 @@
 // Costs of the farm's own work: the rates the owner enters and what `GET /api/costs` answers.
 // Money is whole cents (shared/money.ts); fuel is US gallons per acre. Only the owner and viewers
 // read these; operators see no money.
-import { z } from 'zod';
+import * as z from 'zod';
 import { COST_LIMITS } from '../costs';
 import { OPERATIONS } from '../operations';
 import { dbId } from './common';

@@ -1,7 +1,7 @@
 // Customers of custom work (neighbours the farm works for) and which fields are theirs. Read by
 // the owner and viewers (the accountant); changed by the owner. Operators see no customers: they
 // see the fields and jobs as usual, nothing about who pays.
-import { z } from 'zod';
+import * as z from 'zod';
 import { dbIdNumber, email } from './common';
 
 export const CUSTOMER_LIMITS = { nameMax: 120, addressMax: 500 } as const;

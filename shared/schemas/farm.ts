@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 import { UNIT_SYSTEMS, type UnitSystem } from './auth';
 
 /** True for a time zone name the platform's own time zone data knows (IANA names: America/Chicago). */

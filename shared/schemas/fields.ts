@@ -1,5 +1,5 @@
 import type { FeatureCollection, Geometry, MultiPolygon, Polygon } from 'geojson';
-import { z } from 'zod';
+import * as z from 'zod';
 import { FIELD_NAME_MAX, FIELD_NAME_PROBLEM_CODES, type FieldNameProblemCode } from '../field-names';
 import { BOUNDARY_PROBLEM_CODES } from '../geo/boundary-problem-codes';
 import { dbId, idParam, textWithoutNul } from './common';

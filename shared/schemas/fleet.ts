@@ -1,5 +1,5 @@
 // Fleet (machines and implements) and crew skills: request bodies and the shapes the API answers.
-import { z } from 'zod';
+import * as z from 'zod';
 import { dbId, dbIdNumber } from './common';
 import { OPERATION_INFO, OPERATIONS, type Operation } from '../operations';
 import type { ImplementKind } from '../plan/implement-defaults';

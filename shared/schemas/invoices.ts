@@ -2,7 +2,7 @@
 // take and answer. Money is whole cents (shared/money.ts); amounts on a credit note are negative.
 // The owner drafts, sends, voids and credits; the owner and viewers (the accountant) read and
 // export; operators are refused every route here.
-import { z } from 'zod';
+import * as z from 'zod';
 import { RATE_UNITS } from '../custom-rates';
 import { OPERATIONS } from '../operations';
 import { dbIdNumber, isoDate } from './common';

@@ -1,6 +1,6 @@
 // A job (an assignment of the work board): its states, its log and what the log may hold. The
 // work board, the run sheet and the season report all speak of jobs in these terms.
-import { z } from 'zod';
+import * as z from 'zod';
 
 export const ASSIGNMENT_STATES = ['planned', 'underway', 'paused', 'finished', 'called-off'] as const;
 export type AssignmentState = (typeof ASSIGNMENT_STATES)[number];

@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 
 /** What Furlong did with a payment-service event. */
 export const PAYMENT_EVENT_OUTCOMES = ['applied', 'ignored', 'unknown-invoice', 'amount-mismatch'] as const;

@@ -1,6 +1,6 @@
 // The track a job operator's phone records while the job is underway (the run sheet's "Record
 // track"), sent to the farm's own server in chunks, and what the server keeps of it.
-import { z } from 'zod';
+import * as z from 'zod';
 
 /** Points in one chunk: a few minutes of driving at one point a second. */
 export const MAX_POINTS_PER_CHUNK = 600;

@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 import { OPERATIONS } from '../operations';
 import { MAX_EDGE_MARGIN_PCT } from '../plan/auto-heading';
 import { IMPLEMENT_DEFAULTS, type ImplementKind } from '../plan/implement-defaults';

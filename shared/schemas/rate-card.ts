@@ -1,6 +1,6 @@
 // The custom-work rate card: per operation a rate per acre or per hour in whole cents, the owner's
 // own or the published default (shared/custom-rates.ts). Read by the owner and viewers.
-import { z } from 'zod';
+import * as z from 'zod';
 import { RATE_LIMITS, RATE_UNITS } from '../custom-rates';
 import { OPERATIONS } from '../operations';
 

@@ -1,6 +1,6 @@
 // The run sheet: an operator's day, and what they (or the owner) log on a job.
 import type { FeatureCollection, MultiPolygon, Polygon } from 'geojson';
-import { z } from 'zod';
+import * as z from 'zod';
 import type { Operation } from '../operations';
 import type { Verdict, VerdictLevel } from '../weather/rules';
 import type { BoardAssignment } from './board';

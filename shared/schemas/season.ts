@@ -1,6 +1,6 @@
 // Season report: the address parameters and the shape of what the API answers. Areas are acres,
 // times are hours; the screen converts to hectares for a metric farm.
-import { z } from 'zod';
+import * as z from 'zod';
 import { OPERATIONS } from '../operations';
 
 /** A crop year in the address: four digits, 1990–2100. */

@@ -1,6 +1,6 @@
 // Weather: the address parameters, the owner's limits and the shape of what the API answers.
 // Forecast hours are in °C, %, mm, km/h and degrees; the screens convert to the farm's units.
-import { z } from 'zod';
+import * as z from 'zod';
 import { SEED_CROPS, WEATHER_OPERATIONS, type LimitSource, type WeatherLimits } from '../weather/limits';
 import { dbId } from './common';
 

@@ -1,7 +1,7 @@
 // The OpenAPI document stays true: it lists exactly the registered routes, and the schemas it
 // names are the very objects the handlers validate with (recorded while every matrix case runs
 // as the owner). Structure is checked against the OpenAPI Specification 3.1.0 (spec.openapis.org/oas/v3.1.0).
-import type { z } from 'zod';
+import type * as z from 'zod';
 import type { RouteEntry } from '../../server/http/routes';
 import { recordValidators, type Slot } from '../../server/http/validate';
 import { CONTRACT, routeKey, type RouteContract } from '../../server/openapi/contract';

@@ -13,7 +13,7 @@ import * as planSchemas from '@shared/schemas/plans';
 import * as rateCardSchemas from '@shared/schemas/rate-card';
 import * as runSheetSchemas from '@shared/schemas/run-sheet';
 import * as weatherSchemas from '@shared/schemas/weather';
-import { z } from 'zod';
+import * as z from 'zod';
 import { FORGOT_PASSWORD_FIELDS } from '../../features/auth/forgot-password/forgot-password';
 import { SET_PASSWORD_FIELDS } from '../../features/auth/password-rules';
 import { SIGN_IN_FIELDS } from '../../features/auth/sign-in/sign-in';
