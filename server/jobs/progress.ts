@@ -48,6 +48,18 @@ export function defaultAcresPlanned(fieldAcres: number, doneThisSeason: number):
   return isFinishedForSeason(left) ? fieldAcres : roundTo(left, 4);
 }
 
+/**
+ * The acres a job may log on a field, before the tolerance: what is left of the field for the
+ * operation this season. A field already done is worked again in a new round (a second
+ * harrowing, a re-seeding after a washout): the whole field again, less what other jobs did of
+ * that round. `round` is 1 for the first pass over the field this season.
+ */
+export function acresLeftInRound(fieldAcres: number, doneThisSeason: number): { left: number; round: number } {
+  if (fieldAcres <= 0) return { left: 0, round: 1 };
+  const rounds = Math.floor((doneThisSeason + FINISHED_TOLERANCE_ACRES) / fieldAcres);
+  return { left: Math.min(fieldAcres, Math.max(0, fieldAcres * (rounds + 1) - doneThisSeason)), round: rounds + 1 };
+}
+
 /** Logged acres may pass what is left by 1 % of the field or half an acre (GPS and rounding; common practice, no published source). */
 export const acresTolerance = (fieldAcres: number): number => Math.max(0.5, fieldAcres * 0.01);
 

@@ -242,6 +242,22 @@ describe('run sheet', () => {
     const after = await board('2026-08-07');
     expect(after.assignments.find((a) => a.id === later)).toMatchObject({ acresToDo: 0 });
     expect(after.conflicts.filter((c) => c.code === 'field_finished').map((c) => c.assignmentIds)).toEqual([[later]]);
+    // The owner was warned, and sent the job anyway: the field is harrowed a second time. The
+    // operator's finish is taken for the new round (up to the whole field), never refused as
+    // "0 ac left", which would leave the job underway with no way to finish it.
+    await event(tomasC, later, { type: 'start' });
+    const overRound = await event(tomasC, later, { type: 'finish', acres: 200 });
+    expect(overRound.status).toBe(422);
+    expect(overRound.body.error.message).toMatch(
+      /was already done for harrowing this season; this round has 160\.0 ac left; 200\.0 ac is more than that\./,
+    );
+    const again = await event(tomasC, later, { type: 'finish', acres: 120 });
+    expect(again.status).toBe(201);
+    expect(again.body).toMatchObject({ state: 'finished', log: { acresDone: 120 } });
+    // The second round has 40 ac left: a fourth job may log that much and no more.
+    const fourth = await add('2026-08-07', { fieldId: f });
+    await event(tomasC, fourth, { type: 'start' });
+    expect((await event(tomasC, fourth, { type: 'finish', acres: 50 })).body.error.fields).toEqual({ acres: 'At most 40.0 ac' });
   });
 
   it("when the owner edits or deletes a finished job's log, then the season totals change", async () => {
