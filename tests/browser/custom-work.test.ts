@@ -238,6 +238,9 @@ describe('Custom work billed and paid online, in a real browser', () => {
     await viewer.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Invoices' }).click();
     await viewer.getByRole('heading', { level: 1, name: 'Invoices' }).waitFor();
     expect(await viewer.getByRole('button', { name: 'Draft invoice' }).count()).toBe(0);
+    // The viewer does not read the customer list; the page must not tell them to add one.
+    await viewer.getByTestId('receivables-total').waitFor();
+    expect(await viewer.getByText('Add a customer under').count()).toBe(0);
     await viewer.getByTestId('receivables-total').waitFor();
     const [download] = await Promise.all([
       viewer.waitForEvent('download'),

@@ -54,7 +54,8 @@ export class InvoicesPage {
     const e = this.invoices.error() ?? this.receivables.error() ?? this.payments.error();
     return e ? messageOf(e) : null;
   });
-  protected readonly noCustomers = computed(() => this.customers.hasValue() && this.customers.value().length === 0);
+  // Only the owner reads customers (to draft); for the viewer the empty default means "not read", not "none".
+  protected readonly noCustomers = computed(() => this.isOwner() && this.customers.hasValue() && this.customers.value().length === 0);
 
   protected when(at: string | null): string {
     return at ? farmTime(at, this.auth.farm()?.timeZone, 'stamp') : '—';
