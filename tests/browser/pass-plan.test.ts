@@ -111,6 +111,13 @@ describe('the Pass plan screen in a real browser', () => {
     expect(await alert.innerText()).not.toMatch(/NaN|undefined|\{/);
     await page.getByText('Out of date: the map shows the last plan that worked.').waitFor();
     await screenshot(page, 'pass-plan-owner-error');
+
+    // A negative width is refused in the form's words and units: no metres ("got -1.524") and no
+    // "Passes, acres and hours are for -5.0 ft" beside it.
+    await page.getByLabel('Working width (ft)').fill('-5');
+    await alert.filter({ hasText: 'Working width' }).waitFor();
+    const said = await page.locator('body').innerText();
+    expect(said).not.toMatch(/got -|-1\.52|are for -5/);
   });
 
   it('when an operator opens the same deep link, then the saved plan shows read-only', async () => {

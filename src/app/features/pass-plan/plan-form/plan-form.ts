@@ -81,7 +81,8 @@ export class PlanForm {
     const s = this.settings();
     const fleet = this.implements().find((i) => i.id === s.implementId);
     const implement = fleet ? { name: fleet.name, widthM: fleet.widthM } : s.implementId !== null ? this.savedImplement() : null;
-    if (!implement || s.width === null || !Number.isFinite(s.width)) return null;
+    // A width the form refuses (0, negative) is said under the box, not compared here.
+    if (!implement || s.width === null || !Number.isFinite(s.width) || s.width <= 0) return null;
     const own = widthFromMetres(implement.widthM, this.system());
     // Widths are shown to 0.1 ft or 1 cm: anything closer is the same width.
     if (Math.abs(own - s.width) < (this.system() === 'metric' ? 0.005 : 0.05)) return null;
