@@ -38,7 +38,7 @@ export function invoicePdf(inv: InvoiceDetail, from: PdfParty, paymentUrl: strin
   doc.text(`From: ${from.farmName}`);
   doc.text(`Date: ${inv.issuedOn}`);
   doc.text(`Work from ${inv.periodFrom} to ${inv.periodTo}`);
-  if (inv.kind === 'credit' && inv.creditOf !== null) doc.text(`Credits invoice id ${inv.creditOf}`);
+  if (inv.kind === 'credit' && inv.creditOfNumber !== null) doc.text(`Credits invoice ${inv.creditOfNumber}`);
   doc.moveDown();
   doc.font('Helvetica-Bold').text('Bill to');
   doc.font('Helvetica').text(inv.customer.name);

@@ -14,6 +14,8 @@ export interface InvoiceRow {
   state: InvoiceState;
   credit_of: number | null;
   credited_by: number | null;
+  /** The number of the invoice a credit note credits (read with the row, never stored). */
+  credit_of_number?: number | null;
   period_from: string;
   period_to: string;
   issued_on: string;
@@ -63,9 +65,13 @@ export interface PaymentRow {
   checkout_session_id: string;
 }
 
-/** Every invoice column, with the credit note that credits it. */
+/** Every invoice column, with the credit note that credits it and the number of the invoice a credit note credits. */
 const invoiceQuery = (db: Tx) =>
-  db('invoices as i').select('i.*', db.raw('(select c.id from invoices c where c.credit_of = i.id) as credited_by'));
+  db('invoices as i').select(
+    'i.*',
+    db.raw('(select c.id from invoices c where c.credit_of = i.id) as credited_by'),
+    db.raw('(select o.number from invoices o where o.id = i.credit_of) as credit_of_number'),
+  );
 
 export const listInvoices = (db: Tx, farmId: number): Promise<InvoiceRow[]> =>
   invoiceQuery(db).where('i.farm_id', farmId).orderBy('i.number', 'desc');
@@ -156,6 +162,7 @@ export async function insertInvoice(
     InvoiceRow,
     | 'id'
     | 'credited_by'
+    | 'credit_of_number'
     | 'sent_at'
     | 'paid_at'
     | 'voided_at'
@@ -173,7 +180,11 @@ export async function insertInvoice(
   return id as number;
 }
 
-export async function updateInvoice(db: Tx, id: number, change: Partial<Omit<InvoiceRow, 'id' | 'credited_by'>>): Promise<void> {
+export async function updateInvoice(
+  db: Tx,
+  id: number,
+  change: Partial<Omit<InvoiceRow, 'id' | 'credited_by' | 'credit_of_number'>>,
+): Promise<void> {
   await db('invoices')
     .where({ id })
     .update({ ...change, updated_at: db.fn.now() });

@@ -75,6 +75,7 @@ export async function getInvoice(db: Tx, farmId: number, id: number): Promise<In
     taxBasisPoints: r.tax_basis_points,
     note: r.note,
     voidReason: r.void_reason,
+    creditOfNumber: r.credit_of_number ?? null,
     lines: lines.map((l) => ({
       position: l.position,
       assignmentId: l.assignment_id,

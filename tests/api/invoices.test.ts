@@ -352,6 +352,7 @@ describe('state machine and credits', () => {
       kind: 'credit',
       state: 'issued',
       creditOf: inv.id,
+      creditOfNumber: inv.number,
       number: last + 1,
       subtotalCents: -inv.subtotalCents,
       taxCents: -inv.taxCents,
@@ -375,6 +376,8 @@ describe('state machine and credits', () => {
     expect(pdf.headers['content-type']).toBe('application/pdf');
     const text = pdfText(pdf.body as Buffer).join('\n');
     expect(text).toContain(`Credit note ${note.number}`);
+    // The customer knows the invoice by its number, never by the database's id.
+    expect(text).toContain(`Credits invoice ${inv.number}`);
     expect(text).toContain(`-$${(inv.totalCents / 100).toFixed(2)}`);
   });
 
