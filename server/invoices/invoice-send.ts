@@ -112,7 +112,7 @@ export async function currentPdf(deps: AppDeps, farmId: number, id: number): Pro
   return { pdf, name: `${inv.kind === 'credit' ? 'credit-note' : 'invoice'}-${inv.number}.pdf` };
 }
 
-/** After a void: the open checkout is expired so the old link cannot be paid (best effort; a payment that still comes is refused and logged). */
+/** After a void or a credit note: the open checkout is expired so the old link cannot be paid (best effort; a payment that still comes is refused and logged). */
 export async function expireCheckout(deps: AppDeps, sessionId: string | null): Promise<void> {
   if (!sessionId) return;
   try {

@@ -78,6 +78,15 @@ export function invoiceRoutes(r: Routes, deps: AppDeps): void {
   r.post('/:id/credit', OWNER, async (req, res) => {
     const me = principal(req);
     const { id } = params(req, idParam);
-    res.status(201).json(await service.creditInvoice(db, me.farmId, id, today(me.timeZone), body(req, invoiceCreditBody).reason));
+    const { detail, openCheckout } = await service.creditInvoice(
+      db,
+      me.farmId,
+      id,
+      today(me.timeZone),
+      body(req, invoiceCreditBody).reason,
+    );
+    // The credited invoice's payment link stops working, as after a void.
+    await expireCheckout(deps, openCheckout);
+    res.status(201).json(detail);
   });
 }

@@ -88,7 +88,8 @@ export async function getInvoice(db: Tx, farmId: number, id: number): Promise<In
       rateCents: l.rate_cents,
       amountCents: l.amount_cents,
     })),
-    paymentUrl: r.state === 'sent' ? r.checkout_url : null,
+    // Only while it can be paid: a credited invoice is settled by its credit note.
+    paymentUrl: r.state === 'sent' && !r.credited_by ? r.checkout_url : null,
     paymentError: r.payment_error,
     mailed: r.mail_id !== null,
     payments: payments.map(paymentItem),
@@ -187,9 +188,18 @@ export async function voidInvoice(
   return { detail: await getInvoice(db, farmId, id), openCheckout };
 }
 
-/** A credit note for the whole of a sent or paid invoice: the same lines, negative, with the next number. */
-export async function creditInvoice(db: Tx, farmId: number, id: number, today: string, reason: string): Promise<InvoiceDetail> {
-  const creditId = await db.transaction(async (tx) => {
+/**
+ * A credit note for the whole of a sent or paid invoice: the same lines, negative, with the next
+ * number. A sent invoice's open checkout is answered so that the caller expires it, as after a void.
+ */
+export async function creditInvoice(
+  db: Tx,
+  farmId: number,
+  id: number,
+  today: string,
+  reason: string,
+): Promise<{ detail: InvoiceDetail; openCheckout: string | null }> {
+  const { creditId, openCheckout } = await db.transaction(async (tx) => {
     const number = await repo.takeNumber(tx, farmId);
     const r = await repo.lockInvoice(tx, farmId, id);
     if (!r) throw notFound(NOT_FOUND);
@@ -198,7 +208,7 @@ export async function creditInvoice(db: Tx, farmId: number, id: number, today: s
       throw new AppError(409, 'invoice_not_sent', `Only a sent or paid invoice is credited; invoice ${r.number} is ${r.state}`);
     if (await repo.creditNoteOf(tx, id)) throw new AppError(409, 'invoice_credited', `Invoice ${r.number} is credited already`);
     const lines = (await repo.linesOf(tx, id)).map((l) => ({ ...l, amount_cents: -l.amount_cents }));
-    return repo.insertInvoice(
+    const noteId = await repo.insertInvoice(
       tx,
       {
         farm_id: farmId,
@@ -224,8 +234,9 @@ export async function creditInvoice(db: Tx, farmId: number, id: number, today: s
       },
       lines,
     );
+    return { creditId: noteId, openCheckout: r.state === 'sent' ? r.checkout_session_id : null };
   });
-  return getInvoice(db, farmId, creditId);
+  return { detail: await getInvoice(db, farmId, creditId), openCheckout };
 }
 
 export async function invoiceSettings(db: Tx, farmId: number): Promise<InvoiceSettings> {

@@ -381,12 +381,29 @@ describe('state machine and credits', () => {
     expect(text).toContain(`-$${(inv.totalCents / 100).toFixed(2)}`);
   });
 
-  it('when a sent invoice is credited, then it leaves the receivables', async () => {
+  it('when a sent invoice is credited, then it leaves the receivables and its payment link stops taking payments', async () => {
     const inv = await oneJobDraft('2026-05-14');
-    await owner.post(`/api/invoices/${inv.id}/send`);
+    const url = (await owner.post(`/api/invoices/${inv.id}/send`)).body.paymentUrl as string;
+    const session = [...t.payments.sessions.values()].find((s) => s.url === url)!;
     expect(((await viewer.get('/api/invoices/receivables')).body as Receivables).invoices.some((i) => i.id === inv.id)).toBe(true);
-    await owner.post(`/api/invoices/${inv.id}/credit`, { reason: 'Goodwill' });
+    expect((await owner.post(`/api/invoices/${inv.id}/credit`, { reason: 'Goodwill' })).status).toBe(201);
     expect(((await viewer.get('/api/invoices/receivables')).body as Receivables).invoices.some((i) => i.id === inv.id)).toBe(false);
+    // Nothing is owed on it now: the checkout is expired (as after a void), so the old link takes no payment,
+    // and neither the invoice nor its PDF offers the link any more.
+    expect(session.status).toBe('expired');
+    expect((await fetch(`${url}/pay`, { method: 'POST', redirect: 'manual' })).status).toBe(409);
+    expect((await owner.get(`/api/invoices/${inv.id}`)).body).toMatchObject({ state: 'sent', paymentUrl: null });
+    const pdf = await owner
+      .get(`/api/invoices/${inv.id}/pdf`)
+      .buffer(true)
+      .parse((res, cb) => {
+        const chunks: Buffer[] = [];
+        res.on('data', (c: Buffer) => chunks.push(c));
+        res.on('end', () => cb(null, Buffer.concat(chunks)));
+      });
+    const text = pdfText(pdf.body as Buffer).join('\n');
+    expect(text).toContain(`Invoice ${inv.number}`);
+    expect(text).not.toContain('Pay online');
   });
 });
 
