@@ -10,6 +10,8 @@ const MAIL_KINDS: Record<string, string> = {
   'work-order': 'Work order e-mail',
   invite: 'Invitation e-mail',
   reset: 'Password link e-mail',
+  invoice: 'Invoice e-mail',
+  'credit-note': 'Credit note e-mail',
 };
 
 export async function listFailed(deps: AppDeps, farmId: number): Promise<FailedJobList> {

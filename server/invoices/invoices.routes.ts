@@ -87,6 +87,7 @@ export function invoiceRoutes(r: Routes, deps: AppDeps): void {
     );
     // The credited invoice's payment link stops working, as after a void.
     await expireCheckout(deps, openCheckout);
+    if (detail.mailed) deps.nudgeMail();
     res.status(201).json(detail);
   });
 }

@@ -11,7 +11,9 @@ import type { InvoiceDetail, InvoiceDraftBody, InvoiceListItem, InvoiceSettings,
 import { customerById } from '../customers/customers.repository';
 import type { Tx } from '../db/knex';
 import { AppError, notFound } from '../http/errors';
+import { enqueueMail } from '../mail/outbox.repository';
 import { ratesInForce } from '../rate-card/rate-card.service';
+import { creditNoteMail } from './credit-note-mail';
 import * as repo from './invoices.repository';
 
 const NOT_FOUND = 'That invoice';
@@ -190,7 +192,8 @@ export async function voidInvoice(
 
 /**
  * A credit note for the whole of a sent or paid invoice: the same lines, negative, with the next
- * number. A sent invoice's open checkout is answered so that the caller expires it, as after a void.
+ * number, mailed to the customer with its PDF when the invoice was mailed. A sent invoice's open
+ * checkout is answered so that the caller expires it, as after a void.
  */
 export async function creditInvoice(
   db: Tx,
@@ -234,6 +237,13 @@ export async function creditInvoice(
       },
       lines,
     );
+    // The customer had the invoice by mail: its credit note follows through the same outbox, with its
+    // PDF, in this transaction. An invoice never mailed (the payment service was out) gets none either.
+    if (r.mail_id !== null) {
+      const note = await getInvoice(tx, farmId, noteId);
+      const mail = await creditNoteMail(farmId, note, await repo.farmName(tx, farmId), { number: r.number, state: r.state });
+      await repo.updateInvoice(tx, noteId, { mail_id: await enqueueMail(tx, mail) });
+    }
     return { creditId: noteId, openCheckout: r.state === 'sent' ? r.checkout_session_id : null };
   });
   return { detail: await getInvoice(db, farmId, creditId), openCheckout };

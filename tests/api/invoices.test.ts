@@ -381,6 +381,61 @@ describe('state machine and credits', () => {
     expect(text).toContain(`-$${(inv.totalCents / 100).toFixed(2)}`);
   });
 
+  it('when a paid invoice is credited, then the customer is mailed the credit note with its PDF through the outbox, naming the invoice by its number', async () => {
+    const inv = await oneJobDraft('2026-05-15');
+    const url = (await owner.post(`/api/invoices/${inv.id}/send`)).body.paymentUrl as string;
+    await fetch(`${url}/pay`, { method: 'POST', redirect: 'manual' });
+    expect((await owner.get(`/api/invoices/${inv.id}`)).body.state).toBe('paid');
+
+    const credit = await owner.post(`/api/invoices/${inv.id}/credit`, { reason: 'Harrowed twice by mistake' });
+    expect(credit.status).toBe(201);
+    const note = credit.body as InvoiceDetail;
+    expect(note).toMatchObject({ kind: 'credit', mailed: true });
+    // Written to the outbox in the credit note's own transaction, like the invoice's e-mail.
+    const queued = await t.db('mail_outbox').where({ ref: `invoice:${note.id}` });
+    expect(queued.map((m) => [m.kind, m.to_address])).toEqual([['credit-note', inv.customerEmail]]);
+
+    await drainMail();
+    const mail = await t.mail.waitFor((m) => m.to.includes(inv.customerEmail) && m.subject.startsWith(`Credit note ${note.number}`));
+    // The amount as the customer reads it, worked here from the invoice's cents: whole dollars and two digits.
+    const dollars = `$${Math.trunc(inv.totalCents / 100)}.${String(inv.totalCents % 100).padStart(2, '0')}`;
+    expect(mail.subject).toContain(`invoice ${inv.number} credited`);
+    expect(mail.text).toContain(`It credits invoice ${inv.number}`);
+    expect(mail.text).toContain(`Amount credited: ${dollars} USD.`);
+    expect(mail.text).toContain('Reason: Harrowed twice by mistake');
+    expect(mail.text).toContain(`Invoice ${inv.number} was paid`);
+    expect(mail.attachments.map((a) => [a.filename, a.contentType])).toEqual([[`credit-note-${note.number}.pdf`, 'application/pdf']]);
+    const text = pdfText(mail.attachments[0].content).join('\n');
+    expect(text).toContain(`Credit note ${note.number}`);
+    expect(text).toContain(`Credits invoice ${inv.number}`);
+    expect(text).toContain(`Total USD`);
+    expect(text).toContain(`-${dollars}`);
+    // A credit note is not paid: no payment link in it.
+    expect(text).not.toContain('Pay online');
+    expect(mail.text).not.toContain('/pay/');
+    // Mailed once: the invoice's own e-mail and this one, nothing more.
+    expect(t.mail.to(inv.customerEmail).map((m) => m.subject.split(' from ')[0])).toEqual([
+      `Invoice ${inv.number}`,
+      `Credit note ${note.number}`,
+    ]);
+  });
+
+  it('when an invoice that was never mailed (the payment service was out) is credited, then its credit note is not mailed either and says so', async () => {
+    const inv = await oneJobDraft('2026-05-16');
+    t.payments.mode = 'down';
+    try {
+      expect((await owner.post(`/api/invoices/${inv.id}/send`)).body).toMatchObject({ state: 'sent', mailed: false });
+    } finally {
+      t.payments.mode = 'ok';
+    }
+    const credit = await owner.post(`/api/invoices/${inv.id}/credit`, { reason: 'Billed to the wrong neighbour' });
+    expect(credit.status).toBe(201);
+    expect(credit.body).toMatchObject({ kind: 'credit', mailed: false });
+    expect(await t.db('mail_outbox').where({ ref: `invoice:${credit.body.id}` })).toHaveLength(0);
+    await drainMail();
+    expect(t.mail.to(inv.customerEmail)).toHaveLength(0);
+  });
+
   it('when a sent invoice is credited, then it leaves the receivables and its payment link stops taking payments', async () => {
     const inv = await oneJobDraft('2026-05-14');
     const url = (await owner.post(`/api/invoices/${inv.id}/send`)).body.paymentUrl as string;
