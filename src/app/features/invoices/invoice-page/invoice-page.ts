@@ -132,7 +132,11 @@ export class InvoicePage {
     this.withReason(
       {
         title: `Credit invoice ${inv.number}?`,
-        message: `A credit note for the whole of invoice ${inv.number} (${formatMoney(inv.totalCents)}) is made with the next number. The invoice itself is not changed.`,
+        message:
+          `A credit note for the whole of invoice ${inv.number} (${formatMoney(inv.totalCents)}) is made with the next number. The invoice itself is not changed. ` +
+          (inv.mailed
+            ? `The credit note is mailed to ${inv.customerEmail} with its PDF.`
+            : 'The invoice was never mailed to the customer, so neither is the credit note.'),
         confirm: 'Make credit note',
         act: (reason) => this.api.credit(inv.id, reason),
       },
