@@ -113,7 +113,11 @@ export class InvoicePage {
     this.run(this.api.send(inv.id), (d) => (d.mailed ? `Invoice ${d.number} was sent to ${d.customerEmail}.` : null));
   }
 
-  protected void(inv: InvoiceDetail): void {
+  /**
+   * Not named `void`: Angular's template syntax reads `void(inv)` as the `void` operator, which
+   * evaluates its operand and calls nothing (the Void button did nothing under that name).
+   */
+  protected voidInvoice(inv: InvoiceDetail): void {
     this.withReason(
       {
         title: `Void invoice ${inv.number}?`,
