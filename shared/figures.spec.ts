@@ -2,6 +2,7 @@ import fc from 'fast-check';
 import { roundTo } from './round';
 import {
   FIGURE_DECIMALS,
+  billedQuantity,
   compassPoint,
   compassWords,
   cropName,
@@ -247,5 +248,30 @@ describe('weather figures and headings', () => {
     ]);
     expect(compassPoint(null)).toBeNull();
     expect(compassWords(225)).toBe('from the south-west');
+  });
+});
+
+describe('billed quantities', () => {
+  // Worked by hand: the invoice line's amount is quantity × rate (shared/invoice-math.ts), so the
+  // figure shown must carry every stored decimal (numeric(12,4)) for the reader to redo it.
+  it('shows every decimal the amount was worked from: at least two, up to four', () => {
+    expect(billedQuantity(100.25, 'acre')).toBe('100.25 ac');
+    expect(billedQuantity(78.4, 'acre')).toBe('78.40 ac');
+    expect(billedQuantity(118.4567, 'acre')).toBe('118.4567 ac');
+    expect(billedQuantity(118.456, 'acre')).toBe('118.456 ac');
+    expect(billedQuantity(3.75, 'hour')).toBe('3.75 h');
+    expect(billedQuantity(40)).toBe('40.00');
+    expect(billedQuantity(1234.5)).toBe('1,234.50');
+  });
+
+  it('shows a figure that, parsed back, is the quantity to its four stored decimals', () => {
+    // Property: for any quantity numeric(12,4) holds, the text read back (grouping removed) is
+    // the same number (common practice for a lossless display, no published source).
+    fc.assert(
+      fc.property(fc.integer({ min: 0, max: 999_999_999_999 }), (tenThousandths) => {
+        const q = tenThousandths / 10_000;
+        return Number(billedQuantity(q).replace(/,/g, '')) === q;
+      }),
+    );
   });
 });

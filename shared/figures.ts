@@ -135,6 +135,21 @@ export function formatHours(hours: number | null | undefined): string {
 }
 
 /**
+ * A quantity billed on an invoice line (acres or hours, kept to 4 decimals as the line stores it),
+ * with every decimal its amount was worked from: at least 2, up to 4, zeros past the second
+ * dropped, so the figure shown × the rate is the line's amount before its one rounding. With
+ * `unit`: followed by "ac" or "h".
+ * @example billedQuantity(100.25, 'acre') // '100.25 ac' (not '100.3 ac': 100.3 × $12.50 ≠ $1,253.13)
+ * @example billedQuantity(118.4567) // '118.4567'
+ * @example billedQuantity(40, 'hour') // '40.00 h'
+ */
+export function billedQuantity(quantity: number, unit?: 'acre' | 'hour'): string {
+  if (!known(quantity)) return NO_FIGURE;
+  const digits = figure(quantity, 4).replace(/(\.\d\d\d*?)0+$/, '$1');
+  return unit ? `${digits} ${unit === 'acre' ? 'ac' : 'h'}` : digits;
+}
+
+/**
  * How long ago something was fetched or sent (a forecast's age): whole minutes under an hour, then
  * hours with the one decimal every hour figure has. A negative age (clocks a little apart) reads 0 min.
  * @example formatAge(25) // '25 min'; formatAge(150) // '2.5 h'; formatAge(120) // '2.0 h'

@@ -1,7 +1,7 @@
 // The invoice (or credit note) as a PDF, drawn with pdfkit in its built-in Helvetica, so no font
 // file is read. Figures come from the stored invoice as they are; nothing is recomputed here.
 import PDFDocument from 'pdfkit';
-import { figure } from '../../shared/figures';
+import { billedQuantity, figure } from '../../shared/figures';
 import { formatMoney } from '../../shared/money';
 import { OPERATION_INFO } from '../../shared/operations';
 import type { InvoiceDetail } from '../../shared/schemas/invoices';
@@ -14,7 +14,7 @@ export interface PdfParty {
 const money = (cents: number) => formatMoney(cents).replace('\u2212', '-');
 
 const quantityText = (l: InvoiceDetail['lines'][number]) =>
-  l.unit === 'acre' ? `${figure(l.quantity, 2)} ac${l.quantitySource === 'measured' ? ' (measured)' : ''}` : `${figure(l.quantity, 2)} h`;
+  `${billedQuantity(l.quantity, l.unit)}${l.quantitySource === 'measured' ? ' (measured)' : ''}`;
 
 export const invoiceTitle = (inv: Pick<InvoiceDetail, 'kind' | 'number'>) =>
   `${inv.kind === 'credit' ? 'Credit note' : 'Invoice'} ${inv.number}`;

@@ -189,7 +189,8 @@ describe('Custom work billed and paid online, in a real browser', () => {
     expect(cells[0]).toBe(FIELD);
     expect(cells[1]).toBe('Harrowing');
     expect(cells[2]).toBe(day);
-    expect(cells[3]).toContain(`${ACRES_DONE.toFixed(1)} ac`);
+    // The quantity billed with every decimal the amount was worked from (at least two).
+    expect(cells[3]).toContain(`${ACRES_DONE.toFixed(2)} ac`);
     expect(cells[4]).toBe(`${usd(RATE_CENTS)} per acre`);
     expect(cells[5]).toBe(usd(LINE_CENTS));
     const foot = await lines.locator('tfoot').innerText();

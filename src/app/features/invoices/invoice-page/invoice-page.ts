@@ -6,7 +6,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { Router, RouterLink } from '@angular/router';
 import { farmTime } from '@shared/farm-time';
-import { formatAcres, formatHours } from '@shared/figures';
+import { billedQuantity } from '@shared/figures';
 import { formatMoney } from '@shared/money';
 import { OPERATION_INFO } from '@shared/operations';
 import type { InvoiceDetail } from '@shared/schemas/invoices';
@@ -74,7 +74,7 @@ export class InvoicePage {
   }
 
   protected quantity(line: Line): string {
-    return line.unit === 'acre' ? formatAcres(line.quantity) : formatHours(line.quantity);
+    return billedQuantity(line.quantity, line.unit);
   }
 
   protected source(line: Line): string {
