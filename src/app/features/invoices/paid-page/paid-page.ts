@@ -9,8 +9,9 @@ import { ChangeDetectionStrategy, Component } from '@angular/core';
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
     <main class="page">
-      <h1>Thank you: the payment went through</h1>
-      <p>The farm is told by the payment service and marks the invoice paid. You can close this page.</p>
+      <h1>Thank you: the invoice is paid</h1>
+      <p>The payment service took your payment and tells the farm, which marks the invoice paid on its side.</p>
+      <p>Nothing more is needed: you can close this page.</p>
     </main>
   `,
 })
