@@ -1,4 +1,5 @@
 import fs from 'node:fs';
+import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 import path from 'node:path';
 import AxeBuilder from '@axe-core/playwright';
@@ -24,10 +25,14 @@ const artifacts = process.env.ARTIFACTS_DIR ?? path.resolve(__dirname, '..', '..
 
 /** The real server on a free loopback port, with the built app, and a headless Chromium. */
 export async function startRig(): Promise<BrowserRig> {
-  const t = await startTestApp();
-  const server = t.app.listen(0, '127.0.0.1');
+  // The port first, then the app: its public address (PUBLIC_URL) is where it is served here, so the
+  // links it mails and the page the payment service returns a customer to lead back to this server.
+  const server = http.createServer();
+  server.listen(0, '127.0.0.1');
   await new Promise((r) => server.once('listening', r));
   const baseUrl = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+  const t = await startTestApp({ PUBLIC_URL: baseUrl });
+  server.on('request', t.app);
   const browser = await chromium.launch({
     executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
     args: [
