@@ -5,7 +5,7 @@
 // and back at 02:00 on the first Sunday of November (2026-11-01).
 import fc from 'fast-check';
 import { DateTime } from 'luxon';
-import { farmTime, zoneAbbreviation } from './farm-time';
+import { farmTime, zoneAbbreviation, dayClock, daySpan } from './farm-time';
 
 const luxonIn = (at: Date, zone: string) => DateTime.fromJSDate(at, { zone }).setLocale('en-US');
 
@@ -65,5 +65,18 @@ describe('zoneAbbreviation', () => {
     expect(zoneAbbreviation('America/Winnipeg', '2026-07-15T12:00:00Z')).toBe('CDT');
     expect(zoneAbbreviation('America/Regina', '2026-01-15T12:00:00Z')).toBe('CST');
     expect(zoneAbbreviation('America/Regina', '2026-07-15T12:00:00Z')).toBe('CST');
+  });
+});
+
+describe('dayClock and daySpan', () => {
+  // Clock arithmetic (24 h to a day); no outside source needed beyond the 24-hour clock of ISO 8601.
+  it('writes hours past 24 as the next day, and leaves a day time as it is', () => {
+    expect(dayClock('08:00')).toBe('08:00');
+    expect(dayClock('23:59')).toBe('23:59');
+    expect(dayClock('24:00')).toBe('00:00 next day');
+    expect(dayClock('25:43')).toBe('01:43 next day');
+    expect(dayClock('49:05')).toBe('01:05 2 days later');
+    expect(daySpan('08:00', '25:43')).toBe('08:00–01:43 next day');
+    expect(dayClock('')).toBe('');
   });
 });

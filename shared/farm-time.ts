@@ -52,3 +52,21 @@ export function farmTime(
   const text = formatOf(timeZone, FIELDS[style], style).format(instant(at));
   return opts.zone && timeZone ? `${text} ${zoneAbbreviation(timeZone, at)}` : text;
 }
+
+/**
+ * A board time ('HH:MM') as a person reads it. The board's running order can carry a day's last
+ * job past midnight, and keeps that as hours past 24 ('25:43'); a clock never shows those: it is
+ * 01:43 the next day.
+ *
+ * @example dayClock('25:43') // '01:43 next day'
+ */
+export function dayClock(hhmm: string): string {
+  const m = /^(\d{2,}):(\d{2})$/.exec(hhmm);
+  const hours = m ? Number(m[1]) : 0;
+  if (!m || hours < 24) return hhmm;
+  const days = Math.floor(hours / 24);
+  return `${String(hours % 24).padStart(2, '0')}:${m[2]} ${days === 1 ? 'next day' : `${days} days later`}`;
+}
+
+/** A job's time span as a person reads it: '08:00–17:30', '20:00–01:43 next day'. */
+export const daySpan = (start: string, end: string): string => `${dayClock(start)}–${dayClock(end)}`;

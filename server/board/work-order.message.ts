@@ -1,7 +1,7 @@
 // A work order as e-mail, in plain text and HTML with the same content. Every order carries the
 // operation's cautions, which defer to local law and licensed practice.
 import { DateTime } from 'luxon';
-import { zoneAbbreviation } from '../../shared/farm-time';
+import { dayClock, zoneAbbreviation } from '../../shared/farm-time';
 import type { OutgoingMail } from '../mail/outbox.repository';
 import { esc, wrapHtml } from '../mail/html';
 import { formatArea, formatHeading, formatHours, formatLength, formatWidth } from '../../shared/figures';
@@ -26,7 +26,9 @@ function instantOf(day: string, hhmm: string, timeZone: string): Date {
 export function timesOf(j: Pick<OrderJob, 'start' | 'end'>, day: string, timeZone: string): string {
   const from = zoneAbbreviation(timeZone, instantOf(day, j.start, timeZone));
   const to = zoneAbbreviation(timeZone, instantOf(day, j.end, timeZone));
-  return from === to ? `${j.start}–${j.end} ${to}` : `${j.start} ${from}–${j.end} ${to}`;
+  // A job running on past midnight: its end is the next day's clock ('01:43 next day'), not '25:43'.
+  const [start, end] = [dayClock(j.start), dayClock(j.end)];
+  return from === to ? `${start}–${end} ${to}` : `${start} ${from}–${end} ${to}`;
 }
 
 /** "Rock: keep 10 ft clear": the clearance as the run sheet and the field map write it. */

@@ -116,6 +116,11 @@ describe('AssignmentCard', () => {
     expect(text(el, '.planned')?.replace(/\u00a0/g, ' ')).toBe('1.7 h estimate · 10.0 h booked');
   });
 
+  it('when the running order carries the job past midnight, then the card writes the end as the next day, never 25:43', () => {
+    const el = show(card(1, TOMAS, 1, { startTime: '20:00', endTime: '25:43', planHours: 5.7 }));
+    expect(text(el, '.time')).toBe('20:00–01:43 next day in running order');
+  });
+
   describe('weather', () => {
     const REASON = 'wind 18.6 mph at 14:00, above the spraying limit of 10 mph';
     const spraying = () => card(1, TOMAS, 1, { operation: 'spraying', plannedStart: '10:00', plannedEnd: '16:00' });

@@ -3,6 +3,7 @@ import { DragDropModule } from '@angular/cdk/drag-drop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatMenuModule } from '@angular/material/menu';
+import { daySpan } from '@shared/farm-time';
 import { OPERATION_INFO } from '@shared/operations';
 import type { BoardAssignment, CardWeather, Conflict } from '@shared/schemas/board';
 import { STATE_LABELS } from '@shared/schemas/jobs';
@@ -58,7 +59,7 @@ export class AssignmentCard {
    */
   protected readonly times = computed(() => {
     const a = this.assignment();
-    return `${a.startTime}–${!a.fitsWindow && a.plannedEnd ? a.plannedEnd : a.endTime}`;
+    return daySpan(a.startTime, !a.fitsWindow && a.plannedEnd ? a.plannedEnd : a.endTime);
   });
   /** A window longer than the work books the person for all of it: said, so the column's hours add up. */
   protected readonly booked = computed(() => {

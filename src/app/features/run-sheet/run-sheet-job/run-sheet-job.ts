@@ -12,7 +12,7 @@ import {
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
-import { farmTime } from '@shared/farm-time';
+import { daySpan, farmTime } from '@shared/farm-time';
 import { formatEngineHours, formatHeading } from '@shared/figures';
 import { OPERATION_INFO } from '@shared/operations';
 import { type AssignmentEvent, type EventType, STATE_LABELS } from '@shared/schemas/jobs';
@@ -102,6 +102,7 @@ export class RunSheetJob {
   protected readonly outcome = computed(() => this.outbox.view()?.outcomes.get(this.item().id)?.message ?? null);
 
   protected readonly operationLabel = computed(() => OPERATION_INFO[this.item().operation].label);
+  protected readonly span = computed(() => daySpan(this.item().startTime, this.item().endTime));
   protected readonly actions = computed(() => actionsFor(this.job()));
   protected readonly canReport = computed(() => canReportProblem(this.job().state));
   protected readonly stateLabel = computed(() => STATE_LABELS[this.job().state]);

@@ -21,7 +21,7 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { Router } from '@angular/router';
-import { farmTime } from '@shared/farm-time';
+import { daySpan, farmTime } from '@shared/farm-time';
 import { OPERATION_INFO } from '@shared/operations';
 import { STATE_LABELS } from '@shared/schemas/jobs';
 import type { RunSheet, RunSheetItem } from '@shared/schemas/run-sheet';
@@ -223,6 +223,10 @@ export class RunSheetPage {
   });
 
   protected readonly stateLabels = STATE_LABELS;
+
+  protected span(item: RunSheetItem): string {
+    return daySpan(item.startTime, item.endTime);
+  }
 
   protected operationLabel(item: RunSheetItem): string {
     return OPERATION_INFO[item.operation].label;
