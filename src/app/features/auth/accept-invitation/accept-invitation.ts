@@ -14,6 +14,7 @@ import { AuthFrame } from '../../../shared/ui/auth-frame/auth-frame';
 import { AuthApi, tokenInfoUrl } from '../auth-api';
 import { SET_PASSWORD_FIELDS, passwordPair } from '../password-rules';
 import { linkProblem } from '../token-problem';
+import { requiredText } from '../../../shared/forms/required-text';
 
 @Component({
   selector: 'app-accept-invitation',
@@ -39,7 +40,7 @@ export class AcceptInvitation {
   protected readonly form = new FormGroup({
     name: new FormControl('', {
       nonNullable: true,
-      validators: [Validators.required, Validators.maxLength(120)],
+      validators: [requiredText, Validators.maxLength(120)],
     }),
     passwords: passwordPair(),
   });

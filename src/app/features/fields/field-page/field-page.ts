@@ -46,6 +46,7 @@ import { type Boundary, FieldsApi, fieldUrl } from '../fields-api';
 import { HazardForm } from '../hazard-form/hazard-form';
 import { HazardList } from '../hazard-list/hazard-list';
 import { HAZARD_LABELS, type HazardKind } from '@shared/schemas/fields';
+import { requiredText } from '../../../shared/forms/required-text';
 
 const SHAPE_NAMES: Record<DrawnShape, string> = { Marker: 'point', Line: 'line', Polygon: 'area' };
 /** The drawing tool that makes a geometry of each type again. */
@@ -140,7 +141,7 @@ export class FieldPage {
   private readonly markPoint = viewChild('markPoint', { read: ElementRef<HTMLElement> });
 
   protected readonly details = new FormGroup({
-    name: new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.maxLength(FIELD_NAME_MAX)] }),
+    name: new FormControl('', { nonNullable: true, validators: [requiredText, Validators.maxLength(FIELD_NAME_MAX)] }),
     notes: new FormControl('', { nonNullable: true, validators: [Validators.maxLength(2000)] }),
   });
   private readonly detailsSubmission = new FormSubmission(this.details, FIELD_FORM_FIELDS);

@@ -17,6 +17,7 @@ import { measureBoundary } from '../boundary-measure';
 import { type Boundary, FieldsApi, fieldsUrl } from '../fields-api';
 import { FIELD_FORM_FIELDS } from '../field-form-fields';
 import { AuthStore } from '../../../core/auth/auth-store';
+import { requiredText } from '../../../shared/forms/required-text';
 
 /** The owner draws a new field (parts and holes), sees its acres live, names it and saves it. */
 @Component({
@@ -35,7 +36,7 @@ export class NewField {
   private readonly auth = inject(AuthStore);
 
   protected readonly form = new FormGroup({
-    name: new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.maxLength(FIELD_NAME_MAX)] }),
+    name: new FormControl('', { nonNullable: true, validators: [requiredText, Validators.maxLength(FIELD_NAME_MAX)] }),
     notes: new FormControl('', { nonNullable: true, validators: [Validators.maxLength(2000)] }),
   });
   private readonly name = toSignal(this.form.controls.name.valueChanges, { initialValue: '' });

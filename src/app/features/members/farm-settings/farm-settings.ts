@@ -17,6 +17,7 @@ import { FormSubmission } from '../../../shared/forms/form-submission';
 import { zodValidator } from '../../../shared/forms/zod-validator';
 import { FARM_URL, FarmApi } from '../farm-api';
 import { clockIn, timeZoneChoices } from './time-zones';
+import { requiredText } from '../../../shared/forms/required-text';
 
 /** Each key of the farm settings's API body and the box it is typed in, by its label. */
 export const FARM_SETTINGS_FIELDS: FormFields = {
@@ -50,7 +51,7 @@ export class FarmSettingsForm {
   });
 
   protected readonly form = new FormGroup({
-    name: new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.maxLength(160)] }),
+    name: new FormControl('', { nonNullable: true, validators: [requiredText, Validators.maxLength(160)] }),
     units: new FormControl<UnitSystem>('us', { nonNullable: true }),
     dayHoursLimit: new FormControl(12, { nonNullable: true, validators: [Validators.required, Validators.min(1), Validators.max(24)] }),
     timeZone: new FormControl('America/Chicago', { nonNullable: true, validators: [Validators.required, zodValidator(timeZone)] }),

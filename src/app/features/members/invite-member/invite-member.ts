@@ -11,6 +11,7 @@ import { FormSubmission } from '../../../shared/forms/form-submission';
 import { zodValidator } from '../../../shared/forms/zod-validator';
 import { MembersApi } from '../members-api';
 import { ROLE_OPTIONS } from '../role-labels';
+import { requiredText } from '../../../shared/forms/required-text';
 
 /** Each key of the invitation's API body and the box it is typed in, by its label. */
 export const INVITE_FIELDS: FormFields = {
@@ -36,7 +37,7 @@ export class InviteMember {
   protected readonly form = new FormGroup({
     name: new FormControl('', {
       nonNullable: true,
-      validators: [Validators.required, Validators.maxLength(120)],
+      validators: [requiredText, Validators.maxLength(120)],
     }),
     email: new FormControl('', {
       nonNullable: true,
