@@ -98,6 +98,12 @@ describe('The run sheet on a phone in a real browser', () => {
     await panel.getByRole('button', { name: 'Report a problem' }).click();
     const dialog = await openedDialog(phone);
     await dialog.getByRole('radio', { name: 'Breakdown' }).check();
+    // The usual caution before anyone works on a machine (common practice, no published source quoted).
+    const caution = dialog.locator('[data-breakdown-caution]');
+    expect(await caution.innerText()).toMatch(/shut the engine off and take the key/);
+    const icon = await caution.locator('mat-icon').boundingBox();
+    expect(icon!.width).toBeGreaterThanOrEqual(20);
+    await screenshot(phone, 'run-sheet-breakdown-caution');
     await dialog.getByLabel('What happened').fill(`Hydraulic hose burst ${tag}`);
     await dialog.getByRole('button', { name: 'Send report' }).click();
     await dialog.waitFor({ state: 'detached' });
