@@ -35,6 +35,7 @@ export function invoicePdf(inv: InvoiceDetail, from: PdfParty, paymentUrl: strin
 
   doc.font('Helvetica-Bold').fontSize(18).text(invoiceTitle(inv));
   doc.font('Helvetica').fontSize(10).moveDown(0.3);
+  if (inv.state === 'draft') doc.font('Helvetica-Bold').text('DRAFT: not yet sent, not a bill').font('Helvetica');
   doc.text(`From: ${from.farmName}`);
   doc.text(`Date: ${inv.issuedOn}`);
   doc.text(`Work from ${inv.periodFrom} to ${inv.periodTo}`);
@@ -46,12 +47,21 @@ export function invoicePdf(inv: InvoiceDetail, from: PdfParty, paymentUrl: strin
   doc.text(inv.customerEmail);
   doc.moveDown();
 
-  const cols = [54, 124, 250, 330, 430, 510];
+  // Column starts across the 504 pt between the margins; the money columns are wide enough for
+  // "-$999,999.99" on one line (pdfkit wraps a figure that does not fit).
+  const cols = [54, 114, 234, 314, 396, 472];
+  const right = 558;
   const row = (cells: string[], bold = false) => {
     const y = doc.y;
+    let bottom = y;
     doc.font(bold ? 'Helvetica-Bold' : 'Helvetica');
-    cells.forEach((c, i) => doc.text(c, cols[i], y, { width: (cols[i + 1] ?? 560) - cols[i] - 6, align: i >= 3 ? 'right' : 'left' }));
+    cells.forEach((c, i) => {
+      doc.text(c, cols[i], y, { width: (cols[i + 1] ?? right) - cols[i] - 6, align: i >= 3 ? 'right' : 'left' });
+      bottom = Math.max(bottom, doc.y);
+    });
+    // The next row starts below the tallest cell (a long field name may take two lines).
     doc.x = 54;
+    doc.y = bottom;
     doc.moveDown(0.4);
   };
   row(['Date', 'Field', 'Operation', 'Quantity', 'Rate', 'Amount'], true);
