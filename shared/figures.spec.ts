@@ -5,6 +5,7 @@ import {
   billedQuantity,
   compassPoint,
   compassWords,
+  formatPassHeading,
   cropName,
   csvNumber,
   figure,
@@ -248,6 +249,18 @@ describe('weather figures and headings', () => {
     ]);
     expect(compassPoint(null)).toBeNull();
     expect(compassWords(225)).toBe('from the south-west');
+  });
+
+  it('writes the way passes run as the two opposite compass points of their line', () => {
+    // Bearings clockwise from true north (0° north, 90° east), eight points 45° apart, as above.
+    expect(formatPassHeading(0)).toBe('0.0° (north–south)');
+    expect(formatPassHeading(90)).toBe('90.0° (east–west)');
+    expect(formatPassHeading(45)).toBe('45.0° (north-east–south-west)');
+    expect(formatPassHeading(135)).toBe('135.0° (south-east–north-west)');
+    expect(formatPassHeading(100)).toBe('100.0° (east–west)');
+    expect(formatPassHeading(179.9)).toBe('179.9° (north–south)');
+    expect(formatPassHeading(270)).toBe('90.0° (east–west)');
+    expect(formatPassHeading(null)).toBe('—');
   });
 });
 

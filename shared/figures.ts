@@ -366,6 +366,18 @@ export function compassWords(deg: number | null | undefined): string {
 }
 
 /**
+ * The way a pass plan's passes run, heading and words both: a pass is driven up and back, so its
+ * line runs between a compass point and the opposite one (nearest of eight, 45° apart).
+ * @example formatPassHeading(90) // '90.0° (east–west)'
+ * @example formatPassHeading(0) // '0.0° (north–south)'
+ */
+export function formatPassHeading(deg: number | null | undefined): string {
+  if (!known(deg)) return NO_FIGURE;
+  const ways = ['north–south', 'north-east–south-west', 'east–west', 'south-east–north-west'];
+  return `${formatHeading(deg, 180)} (${ways[Math.round((((deg % 180) + 180) % 180) / 45) % 4]})`;
+}
+
+/**
  * A lon/lat position as a farmer reads it: "47.61234° N, 99.91234° W" (5 decimals ≈ 1 m).
  * @param lon longitude in degrees (east positive)
  * @param lat latitude in degrees (north positive)

@@ -4,7 +4,7 @@ import { DateTime } from 'luxon';
 import { dayClock, zoneAbbreviation } from '../../shared/farm-time';
 import type { OutgoingMail } from '../mail/outbox.repository';
 import { esc, wrapHtml } from '../mail/html';
-import { formatArea, formatHeading, formatHours, formatLength, formatWidth } from '../../shared/figures';
+import { formatArea, formatHours, formatLength, formatPassHeading, formatWidth } from '../../shared/figures';
 import type { UnitSystem } from '../../shared/schemas/auth';
 import { parseTime } from './clock';
 import type { OrderContent, OrderHazard, OrderJob } from './work-order.content';
@@ -37,7 +37,7 @@ const hazardLine = (h: OrderHazard, units: UnitSystem) =>
 
 const planLine = (p: NonNullable<OrderJob['passPlan']>) =>
   [
-    p.headingDeg != null ? `heading ${formatHeading(p.headingDeg, 180)}` : null,
+    p.headingDeg != null ? `heading ${formatPassHeading(p.headingDeg)}` : null,
     p.passCount != null ? `${p.passCount} passes` : null,
     `${p.headlandPasses} headland passes`,
   ]

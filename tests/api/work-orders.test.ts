@@ -138,7 +138,7 @@ describe('work orders by e-mail', () => {
     expect(text).toContain('Power pole or line: keep 33 ft clear. Transmission line along the north edge');
     expect(text).toContain('Rock: keep 10 ft clear. Large rock, marked with a flag');
     // The heading as the plan's summary and the run sheet write it (shared/figures.ts formatHeading), not rounded to whole degrees.
-    expect(text).toContain('Pass plan: heading 87.4°, 31 passes, 2 headland passes');
+    expect(text).toContain('Pass plan: heading 87.4° (east–west), 31 passes, 2 headland passes');
     expect(text).toContain('Pass plan: none saved');
     expect(text).toContain('Note: Start at the east gate');
     for (const caution of OPERATION_INFO.harrowing.cautions) expect(text).toContain(caution);

@@ -108,7 +108,13 @@ describe('RunSheetJob', () => {
     const rows = [...el.querySelectorAll('.plan dl > div')].map(
       (d) => `${d.querySelector('dt')?.textContent?.trim()}: ${d.querySelector('dd')?.textContent?.replace(/\s+/g, ' ').trim()}`,
     );
-    expect(rows).toEqual(['Heading: 91.6°', 'Passes: 31', 'Headland: 2 passes around', 'Turns: 30', 'Hours: 6.3 h whole field']);
+    expect(rows).toEqual([
+      'Pass direction: 91.6° (east–west)',
+      'Passes: 31',
+      'Headland: 2 passes around',
+      'Turns: 30',
+      'Hours: 6.3 h whole field',
+    ]);
     expect(el.querySelector('.hazards')?.textContent?.replace(/\s+/g, ' ')).toContain('keep 33 ft clear — Pole by the approach');
   });
 

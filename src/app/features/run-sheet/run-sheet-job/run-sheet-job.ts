@@ -13,7 +13,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
 import { daySpan, farmTime } from '@shared/farm-time';
-import { formatEngineHours, formatHeading } from '@shared/figures';
+import { formatEngineHours, formatPassHeading } from '@shared/figures';
 import { OPERATION_INFO } from '@shared/operations';
 import { type AssignmentEvent, type EventType, STATE_LABELS } from '@shared/schemas/jobs';
 import type { RunSheetEvent, RunSheetItem } from '@shared/schemas/run-sheet';
@@ -122,7 +122,7 @@ export class RunSheetJob {
     const num = (k: string) => (typeof s[k] === 'number' ? (s[k] as number) : null);
     const heading = p.headingDeg ?? num('headingDeg');
     return {
-      heading: formatHeading(heading, 180),
+      heading: formatPassHeading(heading),
       passes: num('passCount'),
       turns: num('turns'),
       headland: p.headlandPasses,
