@@ -10,6 +10,7 @@ import { hazardFeature } from '../fields/fields.service';
 import { AppError, forbidden, notFound } from '../http/errors';
 import type { SessionPrincipal } from '../http/session-user';
 import { getAssignment } from '../jobs/assignments.repository';
+import { getPlan } from '../plans/plans.service';
 import { lockJob, touchBoard } from '../run-sheet/job-lock';
 import { coverageOf, implementWidthM, saveCoverage, type DbCoverageRow } from './coverage.repository';
 import { takeMeasuredAcres } from './measured-acres';
@@ -125,6 +126,11 @@ export async function jobCoverage(deps: AppDeps, by: SessionPrincipal, id: numbe
   if (!field) throw notFound('That field');
   const hazards = (await hazardsOfField(deps.db, by.farmId, field.id)).map(hazardFeature);
   const c = await coverageOf(deps.db, by.farmId, id);
+  // The saved plan's passes, drawn under the coverage: where the work was meant to go.
+  const plan = await getPlan(deps, by.farmId, field.id, a.operation).catch((err: unknown) => {
+    if (err instanceof AppError && err.status === 404) return null;
+    throw err;
+  });
   return {
     job: {
       id: a.id,
@@ -144,5 +150,6 @@ export async function jobCoverage(deps: AppDeps, by: SessionPrincipal, id: numbe
       hazards: { type: 'FeatureCollection', features: hazards },
     },
     coverage: c ? view(c) : null,
+    passes: plan ? { type: 'FeatureCollection', features: plan.result.passes.features } : null,
   };
 }

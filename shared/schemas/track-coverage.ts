@@ -1,4 +1,4 @@
-import type { FeatureCollection, MultiPolygon, Polygon } from 'geojson';
+import type { FeatureCollection, LineString, MultiPolygon, Polygon } from 'geojson';
 import type { Operation } from '../operations';
 import type { AssignmentState } from './jobs';
 
@@ -43,4 +43,9 @@ export interface JobCoverageView {
   field: { id: number; name: string; acres: number; boundary: Polygon | MultiPolygon; hazards: FeatureCollection };
   /** null until a track is measured. */
   coverage: JobCoverage | null;
+  /**
+   * The passes of the field's saved pass plan for the job's operation, as lines (pass number in
+   * `properties.pass`), for the map under the coverage; null when no plan is saved.
+   */
+  passes: FeatureCollection<LineString> | null;
 }

@@ -35,6 +35,7 @@ describe("a job's coverage on its map", () => {
   let owner: Client;
   let operator: Client;
   let jobId: number;
+  let fieldId: number;
 
   beforeAll(async () => {
     t = await startTestApp();
@@ -53,6 +54,7 @@ describe("a job's coverage on its map", () => {
         acres: m2ToAcres(geodesicAreaM2(boundary)),
       })
       .returning('id');
+    fieldId = f.id;
     const [a] = await t
       .db('assignments')
       .insert({
@@ -79,6 +81,21 @@ describe("a job's coverage on its map", () => {
     expect(v.field).toMatchObject({ name: 'Butte Strip', boundary });
     // Seeding is an operation whose coverage rule is full (shared/operations.ts): every skip is flagged.
     expect(v.job).toMatchObject({ id: jobId, operation: 'seeding', coverageRule: 'full', acresMeasured: false });
+  });
+
+  it("when the field has a saved plan for the job's operation, then the map gets its passes to draw under the coverage", async () => {
+    // No plan yet: nothing to draw.
+    expect(((await operator.get(`/api/assignments/${jobId}/coverage`)).body as JobCoverageView).passes).toBeNull();
+    // A 20 m drill north–south with no headland over a field 200 m wide (tests/support/track-field.ts):
+    // passes every 20 m, 200 / 20 = 10 by hand; 11 where the planner lays its passes off the edge and
+    // needs one more to reach the far side. Either way the map gets exactly the plan's own passes.
+    const saved = await owner.put(`/api/plans/${fieldId}/seeding`, { widthM: WIDTH, headingDeg: 0, headlandPasses: 0 });
+    expect(saved.status).toBe(200);
+    const v = (await operator.get(`/api/assignments/${jobId}/coverage`)).body as JobCoverageView;
+    expect(v.passes!.features).toHaveLength(saved.body.result.passCount);
+    expect([10, 11]).toContain(saved.body.result.passCount);
+    expect(v.passes!.features.every((f) => f.geometry.type === 'LineString')).toBe(true);
+    expect(await owner.delete(`/api/plans/${fieldId}/seeding`)).toMatchObject({ status: 204 });
   });
 
   it('when a track of two overlapping passes is measured, then the map gets the covered, twice-worked and skipped ground', async () => {

@@ -1,5 +1,5 @@
 import type { JobCoverage } from '@shared/schemas/track-coverage';
-import { COVERAGE_COLOURS, COVERAGE_STYLES, coverageKey, coverageLayers } from './coverage-layers';
+import { COVERAGE_COLOURS, COVERAGE_STYLES, PLANNED_PASS_COLOUR, coverageKey, coverageLayers, plannedPassLayers } from './coverage-layers';
 
 /**
  * Contrast ratio by WCAG 2.1's definitions of relative luminance (sRGB, linearised with the
@@ -57,7 +57,13 @@ describe('coverage layers', () => {
     ['light', '#ecebe3'],
     ['dark', '#23231e'],
   ])('when drawn on the %s map background, then every coverage colour has at least 3:1 contrast (WCAG 2.1, 1.4.11)', (_, bg) => {
-    for (const colour of Object.values(COVERAGE_COLOURS)) expect(contrast(colour, bg)).toBeGreaterThanOrEqual(3);
+    for (const colour of [...Object.values(COVERAGE_COLOURS), PLANNED_PASS_COLOUR]) expect(contrast(colour, bg)).toBeGreaterThanOrEqual(3);
+  });
+
+  it('when the job has a saved plan, then its passes are one line layer; without a plan, none', () => {
+    const passes = { type: 'FeatureCollection' as const, features: [] };
+    expect(plannedPassLayers(passes).map((l) => [l.id, l.data])).toEqual([['planned-passes', passes]]);
+    expect(plannedPassLayers(null)).toEqual([]);
   });
 
   it('when the contrast helper is checked, then black on white is 21:1 and a colour on itself 1:1 (WCAG 2.1 definition)', () => {

@@ -3,6 +3,7 @@
 // against the map's plain background in both the light and the dark theme (coverage-layers.spec.ts);
 // the skips are told apart by a dashed outline as well as by colour.
 import type { JobCoverage } from '@shared/schemas/track-coverage';
+import type { GeoJsonObject } from 'geojson';
 import type { PathOptions } from 'leaflet';
 import type { MapLayer } from './map-types';
 
@@ -26,6 +27,19 @@ export const COVERAGE_STYLES: Record<CoverageKind, PathOptions> = {
   twice: { color: COVERAGE_COLOURS.twice, weight: 0, fillColor: COVERAGE_COLOURS.twice, fillOpacity: 0.6 },
   skipped: { color: COVERAGE_COLOURS.skipped, weight: 2, dashArray: '6 4', fillColor: COVERAGE_COLOURS.skipped, fillOpacity: 0.25 },
 };
+
+/**
+ * The saved plan's passes under the coverage, as thin grey lines: where the work was meant to go.
+ * Grey of our own, 3:1 or more against both map backgrounds (coverage-layers.spec.ts).
+ */
+export const PLANNED_PASS_COLOUR = '#767676';
+
+/** The plan's passes as the bottom layer of a coverage map; none when no plan is saved. */
+export function plannedPassLayers(passes: GeoJsonObject | null): MapLayer[] {
+  return passes
+    ? [{ id: 'planned-passes', data: passes, style: { color: PLANNED_PASS_COLOUR, weight: 1.5, opacity: 0.9, fill: false } }]
+    : [];
+}
 
 export interface CoverageKey {
   kind: CoverageKind;

@@ -42,6 +42,7 @@ const VIEW: JobCoverageView = {
     hazards: { type: 'FeatureCollection', features: [] },
   },
   coverage: null,
+  passes: null,
 };
 
 const COVERAGE: JobCoverage = {
@@ -140,6 +141,27 @@ describe('JobCoverageMap', () => {
     expect(text('.summary')).toContain('The job counts the measured 150.5 ac; typed at the finish: 158.0 ac.');
     expect(text('.skips')).toContain('2 skips left unworked, 6.3 ac in all');
     expect(el.querySelectorAll('.skips li')).toHaveLength(2);
+  });
+
+  it('when the field has a saved plan, then its passes are drawn under the coverage and named in the key', async () => {
+    const passes: JobCoverageView['passes'] = {
+      type: 'FeatureCollection',
+      features: [
+        {
+          type: 'Feature',
+          properties: { pass: 1 },
+          geometry: {
+            type: 'LineString',
+            coordinates: [
+              [0, 47],
+              [0, 47.001],
+            ],
+          },
+        },
+      ],
+    };
+    await open({ ...VIEW, coverage: COVERAGE, passes });
+    expect(el.querySelector('.key li')!.textContent!.replace(/\s+/g, ' ').trim()).toBe('Planned passes');
   });
 
   it('when the operation may leave gaps, then skips are not flagged one by one', async () => {

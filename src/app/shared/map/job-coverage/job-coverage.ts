@@ -10,7 +10,7 @@ import { API } from '../../../core/http/api-paths';
 import { messageOf } from '../../../core/http/api-error';
 import { AreaPipe } from '../../units/area-pipe';
 import { Units } from '../../units/units';
-import { coverageKey, coverageLayers } from '../coverage-layers';
+import { PLANNED_PASS_COLOUR, coverageKey, coverageLayers, plannedPassLayers } from '../coverage-layers';
 import { FieldMap } from '../field-map/field-map';
 import type { HazardFeature, MapField } from '../map-types';
 
@@ -56,10 +56,16 @@ export class JobCoverageMap {
   protected readonly hazards = computed(() => (this.data()?.field.hazards.features ?? []) as HazardFeature[]);
   protected readonly layers = computed(() => {
     const c = this.coverage();
-    return c
-      ? coverageLayers(c, (acres) => `Skipped: ${this.units.area(acres)} in ${c.skipCount} ${c.skipCount === 1 ? 'skip' : 'skips'}`)
-      : [];
+    // The plan's passes first, under the coverage: where the work was meant to go.
+    return [
+      ...plannedPassLayers(this.data()?.passes ?? null),
+      ...(c
+        ? coverageLayers(c, (acres) => `Skipped: ${this.units.area(acres)} in ${c.skipCount} ${c.skipCount === 1 ? 'skip' : 'skips'}`)
+        : []),
+    ];
   });
+  protected readonly hasPasses = computed(() => (this.data()?.passes?.features.length ?? 0) > 0);
+  protected readonly passColour = PLANNED_PASS_COLOUR;
   protected readonly key = computed(() => {
     const c = this.coverage();
     return c ? coverageKey(c) : [];
