@@ -242,7 +242,8 @@ export async function keptOutcome(
     return {
       status: err.status,
       code: err.code,
-      message: `${err.message} Your ${what} at ${hhmm(at, by.timeZone)} was kept as your log.`,
+      // Refused as tapped (a reading, the acres, the order of taps): not applied, but not lost.
+      message: `${err.message} Your ${what} at ${hhmm(at, by.timeZone)} was not applied; it is kept on record with the job.`,
       ...(err.fields ? { fields: err.fields } : {}),
     };
   throw err;

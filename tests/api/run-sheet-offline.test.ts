@@ -137,7 +137,7 @@ describe('run sheet actions sent later from a phone', () => {
     expect(res.status).toBe(409);
     expect(res.body.error).toMatchObject({
       code: 'invalid_transition',
-      message: `This job was already finished at ${hhmm(tap(520))}: a finish at ${hhmm(tap(510))} does not fit before it. Your finish at ${hhmm(tap(510))} was kept as your log.`,
+      message: `This job was already finished at ${hhmm(tap(520))}: a finish at ${hhmm(tap(510))} does not fit before it. Your finish at ${hhmm(tap(510))} was not applied; it is kept on record with the job.`,
       kept: { type: 'finish', at: tap(510) },
     });
     expect((await t.db('assignments').where({ id }).first()).acres_done).toBe(100);

@@ -123,7 +123,9 @@ describe('a phone outbox sent in one request', () => {
       singles.map((s) => same(s, oneByOne, singleIds)),
     );
     expect(results.map((r) => r.status)).toEqual([201, 409, 201, 400, 201, 201, 201]);
-    expect((results[1].body as { error: { message: string } }).error.message).toMatch(/was kept as your log\.$/);
+    expect((results[1].body as { error: { message: string } }).error.message).toMatch(
+      /was not applied; it is kept on record with the job\.$/,
+    );
     expect(await logged(twin)).toEqual([
       { type: 'start', at: tap(0) },
       { type: 'pause', at: tap(20) },
