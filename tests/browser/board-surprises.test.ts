@@ -133,7 +133,13 @@ describe('Work board without surprises in a real browser', () => {
       await sprayed.screenshot({ path: path.join(shots, 'board-surprises-3-finished-card.png') });
 
       // Publish, then add a card and move one: the column says so.
+      // The card that does not fit is a warning: Publish lists it once more before anything is sent.
       await page.getByRole('button', { name: 'Publish work orders' }).click();
+      const warned = page.getByRole('dialog', { name: 'Publish with warnings?' });
+      await warned.waitFor();
+      expect(await warned.locator('li').allInnerTexts()).toContainEqual(expect.stringMatching(/does not fit/));
+      await screenshot(page, 'board-surprises-publish-warnings');
+      await warned.getByRole('button', { name: 'Publish anyway' }).click();
       await page.getByRole('status').filter({ hasText: 'Work orders sent to' }).waitFor();
       const seeding = await db('assignments').where({ farm_id: farmId, day, operation: 'seeding' }).first();
       await db('assignments').where({ id: seeding.id }).update({ start_min: 900 });

@@ -219,6 +219,35 @@ describe('BoardPage', () => {
     expect(column('Tomas Reyes').textContent).toContain('Work order queued to send');
   });
 
+  it('when soft warnings stand, then Publish first lists them and sends only once the owner says Publish anyway', async () => {
+    const warned = board([card(1, TOMAS, 1), card(4, ADA, 1)], {
+      conflicts: [
+        { code: 'field_finished', severity: 'soft', message: 'Field 1 is already done for harrowing this season', assignmentIds: [1] },
+        { code: 'weather_no_go', severity: 'soft', message: 'Field 4 harrowing: No-go, wind 31 mph at 10:00', assignmentIds: [4] },
+        { code: 'weather_no_go', severity: 'soft', message: 'Field 4 harrowing: No-go, wind 31 mph at 10:00', assignmentIds: [4] },
+      ],
+    });
+    await load(warned);
+    button('Publish work orders').click();
+    await fixture.whenStable();
+    const dialog = document.querySelector('mat-dialog-container') as HTMLElement;
+    expect(dialog.querySelector('h2')?.textContent).toBe('Publish with warnings?');
+    expect([...dialog.querySelectorAll('li')].map((li) => li.textContent?.trim())).toEqual([
+      'Field 1 is already done for harrowing this season',
+      'Field 4 harrowing: No-go, wind 31 mph at 10:00',
+    ]);
+    http.expectNone(`/api/board/${DAY}/publish`);
+    button('Go back', dialog).click();
+    await fixture.whenStable();
+    http.expectNone(`/api/board/${DAY}/publish`);
+
+    button('Publish work orders').click();
+    await fixture.whenStable();
+    button('Publish anyway', document.querySelector('mat-dialog-container')!).click();
+    await fixture.whenStable();
+    expect(http.expectOne(`/api/board/${DAY}/publish`).request.body).toEqual({ version: 4 });
+  });
+
   describe('weather and empty days', () => {
     const REASON = 'wind 18.6 mph at 14:00, above the spraying limit of 10 mph';
 

@@ -11,7 +11,7 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { Router, RouterLink } from '@angular/router';
 import { OPERATION_INFO } from '@shared/operations';
-import type { Board, BoardAssignment, PublishResult, WorkOrderState } from '@shared/schemas/board';
+import type { Board, BoardAssignment, Conflict, PublishResult, WorkOrderState } from '@shared/schemas/board';
 import type { FieldSummary } from '@shared/schemas/fields';
 import type { CrewMember, Implement, Machine } from '@shared/schemas/fleet';
 import { type Observable, filter, map } from 'rxjs';
@@ -270,7 +270,27 @@ export class BoardPage {
     return null;
   }
 
+  /** Publishes the day; with warnings standing, once the owner has seen them and said so. */
   protected publish(): void {
+    const board = this.current();
+    if (!board || this.busy() || this.publishBlocked()) return;
+    const warnings = publishWarnings(board.conflicts);
+    if (!warnings.length) return this.sendOrders();
+    const data: ConfirmDialogData = {
+      title: 'Publish with warnings?',
+      message: `${warnings.length === 1 ? 'One warning stands' : `${warnings.length} warnings stand`} on this day's board. The work orders go out as the board stands.`,
+      items: warnings.length > 8 ? [...warnings.slice(0, 7), `And ${warnings.length - 7} more on the board.`] : warnings,
+      confirm: 'Publish anyway',
+      cancel: 'Go back',
+    };
+    this.dialog
+      .open<ConfirmDialog, ConfirmDialogData, boolean>(ConfirmDialog, { data, autoFocus: 'dialog' })
+      .afterClosed()
+      .pipe(filter((yes) => yes === true))
+      .subscribe(() => this.sendOrders());
+  }
+
+  private sendOrders(): void {
     const board = this.current();
     if (!board || this.busy() || this.publishBlocked()) return;
     const day = this.day();
@@ -346,6 +366,14 @@ export class BoardPage {
 function names(list: readonly { name: string }[]): string {
   const all = list.map((p) => p.name);
   return all.length <= 1 ? (all[0] ?? '') : `${all.slice(0, -1).join(', ')} and ${all[all.length - 1]}`;
+}
+
+/**
+ * What the owner sees once more before the orders go out: each soft conflict of the day (a field
+ * already done, a weather no-go, a day over its hours, a machine reported down …), once.
+ */
+export function publishWarnings(conflicts: readonly Conflict[]): string[] {
+  return [...new Set(conflicts.filter((c) => c.severity === 'soft').map((c) => c.message))];
 }
 
 /** "Work orders sent to Tomas Reyes and Milo Sorensen. Not changed, not sent again: Ada Lindqvist." */

@@ -7,6 +7,8 @@ export interface ConfirmDialogData {
   message: string;
   confirm: string;
   cancel?: string;
+  /** What to look at once more before confirming, one line each (shown as a list under the message). */
+  items?: readonly string[];
 }
 
 /** A yes/no question; closes with `true` when confirmed. Open it through MatDialog. */
