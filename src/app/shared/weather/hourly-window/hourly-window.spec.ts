@@ -94,6 +94,17 @@ describe('HourlyWindow', () => {
     expect(cells('Delta T')).toEqual([]);
   });
 
+  it('when a cold morning gives a reason an hour, then three show and the rest fold under "N more reasons"', () => {
+    const reasons = Array.from({ length: 18 }, (_, i) => `soil ${(26 + i / 10).toFixed(1)} °F at ${String(6 + i).padStart(2, '0')}:00`);
+    create({ ...WEATHER, verdict: { verdict: 'no-go', reasons } });
+    const shown = [...el.querySelectorAll('.reasons > li:not(.more)')].map((li) => li.textContent?.trim());
+    expect(shown).toEqual(reasons.slice(0, 3));
+    const more = el.querySelector('.reasons > li.more details') as HTMLDetailsElement;
+    expect(more.open).toBe(false);
+    expect(more.querySelector('summary')?.textContent?.trim()).toBe('15 more reasons');
+    expect([...more.querySelectorAll('li')].map((li) => li.textContent?.trim())).toEqual(reasons.slice(3));
+  });
+
   it('when the forecast is stale, then it says so beside its age, with the reason', () => {
     create({ ...WEATHER, stale: true, ageMinutes: 190, staleReason: 'Forecast from 3.2 h ago: no newer forecast has arrived' });
     expect(el.querySelector('.age')?.textContent?.replace(/\s+/g, ' ').trim()).toBe('Forecast from 07:00, 3.2 h old, stale');

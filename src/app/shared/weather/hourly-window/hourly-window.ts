@@ -38,6 +38,11 @@ export class HourlyWindow {
   readonly key = input.required<number>();
 
   protected readonly verdictWords = VERDICT_WORDS;
+  /**
+   * The reasons shown at once, worst first; the rest fold away (a cold morning gives one line an
+   * hour), so the job's map and hazards below stay near the top of a phone's screen.
+   */
+  protected readonly firstReasons = 3;
   protected readonly age = computed(() => {
     const w = this.weather();
     if (!w.issuedAt || w.ageMinutes === null) return null;
