@@ -40,8 +40,10 @@ export async function listFields(deps: AppDeps, farmId: number, season: number):
   return rows.map((r) => ({
     id: r.id,
     name: r.name,
-    acres: roundTo(r.acres),
-    hectares: roundTo(acresToHa(r.acres)),
+    // To 0.0001 like a field's own page: the screen rounds once, to its one decimal. Two decimals
+    // here rounded twice (152.8468 → 152.85 → "152.9" in the list, "152.8" everywhere else).
+    acres: roundTo(r.acres, 4),
+    hectares: roundTo(acresToHa(r.acres), 4),
     crop: r.crop,
     hazardCount: r.hazard_count,
     lastOperation: r.last_operation ? { operation: r.last_operation, date: r.last_operation_day! } : null,
