@@ -265,16 +265,16 @@ export class PassPlanPage implements HasUnsavedChanges {
       const f = this.detail();
       if (!this.isOwner() || !s || !f) return;
       let request: PlanInput | Error;
+      try {
+        request = toPlanInput(s, f, this.system());
+      } catch (err) {
+        // A box left empty: the form's prompt for it ("Enter the working width in feet.").
+        request = err instanceof Error ? err : new Error(String(err));
+      }
       // A setting the form refuses is said in the form's words (its box and label), not planned
       // and refused again by the planner in metres ("got -1.524").
       const refused = this.typed().message;
-      if (refused) request = new Error(refused);
-      else
-        try {
-          request = toPlanInput(s, f, this.system());
-        } catch (err) {
-          request = err instanceof Error ? err : new Error(String(err));
-        }
+      if (refused && !(request instanceof Error)) request = new Error(refused);
       untracked(() => this.planner.request(request));
     });
 
