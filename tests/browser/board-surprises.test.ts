@@ -4,7 +4,7 @@
 import path from 'node:path';
 import { formatHours } from '../../shared/figures';
 import type { Board } from '../../shared/schemas/board';
-import { demo, screenshot, seriousViolations, signIn, startRig, type BrowserRig, freeBoardDay } from '../support/browser';
+import { demo, screenshot, seriousViolations, signIn, startRig, type BrowserRig, freeBoardDay, openedDialog } from '../support/browser';
 
 const STORY_MS = 180_000;
 
@@ -135,8 +135,8 @@ describe('Work board without surprises in a real browser', () => {
       // Publish, then add a card and move one: the column says so.
       // The card that does not fit is a warning: Publish lists it once more before anything is sent.
       await page.getByRole('button', { name: 'Publish work orders' }).click();
-      const warned = page.getByRole('dialog', { name: 'Publish with warnings?' });
-      await warned.waitFor();
+      const warned = await openedDialog(page);
+      expect(await warned.getByRole('heading').innerText()).toBe('Publish with warnings?');
       expect(await warned.locator('li').allInnerTexts()).toContainEqual(expect.stringMatching(/does not fit/));
       await screenshot(page, 'board-surprises-publish-warnings');
       await warned.getByRole('button', { name: 'Publish anyway' }).click();
