@@ -413,6 +413,9 @@ describe('state machine and credits', () => {
     // A credit note is not paid: no payment link in it.
     expect(text).not.toContain('Pay online');
     expect(mail.text).not.toContain('/pay/');
+    // The accountant's export names the credited invoice by its number too, never a database id.
+    const csv = (await owner.get('/api/invoices/export/invoices.csv')).text.replace(/^\uFEFF/, '').split('\r\n');
+    expect(csv.find((r) => r.startsWith(`${note.number},credit,`))!.split(',')[11]).toBe(String(inv.number));
     // Mailed once: the invoice's own e-mail and this one, nothing more.
     expect(t.mail.to(inv.customerEmail).map((m) => m.subject.split(' from ')[0])).toEqual([
       `Invoice ${inv.number}`,
@@ -548,7 +551,7 @@ describe('who sees money', () => {
     expect(csv.status).toBe(200);
     expect(csv.headers['content-type']).toContain('text/csv');
     const rows = csv.text.replace(/^\uFEFF/, '').split('\r\n');
-    expect(rows[0]).toBe('number,kind,state,customer,issued_on,period_from,period_to,currency,subtotal,tax,total,credit_of_id,paid_on');
+    expect(rows[0]).toBe('number,kind,state,customer,issued_on,period_from,period_to,currency,subtotal,tax,total,credits_invoice,paid_on');
     // The draft's total in dollars: cents ÷ 100 with two decimals (49,938 ¢ → 499.38).
     expect(rows.find((r) => r.startsWith(`${inv.number},`))).toContain(',499.38,');
     expect((await viewer.get('/api/invoices/export/payments.csv')).text).toContain('paid_on,invoice_number');

@@ -254,7 +254,7 @@ describe('Custom work billed and paid online, in a real browser', () => {
     const ours = rows.find((r) => r.startsWith(`${invoiceNumber},`));
     expect(ours).toBeDefined();
     expect(ours).toContain(CUSTOMER);
-    expect(ours).toContain(`,usd,${(TOTAL_CENTS / 100).toFixed(2)},`);
+    expect(ours).toContain(`,USD,${(TOTAL_CENTS / 100).toFixed(2)},`);
     // The viewer reads the invoice but has no button to change it.
     await viewer.goto(invoicePath);
     await viewer.getByTestId('invoice-total').waitFor();
