@@ -39,6 +39,7 @@ const invoice = (state: InvoiceDetail['state']) =>
     note: null,
     voidReason: null,
     creditOfNumber: null,
+    creditedByNumber: null,
     lines: [line('Long Coulee West Half by the Correction Line Road', 800_313), line('Section 9', 1_600_813)],
     paymentUrl: null,
     paymentError: null,

@@ -16,6 +16,7 @@ export interface InvoiceRow {
   credited_by: number | null;
   /** The number of the invoice a credit note credits (read with the row, never stored). */
   credit_of_number?: number | null;
+  credited_by_number?: number | null;
   period_from: string;
   period_to: string;
   issued_on: string;
@@ -71,6 +72,7 @@ const invoiceQuery = (db: Tx) =>
     'i.*',
     db.raw('(select c.id from invoices c where c.credit_of = i.id) as credited_by'),
     db.raw('(select o.number from invoices o where o.id = i.credit_of) as credit_of_number'),
+    db.raw('(select c.number from invoices c where c.credit_of = i.id) as credited_by_number'),
   );
 
 export const listInvoices = (db: Tx, farmId: number): Promise<InvoiceRow[]> =>
@@ -163,6 +165,7 @@ export async function insertInvoice(
     | 'id'
     | 'credited_by'
     | 'credit_of_number'
+    | 'credited_by_number'
     | 'sent_at'
     | 'paid_at'
     | 'voided_at'
@@ -183,7 +186,7 @@ export async function insertInvoice(
 export async function updateInvoice(
   db: Tx,
   id: number,
-  change: Partial<Omit<InvoiceRow, 'id' | 'credited_by' | 'credit_of_number'>>,
+  change: Partial<Omit<InvoiceRow, 'id' | 'credited_by' | 'credit_of_number' | 'credited_by_number'>>,
 ): Promise<void> {
   await db('invoices')
     .where({ id })

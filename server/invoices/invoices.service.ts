@@ -78,6 +78,7 @@ export async function getInvoice(db: Tx, farmId: number, id: number): Promise<In
     note: r.note,
     voidReason: r.void_reason,
     creditOfNumber: r.credit_of_number ?? null,
+    creditedByNumber: r.credited_by_number ?? null,
     lines: lines.map((l) => ({
       position: l.position,
       assignmentId: l.assignment_id,

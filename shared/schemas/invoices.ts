@@ -116,6 +116,8 @@ export const invoiceDetail = invoiceListItem.extend({
   voidReason: z.string().nullable(),
   /** The number of the invoice a credit note credits (what the customer knows it by). */
   creditOfNumber: z.number().int().nullable(),
+  /** The number of the credit note that credits this invoice, if any. */
+  creditedByNumber: z.number().int().nullable(),
   lines: z.array(invoiceLine),
   /** The hosted checkout the mailed link opens (null until one was made). */
   paymentUrl: z.string().nullable(),

@@ -364,7 +364,11 @@ describe('state machine and credits', () => {
     expect((await owner.post(`/api/invoices/${note.id}/send`)).status).toBe(409);
     // The invoice itself: the same row, only now referenced by its credit note.
     expect(await t.db('invoices').where({ id: inv.id }).first()).toEqual(before);
-    expect((await owner.get(`/api/invoices/${inv.id}`)).body).toMatchObject({ state: 'paid', creditedBy: note.id });
+    expect((await owner.get(`/api/invoices/${inv.id}`)).body).toMatchObject({
+      state: 'paid',
+      creditedBy: note.id,
+      creditedByNumber: note.number,
+    });
     const pdf = await owner
       .get(`/api/invoices/${note.id}/pdf`)
       .buffer(true)

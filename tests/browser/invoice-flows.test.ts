@@ -275,6 +275,11 @@ describe('Invoice flows in a real browser: paying, a declined card, void, credit
       .click();
     await ownerPage.getByRole('heading', { level: 1, name: `Invoice ${paid.number}` }).waitFor();
     expect(await ownerPage.locator('app-state-chip').innerText()).toContain('Paid, credited');
+    // It names its credit note by number, as the customer knows it.
+    await ownerPage
+      .locator('.facts')
+      .getByRole('link', { name: `Credit note ${noteNumber}` })
+      .waitFor();
     expect(await ownerPage.getByRole('button', { name: /^(Send|Void|Credit note)$/ }).count()).toBe(0);
     expect(await ownerPage.getByTestId('invoice-total').innerText()).toBe(usd(paid.totalCents));
     await screenshot(ownerPage, 'invoice-flows-6-invoice-credited');
