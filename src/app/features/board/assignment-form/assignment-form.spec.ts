@@ -82,6 +82,7 @@ describe('AssignmentForm', () => {
     form().patchValue({ operation: 'harrowing' });
     await fixture.whenStable();
     expect(fixture.nativeElement.textContent).toContain('Milo Sorensen is learning harrowing: choose a mentor');
+    expect((fixture.nativeElement as HTMLElement).querySelector('.needs-mentor')?.textContent).toContain('choose a mentor');
     expect(await options('Mentor')).toEqual(['No mentor', 'Tomas Reyes']);
     expect(await options('Operator')).toContain('Milo Sorensen (learning)');
   });
@@ -95,6 +96,8 @@ describe('AssignmentForm', () => {
     await fixture.whenStable();
     expect(fixture.componentInstance['form'].getRawValue().mentorId).toBeNull();
     expect(fixture.nativeElement.textContent).toContain('Tomas Reyes is qualified for harrowing: no mentor needed.');
+    // Said plainly, not in the error colour kept for a card that needs a mentor.
+    expect((fixture.nativeElement as HTMLElement).querySelector('.needs-mentor')).toBeNull();
     expect(await options('Mentor')).toEqual(['No mentor']);
     submit();
     const req = http.expectOne('/api/assignments/3');

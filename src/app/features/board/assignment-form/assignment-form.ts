@@ -52,7 +52,8 @@ export interface AssignmentFormData {
   boardChanged: (board: Board) => void;
 }
 
-const SKILL_WORDS: Record<SkillLevel, string> = { qualified: 'qualified', learning: 'learning', mentor: 'mentor' };
+// Said of the operator beside their name: 'mentor' alone read as their role on the card.
+const SKILL_WORDS: Record<SkillLevel, string> = { qualified: 'qualified', learning: 'learning', mentor: 'qualified, can mentor' };
 
 /** Whether a machine can work an implement, by the same rule the server's conflict check uses. */
 export function canWork(machine: Machine, implement: Implement): boolean {
@@ -150,17 +151,21 @@ export class AssignmentForm {
     const implement = this.data.implements.find((i) => i.id === this.value().implementId);
     return implement ? this.data.machines.filter((m) => canWork(m, implement)) : this.data.machines;
   });
-  /** What the mentor field says of the operator: whether they need a mentor for the operation. */
-  protected readonly mentorHint = computed(() => {
+  /** What the mentor field says of the operator: whether they need a mentor for the operation (marked when they do). */
+  protected readonly mentorHint = computed((): { text: string; needed: boolean } | null => {
     const op = this.operation();
     const operator = this.data.crew.find((c) => c.membershipId === this.value().operatorId);
     if (!op || !operator) return null;
     const level = operator.skills[op];
     const label = OPERATION_INFO[op].label.toLowerCase();
-    if (worksAlone(level)) return `${operator.name} is qualified for ${label}: no mentor needed.`;
-    return level === 'learning'
-      ? `${operator.name} is learning ${label}: choose a mentor who works the same field that day.`
-      : `${operator.name} is not trained for ${label}: choose a mentor.`;
+    if (worksAlone(level)) return { text: `${operator.name} is qualified for ${label}: no mentor needed.`, needed: false };
+    return {
+      text:
+        level === 'learning'
+          ? `${operator.name} is learning ${label}: choose a mentor who works the same field that day.`
+          : `${operator.name} is not trained for ${label}: choose a mentor.`,
+      needed: true,
+    };
   });
   /** Only people who may mentor the operation, never the operator, and nobody when the operator works alone. */
   protected readonly mentorOptions = computed(() => {
