@@ -3,7 +3,7 @@
 // does), and the operator's job shows the hours of its window with the spraying verdict.
 import path from 'node:path';
 import { refreshFarmWeather } from '../../server/weather/weather.service';
-import { demo, screenshot, seriousViolations, signIn, startRig, type BrowserRig, freeBoardDay } from '../support/browser';
+import { demo, screenshot, seriousViolations, signIn, startRig, type BrowserRig, freeBoardDay, openedDialog } from '../support/browser';
 
 const STORY_MS = 180_000;
 
@@ -98,6 +98,14 @@ describe('Run sheet weather on a phone in a real browser', () => {
       await win.scrollIntoViewIfNeeded();
       const shots = path.dirname(await screenshot(page, 'run-sheet-weather-1-phone'));
       await win.screenshot({ path: path.join(shots, 'run-sheet-weather-2-window.png') });
+
+      // Start says the no-go once more, in the dialog the operator reads before setting off.
+      await panel.getByRole('button', { name: 'Start' }).click();
+      const dialog = await openedDialog(page);
+      expect(await dialog.locator('[data-start-no-go]').innerText()).toContain(reason);
+      await screenshot(page, 'run-sheet-weather-3-start-no-go');
+      await dialog.getByRole('button', { name: 'Cancel' }).click();
+      await dialog.waitFor({ state: 'detached' });
     },
     STORY_MS,
   );

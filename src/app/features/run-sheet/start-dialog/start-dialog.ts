@@ -36,6 +36,11 @@ export class StartDialog {
   private readonly outbox = inject(OutboxStore);
   private readonly ref = inject<MatDialogRef<StartDialog>>(MatDialogRef);
   protected readonly data = inject<JobDialogData>(MAT_DIALOG_DATA);
+  /** The forecast's first no-go reason over the job's hours, said once more before starting; null when not no-go. */
+  protected readonly noGo = (): string | null => {
+    const v = this.data.item.weather?.verdict;
+    return v?.verdict === 'no-go' ? (v.reasons[0] ?? 'see the forecast on the run sheet') : null;
+  };
 
   protected readonly form = new FormGroup({
     engineHours: new FormControl<number | null>(startDefaults(this.data.item).engineHours, [
