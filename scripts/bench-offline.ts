@@ -21,7 +21,8 @@ import { HttpClient, startServerProcess } from '../tests/support/server-process'
 import { insertImplement, insertMachine } from '../tests/api/matrix/board';
 // @ts-expect-error -- the set-up helpers are plain ES modules without types
 import { LocalCluster, intEnv } from './lib/setup.mjs';
-import { OUTBOX_BATCH_MAX, type OutboxAnswer } from '../shared/schemas/run-sheet';
+import { OUTBOX_BATCH_MAX } from '../shared/limits';
+import type { OutboxAnswer } from '../shared/schemas/run-sheet';
 
 const DATABASE = 'furlong_bench_offline';
 const JOBS = 40;

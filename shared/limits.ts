@@ -74,3 +74,9 @@ export const LIMIT_TEXT = {
   boundary: `A boundary may have at most ${int(MAX_BOUNDARY_VERTICES)} points in ${int(MAX_BOUNDARY_RINGS)} rings.`,
   plan: `A plan may have at most ${int(MAX_PASSES)} passes and ${int(MAX_SEGMENTS)} pass segments.`,
 } as const;
+
+/** The most actions one send of a phone's outbox may carry (`POST /api/run-sheet/outbox`). */
+export const OUTBOX_BATCH_MAX = 200;
+
+/** Points in one chunk of a phone's recorded track: a few minutes of driving at one point a second. */
+export const MAX_POINTS_PER_CHUNK = 600;

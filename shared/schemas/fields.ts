@@ -4,20 +4,9 @@ import { FIELD_NAME_MAX, FIELD_NAME_PROBLEM_CODES, type FieldNameProblemCode } f
 import { BOUNDARY_PROBLEM_CODES } from '../geo/boundary-problem-codes';
 import { dbId, idParam, textWithoutNul } from './common';
 
-export const HAZARD_KINDS = ['bin', 'rock', 'power', 'draw', 'waterway', 'fence', 'neighbour', 'other'] as const;
-export type HazardKind = (typeof HAZARD_KINDS)[number];
+import { HAZARD_KINDS } from './terms';
 
-/** What each hazard kind is called on screen. */
-export const HAZARD_LABELS: Record<HazardKind, string> = {
-  bin: 'Bin or yard site',
-  rock: 'Rock',
-  power: 'Power pole or line',
-  draw: 'Draw or steep break',
-  waterway: 'Waterway',
-  fence: 'Fence',
-  neighbour: "Neighbour's edge",
-  other: 'Other',
-};
+export { HAZARD_KINDS, HAZARD_LABELS, type HazardKind } from './terms';
 
 export const CROPS = [
   'spring wheat',

@@ -2,23 +2,19 @@
 // work board, the run sheet and the season report all speak of jobs in these terms.
 import * as z from 'zod';
 
-export const ASSIGNMENT_STATES = ['planned', 'underway', 'paused', 'finished', 'called-off'] as const;
-export type AssignmentState = (typeof ASSIGNMENT_STATES)[number];
-export const STATE_LABELS: Record<AssignmentState, string> = {
-  planned: 'planned',
-  underway: 'underway',
-  paused: 'paused',
-  finished: 'finished',
-  'called-off': 'called off',
-};
+import type { CALL_OFF_REASONS, EventType } from './terms';
 
-export const EVENT_TYPES = ['start', 'pause', 'resume', 'finish', 'call-off'] as const;
-export type EventType = (typeof EVENT_TYPES)[number];
+export {
+  ASSIGNMENT_STATES,
+  CALL_OFF_REASONS,
+  EVENT_TYPES,
+  PROBLEM_KINDS,
+  STATE_LABELS,
+  type AssignmentState,
+  type EventType,
+} from './terms';
 /** What the log may also hold besides the operator's buttons. */
 export type LoggedEventType = EventType | 'problem' | 'log-edited' | 'log-deleted';
-
-export const CALL_OFF_REASONS = ['weather', 'breakdown', 'other'] as const;
-export const PROBLEM_KINDS = ['breakdown', 'hazard', 'other'] as const;
 
 /** A note on a job or a logged entry. */
 export const jobNote = z.string().trim().max(1000, 'Use at most 1000 characters').nullable().optional();

@@ -1,9 +1,8 @@
 // The track a job operator's phone records while the job is underway (the run sheet's "Record
 // track"), sent to the farm's own server in chunks, and what the server keeps of it.
 import * as z from 'zod';
+import { MAX_POINTS_PER_CHUNK } from '../limits';
 
-/** Points in one chunk: a few minutes of driving at one point a second. */
-export const MAX_POINTS_PER_CHUNK = 600;
 /** Points kept for one job: more than a 24-hour day at one point a second. */
 export const MAX_PHONE_TRACK_POINTS = 100_000;
 

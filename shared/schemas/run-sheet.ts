@@ -4,6 +4,7 @@ import * as z from 'zod';
 import type { Operation } from '../operations';
 import type { Verdict, VerdictLevel } from '../weather/rules';
 import type { BoardAssignment } from './board';
+import { OUTBOX_BATCH_MAX } from '../limits';
 import { dbId, isoDate } from './common';
 import { HAZARD_KINDS } from './fields';
 import type { MachineKind } from './fleet';
@@ -83,9 +84,6 @@ export const problemBody = z
   })
   .refine((v) => !v.geometry || v.kind === 'hazard', { message: 'Only a hazard report carries a place on the map', path: ['geometry'] });
 export type ProblemInput = z.infer<typeof problemBody>;
-
-/** The most actions one send of the outbox may carry (`POST /api/run-sheet/outbox`). */
-export const OUTBOX_BATCH_MAX = 200;
 
 /**
  * A phone's waiting actions sent at once, in tap order: each is what `POST /api/assignments/:id/events`

@@ -1,7 +1,8 @@
 import { randomUUID } from 'node:crypto';
 import bcrypt from 'bcryptjs';
 import type { Board } from '../../shared/schemas/board';
-import { OUTBOX_BATCH_MAX, type OutboxResult } from '../../shared/schemas/run-sheet';
+import { OUTBOX_BATCH_MAX } from '../../shared/limits';
+import type { OutboxResult } from '../../shared/schemas/run-sheet';
 import { makeFarm, type TestFarm } from '../support/farm-factory';
 import { rect } from '../support/geo-fixtures';
 import { Client, startTestApp, type TestApp } from '../support/test-app';

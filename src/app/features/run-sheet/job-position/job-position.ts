@@ -3,7 +3,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { formatHeading } from '@shared/figures';
 import { type HazardAt, type Where, headingBetween, savedPlanInput, whereAmI } from '@shared/plan/where';
-import { HAZARD_LABELS, type HazardKind } from '@shared/schemas/fields';
+import { HAZARD_LABELS, type HazardKind } from '@shared/schemas/terms';
 import type { RunSheetItem } from '@shared/schemas/run-sheet';
 import * as L from 'leaflet';
 import { Units } from '../../../shared/units/units';

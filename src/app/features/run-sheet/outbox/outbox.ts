@@ -4,7 +4,8 @@
 // person who tapped it only (the same user on the same farm). The server records each id once, so sending an
 // action twice is harmless. The same database keeps the person's run sheets as last read, so a
 // reload with no signal still shows the day.
-import { OUTBOX_BATCH_MAX, type EventInput, type ProblemInput, type RunSheet } from '@shared/schemas/run-sheet';
+import { OUTBOX_BATCH_MAX } from '@shared/limits';
+import type { EventInput, ProblemInput, RunSheet } from '@shared/schemas/run-sheet';
 import { openDB, type DBSchema, type IDBPDatabase } from 'idb';
 
 /** A logged step (start, pause, resume, finish, call off) or a problem report, without its id and tap time. */

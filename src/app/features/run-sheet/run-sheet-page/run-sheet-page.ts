@@ -23,7 +23,7 @@ import { MatSelectModule } from '@angular/material/select';
 import { Router } from '@angular/router';
 import { daySpan, farmTime } from '@shared/farm-time';
 import { OPERATION_INFO } from '@shared/operations';
-import { STATE_LABELS } from '@shared/schemas/jobs';
+import { STATE_LABELS } from '@shared/schemas/terms';
 import type { RunSheet, RunSheetItem } from '@shared/schemas/run-sheet';
 import type { CrewMember } from '@shared/schemas/fleet';
 import { messageOf } from '../../../core/http/api-error';

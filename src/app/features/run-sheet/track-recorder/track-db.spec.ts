@@ -1,4 +1,4 @@
-import { MAX_POINTS_PER_CHUNK } from '@shared/schemas/phone-track';
+import { MAX_POINTS_PER_CHUNK } from '@shared/limits';
 import { freshDeviceStorage } from '../testing/device';
 import { TrackDb } from './track-db';
 import type { RecordedFix } from './track-thinning';

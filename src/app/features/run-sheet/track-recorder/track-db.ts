@@ -3,7 +3,7 @@
 // farm's server), and which jobs the operator turned "Record track" on for. A database of its
 // own, apart from the run sheet's outbox, so a reload or a closed browser loses nothing.
 import type { TrackPointInput } from '@shared/schemas/phone-track';
-import { MAX_POINTS_PER_CHUNK } from '@shared/schemas/phone-track';
+import { MAX_POINTS_PER_CHUNK } from '@shared/limits';
 import { openDB, type DBSchema, type IDBPDatabase } from 'idb';
 import type { RecordedFix } from './track-thinning';
 
