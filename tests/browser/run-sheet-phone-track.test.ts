@@ -55,7 +55,9 @@ describe('Record track on the run sheet, in a real browser', () => {
   async function openJob(page: Page): Promise<Locator> {
     const panel = page.locator('mat-expansion-panel').filter({ hasText: job.fieldName });
     await panel.waitFor();
-    if (!(await panel.locator('app-track-recorder').count())) await panel.locator('mat-expansion-panel-header').click();
+    // The panel opens by itself when it is the day's only job; its map and aids load just after.
+    const header = panel.locator('mat-expansion-panel-header');
+    if ((await header.getAttribute('aria-expanded')) !== 'true') await header.click();
     await panel.locator('app-track-recorder').waitFor();
     return panel;
   }

@@ -101,7 +101,9 @@ describe('Where am I on the run sheet, in a real browser', () => {
     await page.goto(`/run-sheet?date=${day}`);
     const panel = page.locator('mat-expansion-panel').filter({ hasText: fieldName });
     await panel.waitFor();
-    if (!(await panel.locator('app-job-position').count())) await panel.locator('mat-expansion-panel-header').click();
+    // The panel opens by itself when it is the day's only job; its map and aids load just after.
+    const header = panel.locator('mat-expansion-panel-header');
+    if ((await header.getAttribute('aria-expanded')) !== 'true') await header.click();
     await panel.locator('app-job-position').waitFor();
     return page;
   }

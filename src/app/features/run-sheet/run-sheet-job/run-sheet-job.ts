@@ -9,6 +9,7 @@ import {
   linkedSignal,
   signal,
 } from '@angular/core';
+import { NgTemplateOutlet } from '@angular/common';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
@@ -30,18 +31,25 @@ import { AreaPipe } from '../../../shared/units/area-pipe';
 import { LengthPipe } from '../../../shared/units/length-pipe';
 import { Units } from '../../../shared/units/units';
 import { hoursText } from '../../board/board-day';
-import { CallOffDialog } from '../call-off-dialog/call-off-dialog';
 import { CautionsRead } from '../cautions-read';
-import { FinishDialog } from '../finish-dialog/finish-dialog';
 import type { OutboxEntry } from '../outbox/outbox';
 import { ACTION_ICONS, ACTION_LABELS, type UnsentAction, actionsFor, canReportProblem, withUnsent } from '../job-actions';
 import { OutboxStore } from '../outbox-store';
 import { JobPosition } from '../job-position/job-position';
-import { ProblemDialog } from '../problem-dialog/problem-dialog';
 import { TrackRecorder } from '../track-recorder/track-recorder';
-import { type JobDialogData, StartDialog } from '../start-dialog/start-dialog';
+import type { JobDialogData } from '../start-dialog/start-dialog';
 
-const DIALOGS: Partial<Record<EventType, Type<unknown>>> = { start: StartDialog, finish: FinishDialog, 'call-off': CallOffDialog };
+/**
+ * The dialogs, loaded when first asked for: they are not needed to show the run sheet, so they stay
+ * out of the code the page waits for (the service worker keeps them on the phone all the same).
+ */
+type DialogLoader = () => Promise<Type<unknown>>;
+const DIALOGS: Partial<Record<EventType, DialogLoader>> = {
+  start: () => import('../start-dialog/start-dialog').then((m) => m.StartDialog),
+  finish: () => import('../finish-dialog/finish-dialog').then((m) => m.FinishDialog),
+  'call-off': () => import('../call-off-dialog/call-off-dialog').then((m) => m.CallOffDialog),
+};
+const problemDialog: DialogLoader = () => import('../problem-dialog/problem-dialog').then((m) => m.ProblemDialog);
 
 const EVENT_WORDS: Record<AssignmentEvent['type'], string> = {
   start: 'Started',
@@ -64,7 +72,18 @@ const EVENT_WORDS: Record<AssignmentEvent['type'], string> = {
 @Component({
   selector: 'app-run-sheet-job',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [AreaPipe, FieldMap, HazardSymbol, HourlyWindow, JobPosition, LengthPipe, MatButtonModule, MatIconModule, TrackRecorder],
+  imports: [
+    AreaPipe,
+    FieldMap,
+    NgTemplateOutlet,
+    HazardSymbol,
+    HourlyWindow,
+    JobPosition,
+    LengthPipe,
+    MatButtonModule,
+    MatIconModule,
+    TrackRecorder,
+  ],
   templateUrl: './run-sheet-job.html',
   styleUrl: './run-sheet-job.scss',
 })
@@ -190,19 +209,24 @@ export class RunSheetJob {
 
   protected report(): void {
     this.failure.set(null);
-    this.openDialog(ProblemDialog, new Date().toISOString());
+    this.openDialog(problemDialog, new Date().toISOString());
   }
 
-  private openDialog(component: Type<unknown>, at: string): void {
-    // The job as the operator sees it, unsent actions included: a finish after an offline start
-    // starts from that start's meter reading.
-    const data: JobDialogData = { item: this.job(), at };
-    this.dialog.open<unknown, JobDialogData>(component, {
-      data,
-      width: '30rem',
-      maxWidth: 'calc(100vw - 1rem)',
-      autoFocus: 'first-tabbable',
-    });
+  private openDialog(load: DialogLoader, at: string): void {
+    load().then(
+      (component) => {
+        // The job as the operator sees it, unsent actions included: a finish after an offline start
+        // starts from that start's meter reading.
+        const data: JobDialogData = { item: this.job(), at };
+        this.dialog.open<unknown, JobDialogData>(component, {
+          data,
+          width: '30rem',
+          maxWidth: 'calc(100vw - 1rem)',
+          autoFocus: 'first-tabbable',
+        });
+      },
+      (err: unknown) => this.failure.set(`The form could not be opened on this phone (${messageOf(err)}). Nothing was kept: tap again.`),
+    );
   }
 
   /** Pause and resume: one tap writes it to the outbox with the tap time; sending follows. */
