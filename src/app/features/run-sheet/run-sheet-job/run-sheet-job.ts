@@ -1,6 +1,7 @@
 import {
   ChangeDetectionStrategy,
   Component,
+  Injector,
   type Type,
   afterRenderEffect,
   computed,
@@ -11,7 +12,6 @@ import {
 } from '@angular/core';
 import { NgTemplateOutlet } from '@angular/common';
 import { MatButtonModule } from '@angular/material/button';
-import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
 import { daySpan, farmTime } from '@shared/farm-time';
 import { formatEngineHours, formatPassHeading } from '@shared/figures';
@@ -89,7 +89,7 @@ const EVENT_WORDS: Record<AssignmentEvent['type'], string> = {
 })
 export class RunSheetJob {
   private readonly outbox = inject(OutboxStore);
-  private readonly dialog = inject(MatDialog);
+  private readonly injector = inject(Injector);
   private readonly units = inject(Units);
   private readonly auth = inject(AuthStore);
   private readonly cautionsRead = inject(CautionsRead);
@@ -213,12 +213,13 @@ export class RunSheetJob {
   }
 
   private openDialog(load: DialogLoader, at: string): void {
-    load().then(
-      (component) => {
+    // The dialog service comes with the first dialog, out of the code the run sheet waits for.
+    Promise.all([load(), import('@angular/material/dialog')]).then(
+      ([component, { MatDialog }]) => {
         // The job as the operator sees it, unsent actions included: a finish after an offline start
         // starts from that start's meter reading.
         const data: JobDialogData = { item: this.job(), at };
-        this.dialog.open<unknown, JobDialogData>(component, {
+        this.injector.get(MatDialog).open<unknown, JobDialogData>(component, {
           data,
           width: '30rem',
           maxWidth: 'calc(100vw - 1rem)',

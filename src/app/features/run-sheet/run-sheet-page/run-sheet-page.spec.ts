@@ -1,7 +1,7 @@
 import { webcrypto } from 'node:crypto';
 import { provideHttpClient, withInterceptors } from '@angular/common/http';
 import { HttpTestingController, type TestRequest, provideHttpClientTesting } from '@angular/common/http/testing';
-import { type ComponentFixture, TestBed } from '@angular/core/testing';
+import { type ComponentFixture, DeferBlockState, TestBed } from '@angular/core/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { provideRouter } from '@angular/router';
 import type { Me } from '@shared/schemas/auth';
@@ -347,6 +347,12 @@ describe('RunSheetPage for the owner', () => {
 
   afterEach(() => http.verify());
 
+  /** The person list loads after the page is shown (a deferred block): let it come in. */
+  async function renderDeferred(): Promise<void> {
+    for (const block of await fixture.getDeferBlocks()) await block.render(DeferBlockState.Complete);
+    fixture.detectChanges();
+  }
+
   it("when the owner opens an operator's run sheet, then that person's sheet is asked for and a note says whom they log for", async () => {
     fixture.componentRef.setInput('person', String(TOMAS.membershipId));
     fixture.detectChanges();
@@ -357,6 +363,7 @@ describe('RunSheetPage for the owner', () => {
     await fixture.whenStable();
     expect(el.querySelector('[role="note"]')?.textContent).toContain(`You are logging for ${TOMAS.name}`);
     expect(el.textContent).toContain(`Nothing on ${TOMAS.name}'s run sheet for this day.`);
+    await renderDeferred();
     expect(el.textContent).toContain('Whose run sheet');
   });
 
@@ -369,6 +376,7 @@ describe('RunSheetPage for the owner', () => {
       .flush({ date: '2031-05-15', person: { membershipId: 1, name: 'Ingrid Sorensen' }, assignments: [] });
     await fixture.whenStable();
     expect(el.querySelector('[role="note"]')).toBeNull();
+    await renderDeferred();
     (el.querySelector('mat-select') as HTMLElement).click();
     fixture.detectChanges();
     await fixture.whenStable();

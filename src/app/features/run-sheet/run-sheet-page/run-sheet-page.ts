@@ -12,14 +12,13 @@ import {
   untracked,
 } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
-import { provideNativeDateAdapter } from '@angular/material/core';
-import { type MatDatepickerInputEvent, MatDatepickerModule } from '@angular/material/datepicker';
 import { MatExpansionModule } from '@angular/material/expansion';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
-import { MatSelectModule } from '@angular/material/select';
+import { MatOption } from '@angular/material/core';
+import { MatSelect } from '@angular/material/select';
 import { Router } from '@angular/router';
 import { daySpan, farmTime } from '@shared/farm-time';
 import { OPERATION_INFO } from '@shared/operations';
@@ -27,7 +26,7 @@ import { STATE_LABELS } from '@shared/schemas/terms';
 import type { RunSheet, RunSheetItem } from '@shared/schemas/run-sheet';
 import type { CrewMember } from '@shared/schemas/fleet';
 import { messageOf } from '../../../core/http/api-error';
-import { addDays, dateOf, isIsoDay, isoDay, longDay, today } from '../../board/board-day';
+import { addDays, dateOf, isIsoDay, longDay, today } from '../../board/board-day';
 import { RunSheetJob } from '../run-sheet-job/run-sheet-job';
 import { JobCoverageMap } from '../../../shared/map/job-coverage/job-coverage';
 import { runSheetUrl } from '../run-sheet-api';
@@ -64,17 +63,16 @@ export function firstOpen(items: readonly RunSheetItem[]): number | null {
   changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [
     MatButtonModule,
-    MatDatepickerModule,
     MatExpansionModule,
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
     MatProgressBarModule,
-    MatSelectModule,
+    MatSelect,
+    MatOption,
     RunSheetJob,
     JobCoverageMap,
   ],
-  providers: [provideNativeDateAdapter()],
   templateUrl: './run-sheet-page.html',
   styleUrl: './run-sheet-page.scss',
 })
@@ -92,7 +90,6 @@ export class RunSheetPage {
     return isIsoDay(asked) ? asked : null;
   });
   protected readonly day = computed(() => this.asked() ?? this.shown()?.date ?? today(this.auth.farm()?.timeZone));
-  protected readonly dayDate = computed(() => dateOf(this.day()));
   protected readonly dayLabel = computed(() => longDay(this.day()));
 
   /** `?person=<membership id>` (owner only): whose run sheet; the signed-in person's own when absent. */
@@ -253,7 +250,9 @@ export class RunSheetPage {
     this.goTo(addDays(this.day(), days));
   }
 
-  protected picked(event: MatDatepickerInputEvent<Date>): void {
-    if (event.value) this.goTo(isoDay(event.value));
+  /** A day picked on the phone's own date picker (YYYY-MM-DD); a cleared or half-typed one is ignored. */
+  protected picked(event: Event): void {
+    const value = (event.target as HTMLInputElement).value;
+    if (isIsoDay(value)) this.goTo(value);
   }
 }
