@@ -2,8 +2,11 @@
 // A phone that opened the run sheet once (the service worker installed, the app cached) is started
 // again from cold: a new Chromium process on the same profile, with no network, opens /run-sheet.
 // The server is stopped after the first visit, so nothing can answer.
-// Measured per round from the navigation to the run sheet on screen (its heading, and its note that
-// the server cannot be reached, so the page has settled); the browser's own start is printed beside.
+// Measured per round on the page's own clock, from the start of the navigation to the first frame
+// with the run sheet on screen (its heading, and its note that the server cannot be reached, so the
+// page has settled): what the operator waits for after tapping the app. The browser's own start,
+// and the same span seen from this script (which adds the driver's round trips to a browser that
+// has just started), are printed beside.
 // Target: the median open < 1 s. Exits 1 when the target is missed.
 // Needs a production build of the app: dist/furlong/browser (`npm start` or `ng build`), or
 // FURLONG_STATIC_DIR. The database is furlong_bench_shell on the test cluster, made fresh each run;
@@ -51,6 +54,22 @@ const launch = (profile: string, baseURL: string, offline: boolean): Promise<Bro
     locale: 'en-US',
     offline,
   });
+
+/**
+ * Runs in the page before its own scripts: notes on the page's clock the first frame that shows the
+ * run sheet's heading and its note that this is the phone's copy (the same as `runSheetShown`).
+ */
+const MARK_SHOWN = `(() => {
+  const shown = () =>
+    [...document.querySelectorAll('h1')].some((h) => h.textContent.trim() === 'Run sheet') &&
+    [...document.querySelectorAll('[data-as-of]')].some((n) => n.textContent.includes('No connection: the run sheet kept on this phone'));
+  const seen = new MutationObserver(() => {
+    if (!shown()) return;
+    seen.disconnect();
+    requestAnimationFrame(() => { window.__runSheetShownAt = performance.now(); });
+  });
+  seen.observe(document, { subtree: true, childList: true, characterData: true });
+})();`;
 
 /** The run sheet on screen: its heading, and what it says of the day (here: the server cannot be reached). */
 async function runSheetShown(page: Page): Promise<void> {
@@ -128,6 +147,7 @@ async function main(): Promise<void> {
 
     const starts: number[] = [];
     const opens: number[] = [];
+    const driverOpens: number[] = [];
     const headings: number[] = [];
     const pages: number[] = [];
     const lastScripts: number[] = [];
@@ -138,6 +158,7 @@ async function main(): Promise<void> {
       const ctx = await launch(profile, baseUrl, true);
       const t1 = performance.now();
       const p = ctx.pages()[0] ?? (await ctx.newPage());
+      await p.addInitScript(MARK_SHOWN);
       await p.goto('/run-sheet');
       await p.getByRole('heading', { level: 1, name: 'Run sheet' }).waitFor();
       headings.push(performance.now() - t1);
@@ -165,17 +186,25 @@ async function main(): Promise<void> {
       meAnswered.push(parts.me);
       sheetAnswered.push(parts.sheet);
       starts.push(t1 - t0);
-      opens.push(t2 - t1);
+      driverOpens.push(t2 - t1);
+      await p.waitForFunction('typeof window.__runSheetShownAt === "number"');
+      opens.push((await p.evaluate('window.__runSheetShownAt')) as number);
       await ctx.close();
     }
 
     const open = median(opens);
     const rows = [
       {
-        bench: `run sheet opened offline after a cold browser start (median of ${ROUNDS})`,
+        bench: `run sheet opened offline after a cold browser start, page clock (median of ${ROUNDS})`,
         target: `< ${TARGET_MS} ms`,
         measured: `${ms(open)} (fastest ${ms(Math.min(...opens))}, slowest ${ms(Math.max(...opens))})`,
         result: open < TARGET_MS ? 'PASS' : 'FAIL',
+      },
+      {
+        bench: 'the same seen from this script (adds the driver to a just-started browser)',
+        target: '—',
+        measured: `${ms(median(driverOpens))} median`,
+        result: '',
       },
       {
         bench: 'of which: the page from the worker / the run sheet heading on screen',
