@@ -192,8 +192,23 @@ describe('RunSheetJob', () => {
     expect(el.querySelector('[data-unsent]')).toBeNull();
   });
 
+  it('when the job is for a later day at the farm, then Start is disabled and says the day it opens; on or after its day it is not', () => {
+    create(job({ date: '2031-05-15' }));
+    expect(actionButton('start').disabled).toBe(true);
+    expect(el.querySelector('[data-not-yet]')?.textContent?.trim()).toBe('This job is for Thu, May 15: Start opens on that day.');
+    expect(actionButton('start').getAttribute('aria-describedby')).toBe(el.querySelector('[data-not-yet]')?.id);
+    actionButton('start').click();
+    expect(document.querySelector('mat-dialog-container')).toBeNull();
+    // Call off and problem reports stay open: a job can be called off the evening before.
+    expect(actionButton('call-off').disabled).toBe(false);
+    fixture.destroy();
+    create(job({ date: '2020-05-15' }));
+    expect(actionButton('start').disabled).toBe(false);
+    expect(el.querySelector('[data-not-yet]')).toBeNull();
+  });
+
   it('when Start is tapped, then a dialog asks for the meter, prefilled with the machine reading', async () => {
-    create(job());
+    create(job({ date: '2020-05-15' }));
     actionButton('start').click();
     await fixture.whenStable();
     const input = document.querySelector('mat-dialog-container input') as HTMLInputElement;

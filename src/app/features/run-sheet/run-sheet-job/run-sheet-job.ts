@@ -30,7 +30,7 @@ import type { HazardFeature, MapField } from '../../../shared/map/map-types';
 import { AreaPipe } from '../../../shared/units/area-pipe';
 import { LengthPipe } from '../../../shared/units/length-pipe';
 import { Units } from '../../../shared/units/units';
-import { hoursText } from '../../board/board-day';
+import { hoursText, shortDay, today } from '../../board/board-day';
 import { CautionsRead } from '../cautions-read';
 import type { OutboxEntry } from '../outbox/outbox';
 import { ACTION_ICONS, ACTION_LABELS, type UnsentAction, actionsFor, canReportProblem, withUnsent } from '../job-actions';
@@ -125,6 +125,14 @@ export class RunSheetJob {
   protected readonly span = computed(() => daySpan(this.item().startTime, this.item().endTime));
   protected readonly actions = computed(() => actionsFor(this.job()));
   protected readonly canReport = computed(() => canReportProblem(this.job().state));
+  /**
+   * A job for a later day at the farm (read on the evening before): Start waits for its day, as the
+   * server does, since the job was planned for that day's weather and crew. "Sat, December 5".
+   */
+  protected readonly startsOn = computed(() => {
+    const day = this.item().date;
+    return this.actions().includes('start') && day > today(this.auth.farm()?.timeZone) ? shortDay(day) : null;
+  });
   protected readonly stateLabel = computed(() => STATE_LABELS[this.job().state]);
   /** The job's operator and the owner may take its task data; a mentor rides along and does not. */
   protected readonly canTaskData = computed(() => this.item().role === 'operator' || this.auth.isOwner());
@@ -196,7 +204,7 @@ export class RunSheetJob {
   }
 
   protected act(type: EventType): void {
-    if (this.sending()) return;
+    if (this.sending() || (type === 'start' && this.startsOn())) return;
     const at = new Date().toISOString();
     const dialog = DIALOGS[type];
     this.failure.set(null);
