@@ -145,13 +145,17 @@ describe('Where am I on the run sheet, in a real browser', () => {
     expect(byDistance[0].d).toBeLessThan(WIDTH_M / 2);
     expect(byDistance[1].d).toBeGreaterThan(WIDTH_M / 2);
     const expected = byDistance[0].pass;
+    const count = Math.max(...passes.features.map((f) => f.properties.pass));
 
     const page = await phoneAt(at);
+    // Before any position: the saved plan on the job's map, worked out on the phone, one line for
+    // each pass segment of the server's own plan, and the headland shaded.
+    await page.locator('[data-plan-on-map]').getByText(`On the map: the saved plan’s ${count} passes (grey lines)`).waitFor();
+    expect(await page.locator('path.jp-plan-pass').count()).toBe(passes.features.length);
     await page.getByRole('button', { name: 'Show where I am' }).click();
     const shown = page.locator('.pass[data-under="true"]');
     await shown.waitFor();
     expect(await shown.getAttribute('data-pass')).toBe(String(expected));
-    const count = Math.max(...passes.features.map((f) => f.properties.pass));
     expect((await shown.textContent())?.trim()).toBe(`Pass ${expected} of ${count}`);
     expect(await page.locator('.zone-warning').count()).toBe(0);
     await page.locator('.next-zone').getByText('Power pole or line').waitFor();

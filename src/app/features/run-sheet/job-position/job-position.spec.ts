@@ -1,4 +1,6 @@
 import { type ComponentFixture, TestBed } from '@angular/core/testing';
+import type { Polygon } from 'geojson';
+import * as L from 'leaflet';
 import { localProjection } from '@shared/geo/local-projection';
 import type { PlanInput } from '@shared/plan/types';
 import type { RunSheetItem } from '@shared/schemas/run-sheet';
@@ -19,6 +21,8 @@ const PASSES: PlanPasses = {
     geometry: { type: 'LineString', coordinates: [ll(10 * k - 5, 0), ll(10 * k - 5, 200)] },
   })),
 };
+// A headland strip 10 m wide along the south edge, standing in for the planner's ring.
+const HEADLAND: Polygon = { type: 'Polygon', coordinates: [[ll(0, 0), ll(60, 0), ll(60, 10), ll(0, 10), ll(0, 0)]] };
 const ITEM: RunSheetItem = job({
   field: {
     id: 107,
@@ -98,7 +102,7 @@ describe('JobPosition', () => {
           provide: PLAN_PASSES,
           useValue: (input: PlanInput) => {
             asked.push(input);
-            return Promise.resolve(PASSES);
+            return Promise.resolve({ passes: PASSES, headland: HEADLAND });
           },
         },
       ],
@@ -179,6 +183,31 @@ describe('JobPosition', () => {
     expect(el.querySelector('.form-error')?.textContent).toContain('Allow location for this site');
     expect(geo.cleared).toEqual([41]);
     expect(text()).toContain('Show where I am');
+  });
+
+  it('when the job’s map is made, then the saved plan is worked out with its own settings and drawn on it, passes and headland, without asking for the position', async () => {
+    const host = document.createElement('div');
+    document.body.append(host);
+    const map = L.map(host).setView(ll(30, 100).reverse() as [number, number], 16);
+    fixture.componentInstance.attach(map);
+    await settle();
+    expect(geo.watches).toBe(0);
+    expect(asked).toEqual([expect.objectContaining({ widthM: 10, headlandPasses: 0, headingDeg: 0, boundary: ITEM.field.boundary })]);
+    expect(el.querySelector('[data-plan-on-map]')?.textContent?.trim()).toBe(
+      'On the map: the saved plan’s 6 passes (grey lines) and its headland (shaded).',
+    );
+    const drawn: string[] = [];
+    map.eachLayer((layer) => {
+      const cls = (layer as L.Path).options?.className;
+      if (cls && layer instanceof L.Path) drawn.push(cls);
+    });
+    expect(drawn.filter((c) => c === 'jp-plan-pass')).toHaveLength(6);
+    expect(drawn.filter((c) => c === 'jp-headland')).toHaveLength(1);
+    // The position, tapped for later, plans nothing twice.
+    await tap(/Show where I am/);
+    expect(asked).toHaveLength(1);
+    map.remove();
+    host.remove();
   });
 
   it('when the operator taps "Stop showing where I am", then the phone stops being asked', async () => {

@@ -7,7 +7,8 @@ import { HAZARD_LABELS, type HazardKind } from '@shared/schemas/terms';
 import type { RunSheetItem } from '@shared/schemas/run-sheet';
 import * as L from 'leaflet';
 import { Units } from '../../../shared/units/units';
-import { GEOLOCATION, PLAN_PASSES, type PlanPasses } from './passes-source';
+import { PLANNED_PASS_COLOUR } from '../../../shared/map/coverage-layers';
+import { GEOLOCATION, PLAN_PASSES, type PlanLayout, type PlanPasses } from './passes-source';
 
 /** One reading of the phone's position. */
 export interface Fix {
@@ -19,7 +20,11 @@ export interface Fix {
   headingDeg: number | null;
 }
 
-type Passes = { state: 'none' } | { state: 'loading' } | { state: 'ready'; passes: PlanPasses; count: number } | { state: 'failed' };
+type Passes =
+  | { state: 'none' }
+  | { state: 'loading' }
+  | { state: 'ready'; passes: PlanPasses; headland: PlanLayout['headland']; count: number }
+  | { state: 'failed' };
 
 /** Position reads asked of the phone: fresh, precise, and given up on after 30 s without a fix. */
 const WATCH_OPTIONS: PositionOptions = { enableHighAccuracy: true, maximumAge: 5_000, timeout: 30_000 };
@@ -76,6 +81,8 @@ export class JobPosition {
   /** The last fix a heading was worked out from (for phones that give none). */
   private headingFrom: Fix | null = null;
   private readonly layer = L.layerGroup([], { pmIgnore: true } as L.LayerOptions);
+  /** The saved plan under everything else: its headland shaded, its passes as thin lines. */
+  private readonly planLayer = L.layerGroup([], { pmIgnore: true } as L.LayerOptions);
 
   protected readonly where = computed<Where | null>(() => {
     const f = this.fix();
@@ -113,13 +120,31 @@ export class JobPosition {
   constructor() {
     inject(DestroyRef).onDestroy(() => this.stop());
     effect(() => this.draw(this.map(), this.fix(), this.where()));
+    effect(() => this.drawPlan(this.map(), this.passes()));
   }
 
-  /** The job's Leaflet map, once made (FieldMap's `ready`). */
+  /**
+   * The job's Leaflet map, once made (FieldMap's `ready`): the saved plan is worked out (off the
+   * page's thread) and drawn on it, so the operator sees the pass direction and the headland
+   * before setting off, with or without the position.
+   */
   attach(map: L.Map): void {
+    this.planLayer.addTo(map);
     this.layer.addTo(map);
     this.map.set(map);
+    this.loadPasses();
   }
+
+  /** What the map shows of the plan, in words under it (null while nothing is drawn). */
+  protected readonly planOnMap = computed(() => {
+    const p = this.passes();
+    if (!this.map() || !this.item().passPlan) return null;
+    if (p.state === 'loading') return 'Working out the saved plan’s passes on this phone…';
+    if (p.state === 'failed') return 'The saved plan’s passes could not be drawn on this phone.';
+    if (p.state !== 'ready') return null;
+    const passes = p.count === 1 ? '1 pass' : `${p.count} passes`;
+    return `On the map: the saved plan’s ${passes} (grey lines)${p.headland ? ' and its headland (shaded)' : ''}.`;
+  });
 
   protected start(): void {
     if (this.watching()) return;
@@ -171,11 +196,28 @@ export class JobPosition {
       this.passes.set({ state: 'none' });
       return;
     }
-    if (this.passes().state === 'ready') return;
+    const state = this.passes().state;
+    if (state === 'ready' || state === 'loading') return;
     this.passes.set({ state: 'loading' });
     this.planPasses(savedPlanInput({ boundary: item.field.boundary, hazards: item.field.hazards, name: item.field.name }, saved)).then(
-      (passes) => this.passes.set({ state: 'ready', passes, count: Math.max(0, ...passes.features.map((f) => f.properties.pass)) }),
+      ({ passes, headland }) =>
+        this.passes.set({ state: 'ready', passes, headland, count: Math.max(0, ...passes.features.map((f) => f.properties.pass)) }),
       () => this.passes.set({ state: 'failed' }),
+    );
+  }
+
+  private drawPlan(map: L.Map | null, p: Passes): void {
+    this.planLayer.clearLayers();
+    if (!map || p.state !== 'ready') return;
+    if (p.headland)
+      this.planLayer.addLayer(
+        L.geoJSON(p.headland, { interactive: false, style: { className: 'jp-headland', stroke: false } } as L.GeoJSONOptions),
+      );
+    this.planLayer.addLayer(
+      L.geoJSON(p.passes, {
+        interactive: false,
+        style: { className: 'jp-plan-pass', color: PLANNED_PASS_COLOUR, weight: 1.5, opacity: 0.9 },
+      } as L.GeoJSONOptions),
     );
   }
 

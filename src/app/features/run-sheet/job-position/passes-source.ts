@@ -1,14 +1,14 @@
 import { InjectionToken } from '@angular/core';
 import type { PlanInput } from '@shared/plan/types';
-import type { PlanPasses } from './passes-messages';
+import type { PlanLayout } from './passes-messages';
 
-export type { PlanPasses } from './passes-messages';
+export type { PlanLayout, PlanPasses } from './passes-messages';
 
 /**
- * A saved plan's passes, worked out on this phone from the plan's own settings (so they are there
+ * A saved plan's passes and headland, worked out on this phone from the plan's own settings (so they are there
  * with no signal). The real one runs the shared planner in a web worker, loaded when first asked.
  */
-export const PLAN_PASSES = new InjectionToken<(input: PlanInput) => Promise<PlanPasses>>('a saved plan’s passes', {
+export const PLAN_PASSES = new InjectionToken<(input: PlanInput) => Promise<PlanLayout>>('a saved plan’s passes', {
   providedIn: 'root',
   factory: () => (input) => import('./passes-worker-port').then((m) => m.passesInWorker(input)),
 });

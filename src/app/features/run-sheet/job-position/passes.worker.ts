@@ -12,7 +12,8 @@ const scope = self as unknown as PassesScope;
 
 scope.addEventListener('message', ({ data }) => {
   try {
-    scope.postMessage({ passes: planPasses(data.input).passes });
+    const plan = planPasses(data.input);
+    scope.postMessage({ layout: { passes: plan.passes, headland: plan.headland } });
   } catch (err) {
     scope.postMessage({ error: err instanceof Error ? err.message : 'The pass plan could not be worked out.' });
   }
