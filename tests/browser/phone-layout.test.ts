@@ -1,6 +1,8 @@
 // The fleet's and the fields' tables on a 390 × 844 phone, in a real browser: each row stacks as a
 // block (its name first, every other cell after its column's name), so nothing scrolls sideways,
 // neither the page nor the table inside its own box. On a desktop the same tables keep their columns.
+// On a touch phone the maps' zoom buttons are 44 × 44 px: WCAG 2.2 success criterion 2.5.5 (Target
+// Size, Enhanced).
 import type { Page } from 'playwright-core';
 import { demo, screenshot, signIn, startRig, type BrowserRig } from '../support/browser';
 
@@ -14,7 +16,7 @@ async function sidewaysScrollers(page: Page): Promise<string[]> {
     .map((e) => e.className || e.tagName))()`) as Promise<string[]>;
 }
 
-describe('Tables on a phone, in a real browser', () => {
+describe('Tables and map buttons on a phone, in a real browser', () => {
   let rig: BrowserRig;
 
   beforeAll(async () => {
@@ -66,4 +68,20 @@ describe('Tables on a phone, in a real browser', () => {
       await page.close();
     },
   );
+
+  it('when the owner opens the fields map on a touch phone, then its zoom buttons are at least 44 × 44 px (WCAG 2.2, 2.5.5)', async () => {
+    // Signed in wide (the menu hides behind a button on a phone), then turned to a phone's size.
+    const page = await rig.newPage({ width: 1366, height: 900 }, { touch: true });
+    await signIn(page, demo('owner'));
+    await page.setViewportSize(PHONE);
+    await page.goto('/fields');
+    const zoomIn = page.getByRole('button', { name: 'Zoom in' });
+    await zoomIn.waitFor();
+    for (const button of [zoomIn, page.getByRole('button', { name: 'Zoom out' })]) {
+      const box = await button.boundingBox();
+      expect(box?.width).toBeGreaterThanOrEqual(44);
+      expect(box?.height).toBeGreaterThanOrEqual(44);
+    }
+    await page.close();
+  });
 });

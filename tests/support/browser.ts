@@ -17,7 +17,10 @@ export interface BrowserRig {
    * A page in a fresh browser context. `serviceWorkers: 'block'` for a page that stubs the API with
    * `page.route`: requests the service worker makes for the page never pass through page routes.
    */
-  newPage: (viewport?: { width: number; height: number }, options?: { serviceWorkers?: 'allow' | 'block' }) => Promise<Page>;
+  newPage: (
+    viewport?: { width: number; height: number },
+    options?: { serviceWorkers?: 'allow' | 'block'; touch?: boolean },
+  ) => Promise<Page>;
   close: () => Promise<void>;
 }
 
@@ -59,6 +62,8 @@ export async function startRig(): Promise<BrowserRig> {
         baseURL: baseUrl,
         locale: 'en-US',
         serviceWorkers: options.serviceWorkers ?? 'allow',
+        // A touch phone: touch events, and CSS's (pointer: coarse) matches.
+        ...(options.touch ? { hasTouch: true, isMobile: true } : {}),
       });
       contexts.push(context);
       context.on('request', (req) => {
