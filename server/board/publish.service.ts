@@ -13,7 +13,7 @@ import { staleBoard } from './board.service';
 import { findConflicts } from './conflicts';
 import { loadDay } from './day-context';
 import { loadDayWeather } from './day-weather';
-import { dateLabel } from './work-order.content';
+import { dateLabel, orderWarnings } from './work-order.content';
 import { withdrawalMail, workOrderMail } from './work-order.message';
 import { planOrders } from './work-order.state';
 import { ordersOfDay, saveOrder } from './work-orders.repository';
@@ -25,7 +25,8 @@ export async function publishBoard(deps: AppDeps, by: SessionPrincipal, day: str
     if (version !== undefined && version !== locked.version) throw await staleBoard(tx, by.farmId, day, version, publicUrl);
     const ctx = await loadDay(tx, by.farmId, day);
     const weather = await loadDayWeather(tx, ctx);
-    const hard = findConflicts(ctx.cards, ctx.skills, ctx.farm.dayHoursLimit, weather.cards).filter((c) => c.severity === 'hard');
+    const conflicts = findConflicts(ctx.cards, ctx.skills, ctx.farm.dayHoursLimit, weather.cards);
+    const hard = conflicts.filter((c) => c.severity === 'hard');
     if (hard.length) {
       throw new AppError(
         409,
@@ -44,8 +45,9 @@ export async function publishBoard(deps: AppDeps, by: SessionPrincipal, day: str
         unchanged.push({ membershipId: p.membershipId, name: p.name });
         continue;
       }
+      const jobIds = p.marks.map((m) => m.id);
       const mail = p.content
-        ? workOrderMail(p.content, p.email, by.farmId, p.membershipId, ctx.farm.timeZone)
+        ? workOrderMail(p.content, p.email, by.farmId, p.membershipId, ctx.farm.timeZone, orderWarnings(conflicts, jobIds))
         : withdrawalMail(
             { name: p.name, farm: ctx.farm.name, date: day, dateLabel: dateLabel(day), link: `${publicUrl}/run-sheet?date=${day}` },
             p.email,

@@ -5,6 +5,7 @@ import { DateTime } from 'luxon';
 import { OPERATION_INFO, type Operation } from '../../shared/operations';
 import { HAZARD_LABELS, type HazardKind } from '../../shared/schemas/fields';
 import type { UnitSystem } from '../../shared/schemas/auth';
+import type { Conflict } from '../../shared/schemas/board';
 import { windowWarning, type ConflictCard } from './conflicts';
 import type { DayContext } from './day-context';
 import { planKey } from './day-context';
@@ -118,6 +119,30 @@ export function orderContent(ctx: DayContext, person: { membershipId: number; na
     jobs,
     cautions: [...operations].map((op) => ({ operation: OPERATION_INFO[op].label, lines: OPERATION_INFO[op].cautions })),
     link: `${publicUrl}/run-sheet?date=${ctx.day}`,
+  };
+}
+
+/** The board's warnings an order repeats: the person's day over its hours once, the rest per job. */
+export interface OrderWarnings {
+  day: string[];
+  /** Per job of the order, in its order. */
+  jobs: string[][];
+}
+
+/**
+ * The soft conflicts standing for a person's jobs (`jobIds`, in the order's order), word for word
+ * as the board and the publish dialog show them, so the operator reads what the owner confirmed.
+ * The window that does not fit is left out (the order says it as `doesNotFit`). Not part of the
+ * order's content or hash: a forecast that turns does not make a published order "changed".
+ */
+export function orderWarnings(conflicts: readonly Conflict[], jobIds: readonly number[]): OrderWarnings {
+  const soft = conflicts.filter((c) => c.severity === 'soft' && c.code !== 'window_too_short');
+  const mine = new Set(jobIds);
+  const messages = (list: Conflict[]) => [...new Set(list.map((c) => c.message))];
+  const dayWide = (c: Conflict) => c.code === 'over_day_hours';
+  return {
+    day: messages(soft.filter((c) => dayWide(c) && c.assignmentIds.some((id) => mine.has(id)))),
+    jobs: jobIds.map((id) => messages(soft.filter((c) => !dayWide(c) && c.assignmentIds.includes(id)))),
   };
 }
 

@@ -7,7 +7,7 @@ import { esc, wrapHtml } from '../mail/html';
 import { formatArea, formatHours, formatLength, formatPassHeading, formatWidth } from '../../shared/figures';
 import type { UnitSystem } from '../../shared/schemas/auth';
 import { parseTime } from './clock';
-import type { OrderContent, OrderHazard, OrderJob } from './work-order.content';
+import type { OrderContent, OrderHazard, OrderJob, OrderWarnings } from './work-order.content';
 
 /** The instant a board time ('HH:MM', past 24:00 for the next morning) names on a day at the farm. */
 function instantOf(day: string, hhmm: string, timeZone: string): Date {
@@ -47,10 +47,16 @@ const planLine = (p: NonNullable<OrderJob['passPlan']>) =>
 /** "822.7 ac, 5.4 h planned": the figures as the board's card writes them. */
 const workLine = (j: OrderJob, units: UnitSystem) => `${formatArea(j.acresPlanned, units)}, ${formatHours(j.hours)} planned`;
 
-function jobText(j: OrderJob, i: number, times: string, units: UnitSystem): string {
+/** A board warning as a sentence: "… this season." */
+const sentence = (w: string) => (/[.!?]$/.test(w) ? w : `${w}.`);
+const ASK = 'Ask the owner before you start; your judgement on the ground comes first.';
+
+function jobText(j: OrderJob, i: number, times: string, units: UnitSystem, warnings: readonly string[]): string {
   const lines = [
     `${i + 1}. ${j.field}: ${j.operation}, ${times}, ${workLine(j, units)}`,
     j.doesNotFit ? `   Warning: ${j.doesNotFit}. Ask the owner before you start.` : null,
+    ...warnings.map((w) => `   Warning: ${sentence(w)}`),
+    warnings.length ? `   ${ASK}` : null,
     j.role === 'mentor' ? `   You mentor ${j.operator} on this job.` : j.mentor ? `   Mentor: ${j.mentor}` : null,
     `   Machine: ${j.machine}`,
     `   Implement: ${j.implement} (${formatWidth(j.widthM, units)})`,
@@ -61,12 +67,14 @@ function jobText(j: OrderJob, i: number, times: string, units: UnitSystem): stri
   return lines.filter((l) => l !== null).join('\n');
 }
 
-function jobHtml(j: OrderJob, times: string, units: UnitSystem): string {
+function jobHtml(j: OrderJob, times: string, units: UnitSystem, warnings: readonly string[]): string {
   const row = (k: string, v: string) =>
     `<tr><th style="text-align:left;padding-right:8px;vertical-align:top">${esc(k)}</th><td>${v}</td></tr>`;
   return `<li style="margin-bottom:12px"><strong>${esc(j.field)}</strong>: ${esc(j.operation)}, ${esc(times)}, ${esc(workLine(j, units))}
 <table style="font-size:14px">${[
     j.doesNotFit ? row('Warning', `${esc(j.doesNotFit)}. Ask the owner before you start.`) : '',
+    ...warnings.map((w) => row('Warning', esc(sentence(w)))),
+    warnings.length ? row('', esc(ASK)) : '',
     j.role === 'mentor' ? row('Mentoring', esc(j.operator)) : j.mentor ? row('Mentor', esc(j.mentor)) : '',
     row('Machine', esc(j.machine)),
     row('Implement', `${esc(j.implement)} (${esc(formatWidth(j.widthM, units))})`),
@@ -76,22 +84,36 @@ function jobHtml(j: OrderJob, times: string, units: UnitSystem): string {
   ].join('')}</table></li>`;
 }
 
-/** `timeZone`: the farm's (IANA); the order's times are its clock, and say so. */
-export function workOrderMail(c: OrderContent, to: string, farmId: number, membershipId: number, timeZone: string): OutgoingMail {
+/**
+ * `timeZone`: the farm's (IANA); the order's times are its clock, and say so. `warnings`: the
+ * board's warnings standing when it was published (`orderWarnings`), repeated where they apply.
+ */
+export function workOrderMail(
+  c: OrderContent,
+  to: string,
+  farmId: number,
+  membershipId: number,
+  timeZone: string,
+  warnings: OrderWarnings = { day: [], jobs: [] },
+): OutgoingMail {
   const times = c.jobs.map((j) => timesOf(j, c.date, timeZone));
+  const jobWarnings = (i: number) => warnings.jobs[i] ?? [];
+  const dayText = warnings.day.map((w) => `Warning for the day: ${sentence(w)} ${ASK}`);
+  const dayHtml = warnings.day.map((w) => `<p><strong>Warning for the day:</strong> ${esc(sentence(w))} ${esc(ASK)}</p>`).join('');
   const subject = `Work order for ${c.dateLabel} (${c.farm})`;
   const cautions = c.cautions.map((k) => `${k.operation}:\n${k.lines.map((l) => `- ${l}`).join('\n')}`).join('\n\n');
   const text = [
     `Hello ${c.name},`,
+    ...dayText,
     `Your jobs on ${c.dateLabel} at ${c.farm}, in running order:`,
-    c.jobs.map((j, i) => jobText(j, i, times[i], c.units)).join('\n\n'),
+    c.jobs.map((j, i) => jobText(j, i, times[i], c.units, jobWarnings(i))).join('\n\n'),
     `Cautions (they defer to local law and licensed practice; your judgement on the ground comes first):\n${cautions}`,
     `Your run sheet: ${c.link}`,
   ].join('\n\n');
   const html = wrapHtml(
     subject,
-    `<p>Hello ${esc(c.name)},</p><p>Your jobs on ${esc(c.dateLabel)} at ${esc(c.farm)}, in running order:</p>
-<ol>${c.jobs.map((j, i) => jobHtml(j, times[i], c.units)).join('')}</ol>
+    `<p>Hello ${esc(c.name)},</p>${dayHtml}<p>Your jobs on ${esc(c.dateLabel)} at ${esc(c.farm)}, in running order:</p>
+<ol>${c.jobs.map((j, i) => jobHtml(j, times[i], c.units, jobWarnings(i))).join('')}</ol>
 <h2 style="font-size:16px">Cautions</h2><p>They defer to local law and licensed practice; your judgement on the ground comes first.</p>
 ${c.cautions.map((k) => `<h3 style="font-size:14px">${esc(k.operation)}</h3><ul>${k.lines.map((l) => `<li>${esc(l)}</li>`).join('')}</ul>`).join('')}
 <p><a href="${esc(c.link)}">Open your run sheet</a> (${esc(c.link)})</p>`,

@@ -223,6 +223,43 @@ describe('work orders by e-mail', () => {
     expect(ordersTo(farm.operator.email, 'July 2, 2026')).toHaveLength(1);
   });
 
+  it("when a job's field is already finished for its operation this season, then that job's order repeats the board's warning and the other jobs' do not", async () => {
+    const d = '2026-07-06';
+    const doneField = await field('Home Quarter', 160);
+    await t.db('assignments').insert({
+      farm_id: farm.id,
+      field_id: doneField,
+      operator_id: ada,
+      machine_id: tractor2,
+      implement_id: harrow2,
+      run_order: 1,
+      day: '2026-05-04',
+      operation: 'harrowing',
+      acres_planned: 160,
+      state: 'finished',
+      acres_done: 160,
+    });
+    await add(d, { fieldId: doneField, operatorId: tomas, machineId: tractor, implementId: harrow, acresPlanned: 20 });
+    await add(d, { fieldId: slough, operatorId: tomas, machineId: tractor, implementId: harrow });
+    await add(d, { fieldId: north, operatorId: ada, machineId: tractor2, implementId: harrow2 });
+    const warning = 'Home Quarter is already finished for harrowing this season';
+    // The same words the owner confirmed on publishing (the board's soft conflict).
+    expect((await board(d)).conflicts).toEqual([expect.objectContaining({ code: 'field_finished', severity: 'soft', message: warning })]);
+    expect((await owner.post(`/api/board/${d}/publish`, {})).status).toBe(200);
+    await drainAll();
+
+    const [mine] = ordersTo(farm.operator.email, 'July 6, 2026');
+    const [first, second] = mine.text.split('\n\n2. ');
+    expect(first).toContain('1. Home Quarter: Harrowing');
+    expect(first).toContain(`   Warning: ${warning}.\n   Ask the owner before you start; your judgement on the ground comes first.`);
+    expect(second).toMatch(/^Slough Quarter: Harrowing/);
+    expect(second).not.toContain('Warning');
+    expect(mine.html).toContain(`<th style="text-align:left;padding-right:8px;vertical-align:top">Warning</th><td>${warning}.</td>`);
+    const [adas] = ordersTo(adaEmail(), 'July 6, 2026');
+    expect(adas.text).not.toContain('Warning');
+    expect(adas.html).not.toContain('Warning');
+  });
+
   it('when the board has a hard conflict, then publishing is refused with the list and nothing is queued', async () => {
     const d = '2026-07-03';
     await add(d, { fieldId: north, operatorId: tomas, machineId: tractor, implementId: harrow });
