@@ -8,6 +8,8 @@
 // the same id again gets that answer and changes nothing. What such an action cannot do (the job
 // was deleted or moved, it does not fit the log, a reading is refused) is kept as a log the owner
 // sees, and the answer says so in plain words.
+import { DateTime } from 'luxon';
+import { dayIn } from '../../shared/calendar';
 import { farmTime } from '../../shared/farm-time';
 import { OPERATION_INFO } from '../../shared/operations';
 import type { EventInput } from '../../shared/schemas/run-sheet';
@@ -96,6 +98,17 @@ export function tappedAt(input: { at?: string }): Date {
   return at;
 }
 
+/**
+ * A start tapped before the job's day at the farm (the evening before, on a phone showing the next
+ * day's sheet): the job is planned for that day's conditions and crew, so it waits for the day. A
+ * start later than the day (a job carried over, or logged late) is fine.
+ */
+function startBeforeDay(day: string, at: Date, timeZone: string): AppError | null {
+  if (dayIn(timeZone, at) >= day) return null;
+  const label = DateTime.fromISO(day).setLocale('en-US').toFormat('ccc, LLL d');
+  return new AppError(409, 'start_before_day', `This job is for ${label}; it can be started from that day.`);
+}
+
 /** An action that does not fit the job's log in the order the taps were made. */
 function notInOrder(v: Extract<OrderVerdict, { ok: false }>, type: EventType, at: Date, timeZone: string): AppError {
   const own = v.failing.at === at;
@@ -125,8 +138,8 @@ async function apply(
   memo?: BatchMemo,
 ): Promise<Applied> {
   const a = await lockJob(tx, by, id, 'operator', memo);
-  // Only a tap sent late, with a time the phone made, is checked against its job's day: one sent as
-  // it is tapped (within the clock skew of ours) may start a job planned for a later day.
+  // A tap sent late, with a time the phone made, is checked against its job's day: one far before it
+  // means the phone's clock is wrong.
   if (
     input.at &&
     Date.now() - at.getTime() > 2 * CLOCK_SKEW_MS &&
@@ -138,6 +151,8 @@ async function apply(
       `That time is more than ${MAX_DAYS_BEFORE_JOB} days before the job's day (${a.day}); check the date on your phone`,
       { at: `More than ${MAX_DAYS_BEFORE_JOB} days before the job's day` },
     );
+  const early = input.type === 'start' ? startBeforeDay(a.day, at, by.timeZone) : null;
+  if (early) throw early;
   const log: DbAssignmentEventRow[] = await eventsOfJob(tx, by.farmId, id);
   const order = judgeInOrder(log, { type: input.type, at });
   const cols: AssignmentColumns = {};

@@ -3,6 +3,7 @@
 // same code as an uploaded track file.
 import { randomUUID } from 'node:crypto';
 import bcrypt from 'bcryptjs';
+import { dayIn } from '../../shared/calendar';
 import { geodesicAreaM2 } from '../../shared/geo/geodesic-area';
 import type { PhoneTrack, TrackPointInput } from '../../shared/schemas/phone-track';
 import type { JobCoverage } from '../../shared/schemas/track-coverage';
@@ -86,7 +87,8 @@ describe('the phone track of a job', () => {
         acres: m2ToAcres(geodesicAreaM2(boundary)),
       })
       .returning('id');
-    const day = new Date(T0).toISOString().slice(0, 10);
+    // The farm's day (the test farm keeps America/Chicago) of the start: a start is taken from the job's day on.
+    const day = dayIn('America/Chicago', new Date(T0));
     const machine = await insertMachine(t.db, farm.id);
     const implement = await insertImplement(t.db, farm.id, { width_m: WIDTH });
     const job = async (operatorId: number, order: number) =>

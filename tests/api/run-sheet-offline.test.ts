@@ -1,6 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import bcrypt from 'bcryptjs';
 import type { Board, BoardAssignment } from '../../shared/schemas/board';
+import { dayIn } from '../../shared/calendar';
 import type { FieldReports } from '../../shared/schemas/run-sheet';
 import { makeFarm, type TestFarm } from '../support/farm-factory';
 import { rect } from '../support/geo-fixtures';
@@ -23,7 +24,8 @@ describe('run sheet actions sent later from a phone', () => {
   // Taps counted in minutes from a base ten hours back (so the latest, at 520 min, is in the past).
   const base = Date.now() - 10 * 3_600_000;
   const tap = (minutes: number) => new Date(base + minutes * 60_000).toISOString();
-  const day = new Date(base).toISOString().slice(0, 10);
+  // The farm's day of the first tap (America/Chicago): a start is taken from the job's day on at the farm.
+  const day = dayIn('America/Chicago', new Date(base));
   const hhmm = (iso: string) =>
     new Intl.DateTimeFormat('en-GB', { timeZone: 'America/Chicago', hour: '2-digit', minute: '2-digit', hourCycle: 'h23' }).format(
       new Date(iso),

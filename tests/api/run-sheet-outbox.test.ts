@@ -1,6 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import bcrypt from 'bcryptjs';
 import type { Board } from '../../shared/schemas/board';
+import { dayIn } from '../../shared/calendar';
 import { OUTBOX_BATCH_MAX } from '../../shared/limits';
 import type { OutboxResult } from '../../shared/schemas/run-sheet';
 import { makeFarm, type TestFarm } from '../support/farm-factory';
@@ -23,7 +24,8 @@ describe('a phone outbox sent in one request', () => {
   let n = 0;
   const base = Date.now() - 10 * 3_600_000;
   const tap = (minutes: number) => new Date(base + minutes * 60_000).toISOString();
-  const day = new Date(base).toISOString().slice(0, 10);
+  // The farm's day of the first tap (America/Chicago): a start is taken from the job's day on at the farm.
+  const day = dayIn('America/Chicago', new Date(base));
 
   const board = async (): Promise<Board> => (await owner.get(`/api/board?date=${day}`)).body;
   const job = async (operatorId = farm.operator.membershipId): Promise<number> => {

@@ -2,6 +2,7 @@
 // owner through the outbox in the report's own transaction, and a breakdown puts the machine down.
 import type { FieldReports } from '../../shared/schemas/run-sheet';
 import type { Board } from '../../shared/schemas/board';
+import { dayIn } from '../../shared/calendar';
 import { makeFarm, type TestFarm } from '../support/farm-factory';
 import { rect } from '../support/geo-fixtures';
 import { Client, startTestApp, type TestApp } from '../support/test-app';
@@ -69,8 +70,10 @@ describe('reports from the field', () => {
 
   it('when an operator reports a breakdown, then the owner sees it open at once with job, field and machine, the machine is down, and each owner gets an e-mail', async () => {
     const f = await field();
-    const id = await add('2031-06-01', f);
-    await operator.post(`/api/assignments/${id}/events`, { type: 'start' });
+    // A job of the farm's today (America/Chicago, the test farm's zone): it can be started now.
+    const today = dayIn('America/Chicago');
+    const id = await add(today, f);
+    expect((await operator.post(`/api/assignments/${id}/events`, { type: 'start' })).status).toBe(201);
     const res = await operator.post(`/api/assignments/${id}/problems`, { kind: 'breakdown', note: 'Hydraulic hose burst' });
     expect(res.status).toBe(201);
     const list = await reports();
@@ -81,7 +84,7 @@ describe('reports from the field', () => {
       note: 'Hydraulic hose burst',
       by: farm.operator.name,
       review: 'open',
-      job: { id, date: '2031-06-01', operation: 'harrowing', state: 'paused' },
+      job: { id, date: today, operation: 'harrowing', state: 'paused' },
       field: { id: f, name: expect.stringMatching(/^Reported \d+$/) },
       machine: { id: tractor, name: '4WD No. 3' },
     });

@@ -5,7 +5,7 @@
 import type { Page } from 'playwright-core';
 import { dayIn } from '../../shared/calendar';
 import { DEMO_FARM_NAME } from '../../seeds/01_demo_farm';
-import { demo, screenshot, seriousViolations, signIn, startRig, type BrowserRig, openedDialog } from '../support/browser';
+import { demo, freeBoardDay, screenshot, seriousViolations, signIn, startRig, type BrowserRig, openedDialog } from '../support/browser';
 import { createPhoneJob, type PhoneJob } from '../support/phone-job';
 
 const PHONE = { width: 390, height: 844 };
@@ -162,6 +162,9 @@ describe('The run sheet on a phone in a real browser', () => {
   });
 
   it('when the job starts at meter 2781 and finishes at 2789.4, then the log shows 8.4 engine hours and the clock time apart', async () => {
+    // A start waits for the job's day: the job moves to a day gone by to be started now.
+    day = await freeBoardDay(rig, undefined, { past: true });
+    await job.moveTo(day);
     const page = await onPhone(rig, person);
     await page.goto(`/run-sheet?date=${day}`);
     const panel = page.locator('mat-expansion-panel').filter({ hasText: fieldName });

@@ -1,10 +1,13 @@
 import { DEMO_FARM_NAME } from '../../seeds/01_demo_farm';
 import { demo, screenshot, seriousViolations, signIn, startRig, type BrowserRig, openedDialog } from '../support/browser';
 
-/** A day far ahead that no board has yet, so this test's one job leaves the demo farm's days alone. */
+/**
+ * A day long gone that no board has yet, so this test's one job leaves the demo farm's days alone
+ * and can be started now (a start waits for the job's day).
+ */
 async function freeDay(rig: BrowserRig): Promise<string> {
   for (let i = 0; i < 50; i++) {
-    const day = `${2040 + Math.floor(Math.random() * 55)}-0${1 + Math.floor(Math.random() * 9)}-1${Math.floor(Math.random() * 9)}`;
+    const day = `${1950 + Math.floor(Math.random() * 55)}-0${1 + Math.floor(Math.random() * 9)}-1${Math.floor(Math.random() * 9)}`;
     const [jobs, days] = await Promise.all([rig.t.db('assignments').where({ day }).first(), rig.t.db('board_days').where({ day }).first()]);
     if (!jobs && !days) return day;
   }

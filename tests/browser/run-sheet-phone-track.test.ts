@@ -35,7 +35,13 @@ describe('Record track on the run sheet, in a real browser', () => {
 
   beforeAll(async () => {
     rig = await startRig();
-    job = await createPhoneJob(rig, { day: await freeBoardDay(rig), name: 'Wren Tallis', corner: CORNER, engineHours: 2210 });
+    // A day gone by: the operator starts the job now, and a start waits for the job's day.
+    job = await createPhoneJob(rig, {
+      day: await freeBoardDay(rig, undefined, { past: true }),
+      name: 'Wren Tallis',
+      corner: CORNER,
+      engineHours: 2210,
+    });
     const a = await rig.t.db('assignments').where({ id: job.jobId }).first('implement_id');
     widthM = (await rig.t.db('implements').where({ id: a.implement_id }).first('width_m')).width_m;
   });

@@ -158,11 +158,16 @@ export async function seriousViolations(page: Page): Promise<string[]> {
 /**
  * A day far ahead that no board of any farm has yet, so a test builds its own board and leaves
  * the demo farm's days alone. `months` (1–12) keeps it to a season: the fake forecast's weather
- * follows the month, and a spraying day in January is no spraying day.
+ * follows the month, and a spraying day in January is no spraying day. `past`: a day long gone
+ * instead, for a test whose operator starts the job (a start waits for the job's day).
  */
-export async function freeBoardDay(rig: BrowserRig, months: readonly number[] = [1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12]): Promise<string> {
+export async function freeBoardDay(
+  rig: BrowserRig,
+  months: readonly number[] = [1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12],
+  { past = false }: { past?: boolean } = {},
+): Promise<string> {
   for (let i = 0; i < 50; i++) {
-    const year = 2040 + Math.floor(Math.random() * 55);
+    const year = (past ? 1950 : 2040) + Math.floor(Math.random() * 55);
     const month = months[Math.floor(Math.random() * months.length)];
     const date = 1 + Math.floor(Math.random() * 28);
     const day = `${year}-${String(month).padStart(2, '0')}-${String(date).padStart(2, '0')}`;

@@ -31,6 +31,8 @@ export interface PhoneJob {
   /** The random tag in the person's, field's and tractor's names (`4WD <tag>`). */
   tag: string;
   person: { role: 'operator'; name: string; email: string; password: string };
+  /** Moves the job and its published board to another day (a start waits for the job's day). */
+  moveTo(day: string): Promise<void>;
   remove(): Promise<void>;
 }
 
@@ -91,14 +93,22 @@ export async function createPhoneJob(rig: BrowserRig, o: PhoneJobOptions): Promi
     })
     .returning('id');
 
+  let day = o.day;
+  async function moveTo(to: string): Promise<void> {
+    await db('board_days').where({ farm_id: farmId, day }).update({ day: to });
+    await db('board_changes').where({ farm_id: farmId, day }).delete();
+    await db('assignments').where({ id: jobId }).update({ day: to });
+    day = to;
+  }
+
   async function remove(): Promise<void> {
     await db('assignment_events')
       .where({ farm_id: farmId })
       .whereIn('assignment_id', db('assignments').where({ field_id: fieldId }).select('id'))
       .delete();
-    await db('assignments').where({ farm_id: farmId, day: o.day }).delete();
-    await db('board_changes').where({ farm_id: farmId, day: o.day }).delete();
-    await db('board_days').where({ farm_id: farmId, day: o.day }).delete();
+    await db('assignments').where({ farm_id: farmId, day }).delete();
+    await db('board_changes').where({ farm_id: farmId, day }).delete();
+    await db('board_days').where({ farm_id: farmId, day }).delete();
     await db('hazards').where({ field_id: fieldId }).delete();
     await db('fields').where({ id: fieldId }).delete();
     await db('machines').where({ id: machineId }).delete();
@@ -106,5 +116,5 @@ export async function createPhoneJob(rig: BrowserRig, o: PhoneJobOptions): Promi
     await db('users').where({ id: userId }).delete();
   }
 
-  return { farmId, userId, membershipId, fieldId, fieldName, machineId, jobId, day: o.day, tag, person, remove };
+  return { farmId, userId, membershipId, fieldId, fieldName, machineId, jobId, day: o.day, tag, person, moveTo, remove };
 }

@@ -23,6 +23,8 @@ export async function insertImplement(db: Db, farmId: number, cols: Record<strin
 let dayOffset = Math.floor(Math.random() * 3000);
 /** A day of its own (version 0, no board row yet), so one matrix call never makes another stale. */
 const freshDay = () => new Date(Date.UTC(2031, 0, 1) + dayOffset++ * 86_400_000).toISOString().slice(0, 10);
+/** A day of its own already past, for a job that may be started now (a start waits for the job's day). */
+const freshPastDay = () => new Date(Date.UTC(2021, 0, 1) + dayOffset++ * 86_400_000).toISOString().slice(0, 10);
 
 /** An open report from the field on a spare job of the farm. */
 async function openReport(c: Ctx): Promise<number> {
@@ -41,12 +43,12 @@ async function openReport(c: Ctx): Promise<number> {
 }
 
 /** A harrowing job for the farm's operator on a fresh day; `finished` gives it a logged finish. */
-async function spareJob(c: Ctx, finished = false): Promise<number> {
+async function spareJob(c: Ctx, finished = false, day = freshDay()): Promise<number> {
   const db = c.t.db;
   const [a] = await db('assignments')
     .insert({
       farm_id: c.farm.id,
-      day: freshDay(),
+      day,
       field_id: await c.spareField(),
       operation: 'harrowing',
       operator_id: c.farm.operator.membershipId,
@@ -111,7 +113,7 @@ export const board: Record<string, Case> = {
   },
   'DELETE /api/assignments/:id': { path: async (c) => `/api/assignments/${await spareJob(c)}?version=0`, expect: ownerOnly(200, 404) },
   'POST /api/assignments/:id/events': {
-    path: async (c) => `/api/assignments/${await spareJob(c)}/events`,
+    path: async (c) => `/api/assignments/${await spareJob(c, false, freshPastDay())}/events`,
     body: { type: 'start' },
     expect: operatorAndOwner(201),
   },
