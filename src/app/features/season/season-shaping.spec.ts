@@ -40,6 +40,10 @@ function op(operation: Operation, over: Partial<OperationSeason> = {}): Operatio
 }
 
 function summary(year: number, ops: Partial<Record<Operation, Partial<OperationSeason>>>): SeasonSummary {
+  // The season's totals as the API sends them: sums of the operations, the rate to 4 decimals.
+  const done = Object.values(ops);
+  const acresFinished = done.reduce((s, o) => s + (o.acresFinished ?? 0), 0);
+  const hoursLogged = done.reduce((s, o) => s + (o.hoursLogged ?? 0), 0);
   return {
     year,
     operations: OPERATIONS.map((o) => op(o, ops[o])),
@@ -108,10 +112,10 @@ function summary(year: number, ops: Partial<Record<Operation, Partial<OperationS
       },
     ],
     totals: {
-      acresFinished: 360.5,
-      hoursLogged: 11,
+      acresFinished,
+      hoursLogged,
       engineHours: 12.5,
-      acresPerHour: 32.77,
+      acresPerHour: hoursLogged > 0 ? Math.round((acresFinished / hoursLogged) * 10_000) / 10_000 : null,
       jobsFinished: 4,
       jobsCalledOff: 1,
       weatherDaysLost: 0,
@@ -178,7 +182,8 @@ describe('season shaping', () => {
     expect(t.totals['planned']).toBeCloseTo(planned, 9);
     expect(t.totals['finished']).toBeCloseTo(200 + 160.5, 9);
     expect(t.totals['hours']).toBeCloseTo(5 + 6, 9);
-    expect(t.totals['rate']).toBeCloseTo((200 + 160.5) / (5 + 6), 9);
+    // The API's rate of the season, to its 4 decimals.
+    expect(t.totals['rate']).toBeCloseTo((200 + 160.5) / (5 + 6), 4);
     expect(t.totals['progress']).toBeCloseTo((200 + 160.5) / planned, 9);
     expect(t.totals['plannedRate']).toBeCloseTo(160.5 / 4, 9);
     expect(t.totals['operation']).toBe('All operations');
@@ -213,11 +218,40 @@ describe('season shaping', () => {
     );
     expect(p.totals['rate']).toBeCloseTo(
       S.byPerson.reduce((s, x) => s + x.totalAcres, 0) / S.byPerson.reduce((s, x) => s + x.totalHours, 0),
-      9,
+      4,
     );
     const m = machinesTable(S, 'us');
     expect(m.rows[0]['operations']).toBe('Harrowing, Seeding');
     expect(m.totals['rate']).toBeCloseTo(360.5 / 12.5, 9);
+  });
+
+  it('when the rows add up to a total on a rounding step, then every totals row reads as the headline does', () => {
+    // 379.84 + 139.51 + 350.9 = 870.25 h by hand, which rounds half up to 870.3 h at one decimal;
+    // added as IEEE 754 doubles in that order they give 870.2499999999999, which reads 870.2.
+    const hours = [379.84, 139.51, 350.9];
+    const base = summary(2026, {
+      harrowing: { acresFinished: 3000, hoursLogged: hours[0] },
+      seeding: { acresFinished: 2000, hoursLogged: hours[1] },
+      spraying: { acresFinished: 4000, hoursLogged: hours[2] },
+    });
+    const machine = (id: number, h: number) => ({ ...base.byMachine[0], machineId: id, machine: `No. ${id}`, hours: h, engineHours: h });
+    const person = (id: number, h: number) => ({ ...base.byPerson[0], membershipId: id, name: `P${id}`, totalHours: h });
+    const s: SeasonSummary = {
+      ...base,
+      byMachine: hours.map((h, i) => machine(i + 1, h)),
+      byPerson: hours.map((h, i) => person(i + 1, h)),
+      byField: hours.map((h, i) => ({ ...base.byField[2], fieldId: i + 1, totalHours: h })),
+      // As the API sends it: summed exactly once, then kept to 4 decimals.
+      totals: { ...base.totals, hoursLogged: 870.25, engineHours: 870.25 },
+    };
+    expect(formatCell(s.totals.hoursLogged, 'hours')).toBe('870.3');
+    const machines = machinesTable(s, 'us');
+    expect(machines.totals['machine']).toBe('Whole fleet');
+    expect(formatCell(machines.totals['hours'], 'hours')).toBe('870.3');
+    expect(formatCell(machines.totals['engineHours'], 'hours')).toBe('870.3');
+    expect(formatCell(peopleTable(s, 'us').totals['hours'], 'hours')).toBe('870.3');
+    expect(formatCell(operationsTable(s, 'us').totals['hours'], 'hours')).toBe('870.3');
+    expect(formatCell(fieldsTable(s, 'us').totals['hours'], 'hours')).toBe('870.3');
   });
 
   it('when two seasons are compared, then each operation shows both years and the change', () => {

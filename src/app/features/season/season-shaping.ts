@@ -139,8 +139,32 @@ export function operationsTable(s: SeasonSummary, system: UnitSystem): Table {
       cost: o.costCents,
       costPerArea: costPerArea(o.costPerAcreCents, o.costCents, o.acresFinished, system),
     }));
-  // Money totals come from the API, rounded once from the exact sum, never added up from rounded rows.
-  return { columns, rows, totals: { ...totalsOf(columns, rows), ...moneyTotals(s, system) } };
+  // Money, area and hours totals come from the API, each from its exact sum, never added up from rounded rows.
+  const t = seasonTotals(s, system);
+  const season: Row = rows.length ? { finished: t.area, hours: t.hours, rate: t.rate } : {};
+  return { columns, rows, totals: { ...totalsOf(columns, rows), ...season, ...moneyTotals(s, system) } };
+}
+
+/**
+ * The season's own figures for a totals row that adds up the whole season (every finished job has
+ * one field, one operator and one machine): the API adds the exact figures once, and the headline
+ * shows the same ones. Adding the rows here instead adds figures already rounded, in binary
+ * floating point, which can put a total on the other side of a rounding step: 379.84 + 139.51 +
+ * 350.9 h gives 870.2499999999999 in IEEE 754 doubles, shown "870.2" beside the headline's "870.3"
+ * for 870.25.
+ */
+function seasonTotals(s: SeasonSummary, system: UnitSystem) {
+  const t = s.totals;
+  return {
+    area: areaIn(t.acresFinished, system),
+    hours: t.hoursLogged,
+    engineHours: t.engineHours,
+    rate: t.acresPerHour === null ? null : areaIn(t.acresPerHour, system),
+    ratePerEngineHour: t.engineHours > 0 ? areaIn(t.acresFinished / t.engineHours, system) : null,
+    /** Each operation's finished area, for its column. */
+    of: (ops: readonly Operation[]): Row =>
+      Object.fromEntries(ops.map((op) => [op, areaIn(s.operations.find((o) => o.operation === op)?.acresFinished ?? 0, system)])),
+  };
 }
 
 /** The farm's cost and cost per area for a totals row. */
@@ -236,7 +260,10 @@ export function fieldsTable(s: SeasonSummary, system: UnitSystem): Table {
     }
     return row;
   });
-  return { columns, rows, totals: { ...totalsOf(columns, rows), cost: s.totals.costCents } };
+  // The fields' own acres are not a season figure: they stay the sum of the rows.
+  const t = seasonTotals(s, system);
+  const season: Row = rows.length ? { hours: t.hours, ...t.of(ops) } : {};
+  return { columns, rows, totals: { ...totalsOf(columns, rows), ...season, cost: s.totals.costCents } };
 }
 
 export function peopleTable(s: SeasonSummary, system: UnitSystem): Table {
@@ -259,7 +286,9 @@ export function peopleTable(s: SeasonSummary, system: UnitSystem): Table {
     for (const op of ops) row[op] = p.operations[op] ? areaIn(p.operations[op].acres, system) : null;
     return row;
   });
-  return { columns, rows, totals: totalsOf(columns, rows) };
+  const t = seasonTotals(s, system);
+  const season: Row = rows.length ? { area: t.area, hours: t.hours, rate: t.rate, ...t.of(ops) } : {};
+  return { columns, rows, totals: { ...totalsOf(columns, rows), ...season } };
 }
 
 export function machinesTable(s: SeasonSummary, system: UnitSystem): Table {
@@ -286,7 +315,9 @@ export function machinesTable(s: SeasonSummary, system: UnitSystem): Table {
     cost: m.costCents,
     costPerArea: costPerArea(m.costPerAcreCents, m.costCents, m.acres, system),
   }));
-  return { columns, rows, totals: { ...totalsOf(columns, rows), cost: s.totals.costCents } };
+  const t = seasonTotals(s, system);
+  const season: Row = rows.length ? { area: t.area, hours: t.hours, engineHours: t.engineHours, rate: t.ratePerEngineHour } : {};
+  return { columns, rows, totals: { ...totalsOf(columns, rows), ...season, cost: s.totals.costCents } };
 }
 
 /** Two seasons side by side, per operation either of them planned or worked. */
@@ -321,7 +352,11 @@ export function compareTable(a: SeasonSummary, b: SeasonSummary, system: UnitSys
       progressB: y.acresPlanned > 0 ? y.progress : null,
     };
   });
-  return { columns, rows, totals: totalsOf(columns, rows) };
+  const [ta, tb] = [seasonTotals(a, system), seasonTotals(b, system)];
+  const seasons: Row = rows.length
+    ? { areaA: ta.area, areaB: tb.area, change: tb.area - ta.area, hoursA: ta.hours, hoursB: tb.hours, rateA: ta.rate, rateB: tb.rate }
+    : {};
+  return { columns, rows, totals: { ...totalsOf(columns, rows), ...seasons } };
 }
 
 /**
