@@ -131,6 +131,21 @@ describe('the compiled server with WEB_CONCURRENCY=2, as npm start runs it', () 
   });
 });
 
+describe('the server from its sources with WEB_CONCURRENCY=2', () => {
+  let server: ServerProcess;
+  afterAll(async () => {
+    await server?.stop();
+  });
+
+  it('when its processes start, then none warns of a listener leak (each builds a dozen sign-in and heavy-work limits counted in the primary)', async () => {
+    server = await startServerProcess({ ...env, WEB_CONCURRENCY: '2' });
+    expect(server.output()).toContain('(2 server processes)');
+    // Both processes have built their routes by now; give their stderr a moment to arrive.
+    await new Promise((r) => setTimeout(r, 1000));
+    expect(server.output()).not.toContain('MaxListenersExceededWarning');
+  }, 60_000);
+});
+
 describe('Ctrl-C on the server, as `npm start` runs it', () => {
   // A terminal's Ctrl-C sends SIGINT to every process of the foreground group (the supervisor, the
   // primary and its server processes), and the supervisor (scripts/lib/setup.mjs) then sends
