@@ -23,8 +23,11 @@ export async function insertImplement(db: Db, farmId: number, cols: Record<strin
 let dayOffset = Math.floor(Math.random() * 3000);
 /** A day of its own (version 0, no board row yet), so one matrix call never makes another stale. */
 const freshDay = () => new Date(Date.UTC(2031, 0, 1) + dayOffset++ * 86_400_000).toISOString().slice(0, 10);
-/** A day of its own already past, for a job that may be started now (a start waits for the job's day). */
-const freshPastDay = () => new Date(Date.UTC(2021, 0, 1) + dayOffset++ * 86_400_000).toISOString().slice(0, 10);
+/**
+ * A day of its own already past, for a job that may be started now (a start waits for the job's day):
+ * from 2001 on, so even the last of the random offsets (3000 days and the calls after) is years gone.
+ */
+const freshPastDay = () => new Date(Date.UTC(2001, 0, 1) + dayOffset++ * 86_400_000).toISOString().slice(0, 10);
 
 /** An open report from the field on a spare job of the farm. */
 async function openReport(c: Ctx): Promise<number> {
