@@ -21,6 +21,7 @@ import { HttpClient, startServerProcess } from '../tests/support/server-process'
 import { insertImplement, insertMachine } from '../tests/api/matrix/board';
 // @ts-expect-error -- the set-up helpers are plain ES modules without types
 import { LocalCluster, intEnv } from './lib/setup.mjs';
+import { dayIn } from '../shared/calendar';
 import { OUTBOX_BATCH_MAX } from '../shared/limits';
 import type { OutboxAnswer } from '../shared/schemas/run-sheet';
 
@@ -117,12 +118,16 @@ async function main(): Promise<void> {
     await db.migrate.latest(migrationConfig);
     await prepareQueues(url);
     const farm = await makeFarm(db, 'Bench Outbox');
-    const day = new Date().toISOString().slice(0, 10);
+    // Tapped over the last few hours (the last tap about half an hour ago).
+    const base = Date.now() - 4 * 3_600_000;
+    // The jobs' day is the farm's day of the first tap (the test farm keeps its zone, America/Chicago):
+    // a start is taken from the job's day on at the farm, so the UTC date would refuse it in the evening there.
+    const { time_zone: zone } = await db('farms').where({ id: farm.id }).first('time_zone');
+    const day = dayIn(zone, new Date(base));
     const jobIds = await addJobs(db, farm.id, farm.operator.membershipId, day);
     const singleJobIds = await addJobs(db, farm.id, farm.operator.membershipId, day, 'B');
-    // Tapped over the last few hours (the last tap about half an hour ago).
-    const actions = outbox(jobIds, Date.now() - 4 * 3_600_000);
-    const singleActions = outbox(singleJobIds, Date.now() - 4 * 3_600_000);
+    const actions = outbox(jobIds, base);
+    const singleActions = outbox(singleJobIds, base);
 
     server = await startServerProcess({ DATABASE_URL: url, SESSION_SECRET: 'bench-secret-bench-secret-bench-secret-0123' });
     const phone = new HttpClient(server.url);
