@@ -116,5 +116,21 @@ export async function createPhoneJob(rig: BrowserRig, o: PhoneJobOptions): Promi
     await db('users').where({ id: userId }).delete();
   }
 
-  return { farmId, userId, membershipId, fieldId, fieldName, machineId, jobId, day: o.day, tag, person, moveTo, remove };
+  return {
+    farmId,
+    userId,
+    membershipId,
+    fieldId,
+    fieldName,
+    machineId,
+    jobId,
+    // The job's day as it is now: moveTo changes it.
+    get day() {
+      return day;
+    },
+    tag,
+    person,
+    moveTo,
+    remove,
+  };
 }
