@@ -68,6 +68,9 @@ describe('Run sheet weather on a phone in a real browser', () => {
       const page = await rig.newPage();
       await signIn(page, account);
       await page.setViewportSize({ width: 390, height: 844 });
+      // The phone's clock on the job's own morning (as the fake forecast's): Start opens only from the
+      // job's day at the farm, and this test reads the Start dialog.
+      await page.clock.setFixedTime(new Date(`${day}T15:00:00Z`));
       await page.goto(`/run-sheet?date=${day}`);
       const panel = page.locator('mat-expansion-panel').filter({ hasText: 'Slough Quarter' });
       await panel.waitFor();
