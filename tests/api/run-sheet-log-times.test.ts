@@ -9,6 +9,45 @@ import { rect } from '../support/geo-fixtures';
 import { Client, startTestApp, type TestApp } from '../support/test-app';
 import { insertImplement, insertMachine } from './matrix/board';
 
+/** A test app with a farm in `zone`, its operator qualified for harrowing; owner and operator signed in. */
+async function farmIn(name: string, zone: string): Promise<{ t: TestApp; farm: TestFarm; owner: Client; operator: Client }> {
+  const t = await startTestApp();
+  const farm = await makeFarm(t.db, name);
+  await t.db('farms').where({ id: farm.id }).update({ time_zone: zone });
+  const owner = new Client(t.app);
+  await owner.signIn(farm.owner.email, farm.owner.password);
+  const operator = new Client(t.app);
+  await operator.signIn(farm.operator.email, farm.operator.password);
+  await t
+    .db('crew_skills')
+    .insert({ farm_id: farm.id, membership_id: farm.operator.membershipId, operation: 'harrowing', level: 'qualified' });
+  return { t, farm, owner, operator };
+}
+
+/** A harrowing job on `day`, for the farm's operator, on a new 40 ac field; its id. */
+async function harrowingJob(
+  { t, farm, owner }: { t: TestApp; farm: TestFarm; owner: Client },
+  day: string,
+  field: { name: string; boundary: object },
+): Promise<number> {
+  const [{ id: fieldId }] = await t
+    .db('fields')
+    .insert({ farm_id: farm.id, name: field.name, boundary: JSON.stringify(field.boundary), area_m2: 40 * 4046.86, acres: 40 })
+    .returning('id');
+  const version = ((await owner.get(`/api/board?date=${day}`)).body as Board).version;
+  const created = await owner.post('/api/assignments', {
+    version,
+    date: day,
+    operation: 'harrowing',
+    fieldId,
+    operatorId: farm.operator.membershipId,
+    machineId: await insertMachine(t.db, farm.id),
+    implementId: await insertImplement(t.db, farm.id),
+  });
+  expect(created.status).toBe(201);
+  return created.body.savedAssignmentId as number;
+}
+
 describe("run-sheet log times in the farm's zone", () => {
   let t: TestApp;
   let farm: TestFarm;
@@ -16,43 +55,13 @@ describe("run-sheet log times in the farm's zone", () => {
   let operator: Client;
 
   beforeAll(async () => {
-    t = await startTestApp();
-    farm = await makeFarm(t.db, 'Log zones');
-    await t.db('farms').where({ id: farm.id }).update({ time_zone: 'America/Winnipeg' });
-    owner = new Client(t.app);
-    await owner.signIn(farm.owner.email, farm.owner.password);
-    operator = new Client(t.app);
-    await operator.signIn(farm.operator.email, farm.operator.password);
-    await t
-      .db('crew_skills')
-      .insert({ farm_id: farm.id, membership_id: farm.operator.membershipId, operation: 'harrowing', level: 'qualified' });
+    ({ t, farm, owner, operator } = await farmIn('Log zones', 'America/Winnipeg'));
   });
   afterAll(() => t.close());
 
   it('when a pause is logged before the start, then the refusal names both times at the farm clock', async () => {
     const d = '2026-03-08';
-    const [{ id: fieldId }] = await t
-      .db('fields')
-      .insert({
-        farm_id: farm.id,
-        name: 'Yard Quarter',
-        boundary: JSON.stringify(rect(-97.2, 49.8, 0.003, 0.003)),
-        area_m2: 40 * 4046.86,
-        acres: 40,
-      })
-      .returning('id');
-    const version = ((await owner.get(`/api/board?date=${d}`)).body as Board).version;
-    const created = await owner.post('/api/assignments', {
-      version,
-      date: d,
-      operation: 'harrowing',
-      fieldId,
-      operatorId: farm.operator.membershipId,
-      machineId: await insertMachine(t.db, farm.id),
-      implementId: await insertImplement(t.db, farm.id),
-    });
-    expect(created.status).toBe(201);
-    const id = created.body.savedAssignmentId as number;
+    const id = await harrowingJob({ t, farm, owner }, d, { name: 'Yard Quarter', boundary: rect(-97.2, 49.8, 0.003, 0.003) });
     // The first minute of daylight time in Winnipeg: 02:00 CST became 03:00 CDT at 08:00 UTC.
     const started = '2026-03-08T08:00:00Z';
     expect((await operator.post(`/api/assignments/${id}/events`, { type: 'start', at: started })).status).toBe(201);
@@ -81,45 +90,14 @@ describe("a start before the job's day at the farm", () => {
   const farmInstant = (day: string, clock: string) => DateTime.fromISO(`${day}T${clock}`, { zone }).toUTC().toISO()!;
   const label = (day: string) => DateTime.fromISO(day).setLocale('en-US').toFormat('ccc, LLL d');
 
-  const job = async (day: string): Promise<number> => {
-    const [{ id: fieldId }] = await t
-      .db('fields')
-      .insert({
-        farm_id: farm.id,
-        name: `Atoll ${++n}`,
-        boundary: JSON.stringify(rect(-157.4 + n * 0.01, 1.9, 0.003, 0.003)),
-        area_m2: 40 * 4046.86,
-        acres: 40,
-      })
-      .returning('id');
-    const version = ((await owner.get(`/api/board?date=${day}`)).body as Board).version;
-    const created = await owner.post('/api/assignments', {
-      version,
-      date: day,
-      operation: 'harrowing',
-      fieldId,
-      operatorId: farm.operator.membershipId,
-      machineId: await insertMachine(t.db, farm.id),
-      implementId: await insertImplement(t.db, farm.id),
-    });
-    expect(created.status).toBe(201);
-    return created.body.savedAssignmentId as number;
-  };
+  const job = (day: string): Promise<number> =>
+    harrowingJob({ t, farm, owner }, day, { name: `Atoll ${++n}`, boundary: rect(-157.4 + n * 0.01, 1.9, 0.003, 0.003) });
   const start = (id: number, body: object = {}) => operator.post(`/api/assignments/${id}/events`, { type: 'start', ...body });
   const stateOf = async (id: number) => (await t.db('assignments').where({ id }).first()).state as string;
   const events = async (id: number) => Number((await t.db('assignment_events').where({ assignment_id: id }).count({ n: '*' }))[0].n);
 
   beforeAll(async () => {
-    t = await startTestApp();
-    farm = await makeFarm(t.db, 'Start day');
-    await t.db('farms').where({ id: farm.id }).update({ time_zone: zone });
-    owner = new Client(t.app);
-    await owner.signIn(farm.owner.email, farm.owner.password);
-    operator = new Client(t.app);
-    await operator.signIn(farm.operator.email, farm.operator.password);
-    await t
-      .db('crew_skills')
-      .insert({ farm_id: farm.id, membership_id: farm.operator.membershipId, operation: 'harrowing', level: 'qualified' });
+    ({ t, farm, owner, operator } = await farmIn('Start day', zone));
   });
   afterAll(() => t.close());
 
