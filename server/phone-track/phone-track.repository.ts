@@ -50,12 +50,3 @@ export const pointsOf = (db: Tx, farmId: number, assignmentId: number): Promise<
   db<DbTrackPointRow>('assignment_track_points')
     .where({ farm_id: farmId, assignment_id: assignmentId })
     .orderBy([{ column: 'at' }, { column: 'id' }]);
-
-/** When the job's last chunk came in; undefined when none has. */
-export async function lastChunkAt(db: Tx, farmId: number, assignmentId: number): Promise<Date | undefined> {
-  const row = await db('assignment_track_chunks')
-    .where({ farm_id: farmId, assignment_id: assignmentId })
-    .max<{ at: Date | null }>('received_at as at')
-    .first();
-  return row?.at ?? undefined;
-}

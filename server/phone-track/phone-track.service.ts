@@ -14,7 +14,7 @@ import { eventsOfJob } from '../jobs/events.repository';
 import { MAX_AGE_DAYS } from '../run-sheet/events.service';
 import { coverageOf } from '../track-coverage/coverage.repository';
 import { coverageGround, storeCoverage } from '../track-coverage/coverage.service';
-import { claimChunk, chunkOf, insertPoints, lastChunkAt, pointCount, pointsOf } from './phone-track.repository';
+import { claimChunk, chunkOf, insertPoints, pointCount, pointsOf } from './phone-track.repository';
 
 /** The name a coverage measured from the phone track is stored under (the job's map shows it). */
 export const PHONE_TRACK_SOURCE = 'phone track';
@@ -57,7 +57,7 @@ function checkTimes(chunk: TrackChunk): void {
  * late points (a phone may send its last chunks after the finish).
  */
 export async function receiveChunk(deps: AppDeps, by: SessionPrincipal, id: number, chunk: TrackChunk): Promise<TrackChunkAnswer> {
-  const job = await ownJob(deps, by, id);
+  await ownJob(deps, by, id);
   checkTimes(chunk);
   const answer = { chunkId: chunk.chunkId, points: chunk.points.length };
   const added = await deps.db.transaction(async (tx) => {
@@ -100,7 +100,9 @@ export async function receiveChunk(deps: AppDeps, by: SessionPrincipal, id: numb
     );
     return true;
   });
-  if (added && job.state === 'finished') await measureAfterFinish(deps, by, id);
+  // The job's state is read once the points are in: a finish that landed while they were being
+  // stored measured without them, so they are measured now (a finish after this sees them).
+  if (added && (await getAssignment(deps.db, by.farmId, id))?.state === 'finished') await measureAfterFinish(deps, by, id);
   return answer;
 }
 
@@ -144,20 +146,22 @@ export async function measurePhoneTrack(deps: AppDeps, by: SessionPrincipal, id:
         : 'No phone track was recorded for this job: turn on "Record track" on the run sheet while the job is underway',
     );
   const r = await deps.compute.run('pointsCoverage', { boundary, hazards, widthM, track });
-  return storeCoverage(deps, by, id, widthM, r, { name: PHONE_TRACK_SOURCE, format: 'phone' });
+  return storeCoverage(deps, by, id, widthM, r, { name: PHONE_TRACK_SOURCE, format: 'phone', trackPoints: rows.length });
 }
 
 /**
  * After a finish (or a chunk arriving for a finished job): the phone track's coverage, unless a
  * track file was measured for the job (a file sent on purpose is not replaced by the phone's) or
- * the phone track was measured since its last chunk. A failure is logged; the finish stands.
+ * the phone track was measured with every point it has now (counted, not timed: a chunk stored
+ * after a measure read the points may have been received before the measure was saved). A
+ * failure is logged; the finish stands.
  */
 export async function measureAfterFinish(deps: AppDeps, by: SessionPrincipal, id: number): Promise<void> {
   try {
-    const last = await lastChunkAt(deps.db, by.farmId, id);
-    if (!last) return;
+    const points = await pointCount(deps.db, by.farmId, id);
+    if (!points) return;
     const had = await coverageOf(deps.db, by.farmId, id);
-    if (had && (had.source_format !== 'phone' || new Date(had.computed_at) >= last)) return;
+    if (had && (had.source_format !== 'phone' || had.track_points === points)) return;
     await measurePhoneTrack(deps, by, id);
   } catch (err) {
     deps.logger?.warn({ err, assignmentId: id }, 'The phone track of a finished job could not be measured');

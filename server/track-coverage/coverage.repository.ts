@@ -23,6 +23,8 @@ export interface DbCoverageRow {
   source_format: 'gpx' | 'geojson' | 'timelog' | 'phone';
   computed_by: number | null;
   computed_at: Date;
+  /** Phone-track points the measure was made from (source `phone`); null for a track file. */
+  track_points: number | null;
 }
 
 /** The working width of a job's implement, metres. */

@@ -81,11 +81,14 @@ export async function storeCoverage(
   id: number,
   widthM: number,
   r: CoverageResult,
-  source: { name: string; format: DbCoverageRow['source_format'] },
+  source: { name: string; format: DbCoverageRow['source_format']; trackPoints?: number },
 ): Promise<JobCoverage> {
   const saved = await deps.db.transaction(async (tx) => {
     // Locked as a tap locks it, so a finish at the same moment either sees this track or is seen by it.
     const job = await lockJob(tx, by, id, 'operator');
+    // Two measures of a growing phone track may end in either order: the one of more points stands.
+    const had = source.trackPoints === undefined ? undefined : await coverageOf(tx, by.farmId, id);
+    if (had?.source_format === 'phone' && (had.track_points ?? 0) > source.trackPoints!) return had;
     const row = await saveCoverage(tx, {
       assignment_id: id,
       farm_id: by.farmId,
@@ -105,6 +108,7 @@ export async function storeCoverage(
       source_name: source.name.slice(0, 255),
       source_format: source.format,
       computed_by: by.id,
+      track_points: source.trackPoints ?? null,
     });
     const said = await takeMeasuredAcres(tx, by, job, row);
     if (said) await touchBoard(tx, by, job, `Measured a track of a finished job (${said})`);

@@ -51,6 +51,7 @@ describe('the phone track of a job', () => {
   let jobId: number;
   let otherJobId: number;
   let outboxJobId: number;
+  let raceJobId: number;
   const chunks = [pass(0), pass(1), pass(2)].map((points) => ({ chunkId: randomUUID(), points }));
 
   const send = (c: Client, id: number, body: object) => c.post(`/api/assignments/${id}/track-points`, body);
@@ -111,6 +112,7 @@ describe('the phone track of a job', () => {
     jobId = await job(farm.operator.membershipId, 1);
     otherJobId = await job(m.id, 2);
     outboxJobId = await job(farm.operator.membershipId, 3);
+    raceJobId = await job(farm.operator.membershipId, 4);
     const started = await operator.post(`/api/assignments/${jobId}/events`, { type: 'start', at: STARTED });
     expect(started.status).toBe(201);
   });
@@ -242,6 +244,37 @@ describe('the phone track of a job', () => {
     expect(sent.body.results[0].status).toBe(201);
     const row = await t.db('assignment_coverage').where({ assignment_id: outboxJobId }).first();
     expect(row?.source_format).toBe('phone');
+    // Hand: two passes of 20 m over the field's 300 m, 40 m apart (no overlap).
+    expect(row.covered_acres).toBeCloseTo(m2ToAcres(2 * WIDTH * 300), 2);
+  });
+
+  it('when a chunk is being stored as the finish lands, then the coverage is measured again with its points once it is in', async () => {
+    // (5 ac: the field's harrowing this season is mostly done by the first job.)
+    expect((await operator.post(`/api/assignments/${raceJobId}/events`, { type: 'start', at: STARTED })).status).toBe(201);
+    expect((await send(operator, raceJobId, { chunkId: randomUUID(), points: pass(0) })).status).toBe(201);
+    // Hold every chunk's insert (a SHARE lock lets reads through): the second pass's chunk has
+    // checked its job, still underway, and waits to be stored when the finish comes in.
+    const hold = await t.db.transaction();
+    await hold.raw('LOCK TABLE assignment_track_chunks IN SHARE MODE');
+    const pending = send(operator, raceJobId, { chunkId: randomUUID(), points: pass(1) }).then((r) => r);
+    const waiting = async () =>
+      Number(
+        (
+          await t.db.raw(
+            "SELECT count(*) AS n FROM pg_stat_activity WHERE wait_event_type = 'Lock' AND query ILIKE 'insert into \"assignment_track_chunks\"%'",
+          )
+        ).rows[0].n,
+      );
+    for (let i = 0; i < 200 && (await waiting()) === 0; i++) await new Promise((r) => setTimeout(r, 25));
+    expect(await waiting()).toBe(1);
+    const done = await operator.post(`/api/assignments/${raceJobId}/events`, { type: 'finish', at: FINISHED, acres: 5 });
+    expect(done.status).toBe(201);
+    const atFinish = await t.db('assignment_coverage').where({ assignment_id: raceJobId }).first();
+    // Hand: one pass of 20 m over the field's 300 m.
+    expect(atFinish.covered_acres).toBeCloseTo(m2ToAcres(WIDTH * 300), 2);
+    await hold.commit();
+    expect((await pending).status).toBe(201);
+    const row = await t.db('assignment_coverage').where({ assignment_id: raceJobId }).first();
     // Hand: two passes of 20 m over the field's 300 m, 40 m apart (no overlap).
     expect(row.covered_acres).toBeCloseTo(m2ToAcres(2 * WIDTH * 300), 2);
   });
