@@ -8,6 +8,23 @@
 /* eslint-disable */
 importScripts('./ngsw-worker.js');
 
+// The app's built files (their names carry a hash of their content, so a copy kept under that name
+// is always the right one) are read by the browser straight from the caches Angular's worker fills,
+// without starting this worker for each (the Static Routing API, where the browser has it). A file
+// not in any cache yet goes to the network as before. The page itself still comes through this
+// worker: Angular's worker picks which version of the app it opens.
+self.addEventListener('install', (event) => {
+  if (typeof event.addRoutes !== 'function' || typeof URLPattern !== 'function') return;
+  const built = ['/chunk-*.js', '/main-*.js', '/worker-*.js', '/styles-*.css', '/media/*'];
+  event.waitUntil(
+    event
+      .addRoutes(
+        built.map((pathname) => ({ condition: { urlPattern: new URLPattern({ pathname }), requestMethod: 'GET' }, source: 'cache' })),
+      )
+      .catch((err) => console.warn('Static routes not added', err)),
+  );
+});
+
 const OUTBOX_SYNC_TAG = 'furlong-outbox';
 const OUTBOX_DB = 'furlong-outbox';
 const BATCH_MAX = 200;

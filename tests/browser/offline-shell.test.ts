@@ -1,6 +1,6 @@
 // A phone that opened Furlong once opens it again with no network: the service worker serves the
-// app shell, its lazy chunks, fonts and icons and the page itself, and nothing is asked of any
-// server. On a 390×844 phone, as the operator.
+// app shell, its lazy chunks, fonts and icons and the page itself (the built files read straight
+// from its caches), and nothing is asked of any server. On a 390×844 phone, as the operator.
 import type { Page } from 'playwright-core';
 import { demo, screenshot, seriousViolations, signIn, startRig, type BrowserRig } from '../support/browser';
 import { waitForOfflineReady } from '../support/offline';
@@ -71,6 +71,17 @@ describe('The app with no network, in a real browser', () => {
     const headingFont = await page.getByRole('heading', { level: 1, name: 'Run sheet' }).evaluate((el) => getComputedStyle(el).fontFamily);
     expect(headingFont).toMatch(/Roboto/);
 
+    // The built files came straight from the worker's caches, without starting the worker for
+    // each (the Static Routing API: Resource Timing's workerFinalSourceType says where each came from).
+    const sources = await page.evaluate(() =>
+      performance
+        .getEntriesByType('resource')
+        .map((e) => e as PerformanceResourceTiming & { workerFinalSourceType?: string })
+        .filter((e) => /\/(chunk|main)-[A-Z0-9]+\.js$|\/styles-[A-Z0-9]+\.css$/.test(new URL(e.name).pathname))
+        .map((e) => e.workerFinalSourceType),
+    );
+    expect(sources.length).toBeGreaterThan(5);
+    expect(new Set(sources)).toEqual(new Set(['cache']));
     expect(fromNetwork).toEqual([]);
     expect(rig.outside.slice(outsideBefore)).toEqual([]);
     expect(await seriousViolations(page)).toEqual([]);
