@@ -2,7 +2,8 @@ import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import type { Me } from '@shared/schemas/auth';
-import { AuthStore, SIGNED_IN_KEY } from './auth-store';
+import { provideRouter, Router } from '@angular/router';
+import { AuthStore, SERVER_WAIT_MS, SIGNED_IN_KEY } from './auth-store';
 
 const OPERATOR: Me = {
   user: { id: 7, email: 'wren@example.test', name: 'Wren Halloway' },
@@ -127,6 +128,57 @@ describe('AuthStore with no signal', () => {
       .flush({ error: { code: 'db_unavailable', message: 'Not answering' } }, { status: 503, statusText: 'Service Unavailable' });
     expect(await loading).toBeNull();
     expect(store.unavailable()).toEqual(expect.any(String));
+    expect(store.fromDevice()).toBe(false);
+  });
+
+  it('when a weak signal holds "who am I" without an answer, then the app opens as the person last signed in here after the wait, and the answer when it comes still counts', async () => {
+    const store = TestBed.inject(AuthStore);
+    store.signedInAs(OPERATOR);
+    const http = TestBed.inject(HttpTestingController);
+    const started = Date.now();
+    const opened = await store.load(50);
+    expect(Date.now() - started).toBeGreaterThanOrEqual(45);
+    expect(opened).toEqual(OPERATOR);
+    expect(store.fromDevice()).toBe(true);
+    expect(store.unavailable()).toBeNull();
+    http.expectOne('/api/auth/me').flush({ ...OPERATOR, user: { ...OPERATOR.user, name: 'Wren H.' } });
+    expect(store.user()?.name).toBe('Wren H.');
+    expect(store.fromDevice()).toBe(false);
+  });
+
+  it('when the late answer says the session ended, then the person is sent to sign-in and back, and the device forgets them', async () => {
+    TestBed.resetTestingModule();
+    TestBed.configureTestingModule({ providers: [provideHttpClient(), provideHttpClientTesting(), provideRouter([])] });
+    const store = TestBed.inject(AuthStore);
+    store.signedInAs(OPERATOR);
+    const navigate = jest.spyOn(TestBed.inject(Router), 'navigate').mockResolvedValue(true);
+    expect(await store.load(10)).toEqual(OPERATOR);
+    TestBed.inject(HttpTestingController)
+      .expectOne('/api/auth/me')
+      .flush({ error: { code: 'signed_out', message: 'Sign in' } }, { status: 401, statusText: 'Unauthorized' });
+    expect(store.signedIn()).toBe(false);
+    expect(localStorage.getItem(SIGNED_IN_KEY)).toBeNull();
+    expect(navigate).toHaveBeenCalledWith(['/sign-in'], { queryParams: {} });
+  });
+
+  it('when the late answer is a failure (the farm database down), then the person stays as opened from the device', async () => {
+    const store = TestBed.inject(AuthStore);
+    store.signedInAs(OPERATOR);
+    expect(await store.load(10)).toEqual(OPERATOR);
+    TestBed.inject(HttpTestingController)
+      .expectOne('/api/auth/me')
+      .flush({ error: { code: 'db_unavailable', message: 'Not answering' } }, { status: 503, statusText: 'Service Unavailable' });
+    expect(store.me()).toEqual(OPERATOR);
+    expect(store.fromDevice()).toBe(true);
+    expect(store.unavailable()).toBeNull();
+  });
+
+  it('when the server answers within the wait, then the device copy is never used', async () => {
+    const store = TestBed.inject(AuthStore);
+    store.signedInAs(OPERATOR);
+    const loading = store.load(SERVER_WAIT_MS);
+    TestBed.inject(HttpTestingController).expectOne('/api/auth/me').flush(OPERATOR);
+    expect(await loading).toEqual(OPERATOR);
     expect(store.fromDevice()).toBe(false);
   });
 });

@@ -1,5 +1,6 @@
 import { HttpClient } from '@angular/common/http';
-import { Injectable, computed, inject, signal } from '@angular/core';
+import { Injectable, Injector, computed, inject, signal } from '@angular/core';
+import { Router } from '@angular/router';
 import { yearIn } from '@shared/calendar';
 import type { Me, Role } from '@shared/schemas/auth';
 import { type Observable, catchError, firstValueFrom, map, of, tap } from 'rxjs';
@@ -13,12 +14,20 @@ import { API } from '../http/api-paths';
 export const SIGNED_IN_KEY = 'furlong.signed-in';
 
 /**
+ * How long the app waits at start-up for the server to say who this is before it opens for the
+ * person last signed in on this device. A weak signal (one bar at the far end of a section) can
+ * hold a request for minutes without failing it; the run sheet must not wait that long.
+ */
+export const SERVER_WAIT_MS = 4000;
+
+/**
  * Who is signed in, for the whole app. The server decides what each role may do; this store only
  * shapes the UI (navigation, greetings) around the answer of `GET /api/auth/me`.
  */
 @Injectable({ providedIn: 'root' })
 export class AuthStore {
   private readonly http = inject(HttpClient);
+  private readonly injector = inject(Injector);
   private readonly current = signal<Me | null>(null);
 
   readonly me = this.current.asReadonly();
@@ -47,10 +56,13 @@ export class AuthStore {
   /**
    * Asks the server once at start-up who this browser belongs to; a 401 just means "nobody", any
    * other failure means the server could not tell (see `unavailable`). With no connection at all
-   * (status 0) the person last signed in on this device is taken, so the app opens offline.
+   * (status 0) the person last signed in on this device is taken, so the app opens offline. So it
+   * is when the server has not answered within `waitMs`: its answer, when it comes, still counts
+   * (a 401 then sends the person to sign-in; a late failure changes nothing).
    */
-  load(): Promise<Me | null> {
-    return firstValueFrom(
+  load(waitMs = SERVER_WAIT_MS): Promise<Me | null> {
+    let openedFromDevice = false;
+    const answer = firstValueFrom(
       this.http.get<Me>(API.authMe).pipe(
         tap((me) => {
           this.unavailable.set(null);
@@ -62,8 +74,11 @@ export class AuthStore {
           if (e?.status === 401) {
             this.unavailable.set(null);
             this.set(null);
+            if (openedFromDevice) this.toSignIn();
             return of(null);
           }
+          // Already open as the device's person: a late failure leaves them be (no blank screen mid-job).
+          if (openedFromDevice) return of(this.current());
           const kept = e?.status === 0 ? remembered() : null;
           this.fromDevice.set(kept !== null);
           this.unavailable.set(kept ? null : (e?.message ?? "Cannot reach Furlong's server; your work is not lost."));
@@ -72,6 +87,17 @@ export class AuthStore {
         }),
       ),
     );
+    const kept = remembered();
+    if (!kept) return answer;
+    let timer: ReturnType<typeof setTimeout> | undefined;
+    const waited = new Promise<Me>((resolve) => (timer = setTimeout(() => resolve(kept), waitMs))).then((me) => {
+      openedFromDevice = true;
+      this.unavailable.set(null);
+      this.current.set(me);
+      this.fromDevice.set(true);
+      return me;
+    });
+    return Promise.race([answer.finally(() => clearTimeout(timer)), waited]);
   }
 
   login(email: string, password: string): Observable<Me> {
@@ -100,6 +126,13 @@ export class AuthStore {
 
   clear(): void {
     this.set(null);
+  }
+
+  /** The session ended while the app was open from the device's copy: sign in, then come back. */
+  private toSignIn(): void {
+    const router = this.injector.get(Router);
+    const current = router.url;
+    void router.navigate(['/sign-in'], { queryParams: current === '/' || current.startsWith('/sign-in') ? {} : { next: current } });
   }
 
   /** Sets who is signed in and keeps it on this device (or forgets it). */
