@@ -6,7 +6,7 @@ import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { provideRouter } from '@angular/router';
 import type { Me } from '@shared/schemas/auth';
 import type { RunSheet } from '@shared/schemas/run-sheet';
-import { AuthStore } from '../../../core/auth/auth-store';
+import { AuthStore, SERVER_WAIT_MS } from '../../../core/auth/auth-store';
 import { errorInterceptor } from '../../../core/http/error.interceptor';
 import { FieldMap } from '../../../shared/map/field-map/field-map';
 import { FieldMapStub } from '../../../shared/map/field-map/field-map-stub';
@@ -184,6 +184,35 @@ describe('RunSheetPage on a phone with no signal', () => {
     expect(el.querySelector('[data-job="7"]')).not.toBeNull();
     expect(el.querySelector('.load-error')).toBeNull();
     http.verify();
+  });
+
+  it('when a weak signal holds the read without an answer, then the kept jobs show after the wait, said to be waiting for the server, and the answer replaces them', async () => {
+    const { fixture, http, el } = await onPhone((box) =>
+      box.keepSheet('2:1:/api/run-sheet?date=2031-05-15', day([job({ id: 7 })]), new Date('2031-05-15T11:12:00Z')),
+    );
+    fixture.detectChanges();
+    const read = http.expectOne('/api/run-sheet?date=2031-05-15');
+    await new Promise((r) => setTimeout(r, SERVER_WAIT_MS / 2));
+    fixture.detectChanges();
+    expect(el.querySelector('[data-job="7"]')).toBeNull();
+    await new Promise((r) => setTimeout(r, SERVER_WAIT_MS / 2));
+    await until(
+      () => el.querySelector('[data-as-of]') !== null,
+      'the kept sheet',
+      () => fixture.detectChanges(),
+    );
+    expect(text(el, '[data-as-of] span')).toBe('Waiting for the server: the run sheet kept on this phone, as of 06:12.');
+    expect(el.querySelector('[data-job="7"]')).not.toBeNull();
+    expect(el.querySelector('.load-error')).toBeNull();
+
+    read.flush(day([job({ id: 8 })]));
+    await until(
+      () => el.querySelector('[data-job="8"]') !== null,
+      "the server's day",
+      () => fixture.detectChanges(),
+    );
+    expect(el.querySelector('[data-as-of]')).toBeNull();
+    expect(el.querySelector('[data-job="7"]')).toBeNull();
   });
 
   it('when the network answers, then the day is kept on the phone for next time', async () => {

@@ -31,7 +31,7 @@ import { RunSheetJob } from '../run-sheet-job/run-sheet-job';
 import { JobCoverageMap } from '../../../shared/map/job-coverage/job-coverage';
 import { runSheetUrl } from '../run-sheet-api';
 import { OutboxStore } from '../outbox-store';
-import { AuthStore } from '../../../core/auth/auth-store';
+import { AuthStore, SERVER_WAIT_MS } from '../../../core/auth/auth-store';
 import { API } from '../../../core/http/api-paths';
 
 const SHORT = new Intl.DateTimeFormat('en-US', { weekday: 'long', month: 'long', day: 'numeric' });
@@ -115,11 +115,16 @@ export class RunSheetPage {
   /** The copy kept on this device for the address, read when the network gives no sheet. */
   private readonly kept = signal<{ address: string; sheet: RunSheet; savedAt: string } | null>(null);
   /**
+   * True once a read has gone SERVER_WAIT_MS without an answer: a weak signal can hold it for
+   * minutes without failing it, so the kept copy shows meanwhile (the answer replaces it).
+   */
+  private readonly slow = signal(false);
+  /**
    * The sheet shown: the network's, else the device's copy of the same address. While the same
    * address is read again, what was shown stays (no blank page between the two answers).
    */
   protected readonly shown = linkedSignal<
-    { address: string; network: RunSheet | null; error: boolean; loading: boolean; kept: RunSheet | null },
+    { address: string; network: RunSheet | null; error: boolean; loading: boolean; slow: boolean; kept: RunSheet | null },
     RunSheet | null
   >({
     source: () => {
@@ -130,20 +135,28 @@ export class RunSheetPage {
         network: this.sheet.hasValue() ? (this.sheet.value() ?? null) : null,
         error: this.sheet.error() !== undefined,
         loading: this.sheet.isLoading(),
+        slow: this.slow(),
         kept: kept?.address === address ? kept.sheet : null,
       };
     },
     computation: (now, before) => {
       if (now.network) return now.network;
       if (now.error) return now.kept;
-      return now.loading && before?.source.address === now.address ? before.value : null;
+      const stays = now.loading && before?.source.address === now.address ? before.value : null;
+      return stays ?? (now.loading && now.slow ? now.kept : null);
     },
   });
-  /** "as of 06:12" (the farm's clock) when the sheet shown is the device's copy. */
+  /**
+   * When the sheet shown is the device's copy: why ("No connection", or the server is slow to
+   * answer) and "as of 06:12" (the farm's clock).
+   */
   protected readonly asOf = computed(() => {
     const kept = this.kept();
     if (!kept || this.shown() !== kept.sheet) return null;
-    return `as of ${farmTime(kept.savedAt, this.auth.farm()?.timeZone, 'clock')}`;
+    return {
+      why: this.sheet.error() === undefined ? 'Waiting for the server' : 'No connection',
+      at: `as of ${farmTime(kept.savedAt, this.auth.farm()?.timeZone, 'clock')}`,
+    };
   });
   /** Why this day shows when the person did not ask for one: "No work today; showing Thursday, April 16, the next day with work". */
   protected readonly openedNote = computed(() => {
@@ -190,9 +203,15 @@ export class RunSheetPage {
       if (value)
         untracked(() => void this.outbox.keepSheet(address, value).then(() => (ownDefault ? this.outbox.keepAhead(value) : undefined)));
     });
-    // No answer: the device's copy of the same address, if it has one.
+    // A read with no answer yet after SERVER_WAIT_MS is slow.
+    effect((onCleanup) => {
+      if (!this.sheet.isLoading()) return untracked(() => this.slow.set(false));
+      const timer = setTimeout(() => this.slow.set(true), SERVER_WAIT_MS);
+      onCleanup(() => clearTimeout(timer));
+    });
+    // No answer (or none yet after the wait): the device's copy of the same address, if it has one.
     effect(() => {
-      const failed = this.sheet.error();
+      const failed = this.sheet.error() !== undefined || (this.slow() && this.sheet.isLoading());
       const address = this.address();
       if (failed)
         untracked(
