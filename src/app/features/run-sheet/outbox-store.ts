@@ -4,10 +4,10 @@
 // app's start, and the browser's Background Sync where the service worker passes it on). It also
 // keeps the run sheets the network gave, for a reload with no signal.
 import { HttpClient, HttpHeaders } from '@angular/common/http';
-import { Injectable, computed, effect, inject, signal, untracked } from '@angular/core';
+import { Injectable, InjectionToken, computed, effect, inject, signal, untracked } from '@angular/core';
 import type { Me } from '@shared/schemas/auth';
 import type { OutboxAnswer, RunSheet } from '@shared/schemas/run-sheet';
-import { firstValueFrom } from 'rxjs';
+import { firstValueFrom, timeout } from 'rxjs';
 import { AuthStore } from '../../core/auth/auth-store';
 import { ApiError } from '../../core/http/api-error';
 import { API } from '../../core/http/api-paths';
@@ -31,6 +31,14 @@ export const OUTBOX_SYNC_TAG = 'furlong-outbox';
  */
 const MINIMAL = new HttpHeaders({ Prefer: 'return=minimal' });
 
+/**
+ * How long a send of the outbox may go unanswered before it counts as no answer, in milliseconds.
+ * A weak signal can hold a request for minutes without failing it, and the actions after it wait
+ * their turn; given up on, it is sent again later (OutboxSync's retries), and the server applies
+ * each action once whatever the number of sends (its client event id).
+ */
+export const OUTBOX_SEND_WAIT_MS = new InjectionToken<number>('outbox send wait', { providedIn: 'root', factory: () => 30_000 });
+
 interface SyncRegistration {
   sync?: { register(tag: string): Promise<void> };
 }
@@ -39,6 +47,7 @@ interface SyncRegistration {
 export class OutboxStore {
   private readonly http = inject(HttpClient);
   private readonly auth = inject(AuthStore);
+  private readonly sendWaitMs = inject(OUTBOX_SEND_WAIT_MS);
   private opened: Promise<Outbox | null> | null = null;
   /** The sender of the person signed in now; null while nobody is. */
   private current: Promise<OutboxSync | null> = Promise.resolve(null);
@@ -170,7 +179,9 @@ export class OutboxStore {
     const { type, ...rest } = body;
     const [url, payload] = type === 'problem' ? [API.assignmentProblems(jobId), rest] : [API.assignmentEvents(jobId), body];
     try {
-      const res = await firstValueFrom(this.http.post(url, payload, { observe: 'response', headers: MINIMAL }));
+      const res = await firstValueFrom(
+        this.http.post(url, payload, { observe: 'response', headers: MINIMAL }).pipe(timeout(this.sendWaitMs)),
+      );
       return { status: res.status, body: res.body };
     } catch (err) {
       // No answer at all: the action waits. An answer, even a refusal, is the server's word on it.
@@ -183,7 +194,9 @@ export class OutboxStore {
   private async sendBatch(entries: readonly OutboxEntry[]): Promise<BatchAnswer> {
     const events = entries.map((e) => ({ assignmentId: e.jobId, ...e.body }));
     try {
-      const res = await firstValueFrom(this.http.post<OutboxAnswer>(API.runSheetOutbox, { events }, { observe: 'response' }));
+      const res = await firstValueFrom(
+        this.http.post<OutboxAnswer>(API.runSheetOutbox, { events }, { observe: 'response' }).pipe(timeout(this.sendWaitMs)),
+      );
       return { status: res.status, results: res.body?.results.map((r) => ({ status: r.status, body: r.body })) };
     } catch (err) {
       if (!(err instanceof ApiError) || err.status === 0) throw err;
