@@ -1,3 +1,4 @@
+import { webcrypto } from 'node:crypto';
 import { setupZonelessTestEnv } from 'jest-preset-angular/setup-env/zoneless';
 
 setupZonelessTestEnv();
@@ -19,3 +20,8 @@ if (!window.matchMedia) {
       }) as MediaQueryList,
   });
 }
+
+// jsdom has no structuredClone, which fake-indexeddb stores values with (the values stored in the
+// specs are plain JSON), nor crypto.randomUUID, which makes the outbox's event ids.
+globalThis.structuredClone ??= (v: unknown) => JSON.parse(JSON.stringify(v));
+if (!globalThis.crypto?.randomUUID) Object.defineProperty(globalThis, 'crypto', { value: webcrypto });

@@ -1,4 +1,3 @@
-import { webcrypto } from 'node:crypto';
 import { provideHttpClient, withInterceptors } from '@angular/common/http';
 import { HttpTestingController, type TestRequest, provideHttpClientTesting } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
@@ -8,9 +7,6 @@ import { AuthStore } from '../../core/auth/auth-store';
 import { errorInterceptor } from '../../core/http/error.interceptor';
 import { OUTBOX_SEND_WAIT_MS, OutboxStore } from './outbox-store';
 import { freshDeviceStorage, setOnline, until } from './testing/device';
-
-globalThis.structuredClone ??= (v: unknown) => JSON.parse(JSON.stringify(v));
-if (!globalThis.crypto?.randomUUID) Object.defineProperty(globalThis, 'crypto', { value: webcrypto });
 
 const TOMAS_ME: Me = {
   user: { id: 2, email: 't@example.test', name: 'Tomas Reyes' },

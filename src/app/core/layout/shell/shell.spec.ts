@@ -1,4 +1,3 @@
-import { webcrypto } from 'node:crypto';
 import { provideHttpClient, withInterceptors } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { ChangeDetectionStrategy, Component } from '@angular/core';
@@ -14,8 +13,6 @@ import { freshDeviceStorage, setOnline, until } from '../../../features/run-shee
 import { Shell, unsentWarning } from './shell';
 
 // jsdom has neither of these; the browser and Node do.
-globalThis.structuredClone ??= (v: unknown) => JSON.parse(JSON.stringify(v));
-if (!globalThis.crypto?.randomUUID) Object.defineProperty(globalThis, 'crypto', { value: webcrypto });
 
 @Component({ template: '<h1>Page</h1>', changeDetection: ChangeDetectionStrategy.OnPush })
 class Blank {}

@@ -1,4 +1,3 @@
-import { webcrypto } from 'node:crypto';
 import { provideHttpClient, withInterceptors } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { type ComponentFixture, TestBed } from '@angular/core/testing';
@@ -14,8 +13,6 @@ import { freshDeviceStorage, setOnline, until } from '../testing/device';
 import { FinishDialog } from './finish-dialog';
 
 // jsdom has neither of these; the browser and Node do.
-globalThis.structuredClone ??= (v: unknown) => JSON.parse(JSON.stringify(v));
-if (!globalThis.crypto?.randomUUID) Object.defineProperty(globalThis, 'crypto', { value: webcrypto });
 
 describe('FinishDialog', () => {
   let fixture: ComponentFixture<FinishDialog>;

@@ -1,12 +1,9 @@
 import 'fake-indexeddb/auto';
-import { webcrypto } from 'node:crypto';
 import { until } from '../testing/device';
 import { Outbox, type OutboxEntry, type SendAnswer } from './outbox';
 import { OutboxSync, othersLine, statusLine, type Connection, type OutboxView } from './outbox-sync';
 
 // jsdom has neither of these; the browser and Node do.
-globalThis.structuredClone ??= (v: unknown) => JSON.parse(JSON.stringify(v));
-if (!globalThis.crypto?.randomUUID) Object.defineProperty(globalThis, 'crypto', { value: webcrypto });
 
 let n = 0;
 const at = (hhmm: string) => new Date(`2026-05-01T${hhmm}:00Z`);

@@ -1,10 +1,7 @@
 import 'fake-indexeddb/auto';
-import { webcrypto } from 'node:crypto';
 import { Outbox, type BatchAnswer, type OutboxEntry, type SendAnswer } from './outbox';
 
 // jsdom has neither of these; the browser and Node do.
-globalThis.structuredClone ??= (v: unknown) => JSON.parse(JSON.stringify(v));
-if (!globalThis.crypto?.randomUUID) Object.defineProperty(globalThis, 'crypto', { value: webcrypto });
 
 let n = 0;
 const fresh = () => Outbox.open(`outbox-spec-${++n}`);

@@ -1,4 +1,3 @@
-import { webcrypto } from 'node:crypto';
 import { provideHttpClient, withInterceptors } from '@angular/common/http';
 import { HttpTestingController, type TestRequest, provideHttpClientTesting } from '@angular/common/http/testing';
 import { type ComponentFixture, TestBed } from '@angular/core/testing';
@@ -15,8 +14,6 @@ import { freshDeviceStorage, setOnline, until } from '../testing/device';
 import { RunSheetJob, clockSpan } from './run-sheet-job';
 
 // jsdom has neither of these; the browser and Node do.
-globalThis.structuredClone ??= (v: unknown) => JSON.parse(JSON.stringify(v));
-if (!globalThis.crypto?.randomUUID) Object.defineProperty(globalThis, 'crypto', { value: webcrypto });
 
 describe('RunSheetJob', () => {
   let fixture: ComponentFixture<RunSheetJob>;

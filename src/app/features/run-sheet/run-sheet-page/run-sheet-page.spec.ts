@@ -1,4 +1,3 @@
-import { webcrypto } from 'node:crypto';
 import { provideHttpClient, withInterceptors } from '@angular/common/http';
 import { HttpTestingController, type TestRequest, provideHttpClientTesting } from '@angular/common/http/testing';
 import { type ComponentFixture, DeferBlockState, TestBed } from '@angular/core/testing';
@@ -17,8 +16,6 @@ import { freshDeviceStorage, setOnline, until } from '../testing/device';
 import { RunSheetPage, firstOpen } from './run-sheet-page';
 
 // jsdom has neither of these; the browser and Node do.
-globalThis.structuredClone ??= (v: unknown) => JSON.parse(JSON.stringify(v));
-if (!globalThis.crypto?.randomUUID) Object.defineProperty(globalThis, 'crypto', { value: webcrypto });
 
 /** The page for a signed-in person on 2031-05-15, its HTTP calls held for the test to answer. */
 function setUp(me: Me, fresh = true): { fixture: ComponentFixture<RunSheetPage>; http: HttpTestingController; el: HTMLElement } {

@@ -3,9 +3,6 @@ import { freshDeviceStorage } from '../testing/device';
 import { TrackDb } from './track-db';
 import type { RecordedFix } from './track-thinning';
 
-// jsdom has no structuredClone, which fake-indexeddb stores values with; these values are plain JSON.
-globalThis.structuredClone ??= (v: unknown) => JSON.parse(JSON.stringify(v));
-
 const ada = { userId: 1, farmId: 7 };
 const bo = { userId: 2, farmId: 7 };
 const fix = (i: number): RecordedFix => ({
