@@ -3,11 +3,9 @@
 // the app must not wait on the server to say who is signed in, nor for the day. After a short wait
 // it opens as the person last signed in on the phone, with the day kept on the phone and said to
 // be waiting for the server; when the server's answers come through, they replace the kept copy.
-import bcrypt from 'bcryptjs';
 import type { Page, Route } from 'playwright-core';
-import { DEMO_FARM_NAME } from '../../seeds/01_demo_farm';
 import { freeBoardDay, screenshot, signIn, startRig, type BrowserRig } from '../support/browser';
-import { rect } from '../support/geo-fixtures';
+import { createPhoneJob, type PhoneJob } from '../support/phone-job';
 
 const PHONE = { width: 390, height: 844 };
 
@@ -36,75 +34,33 @@ const keptDays = (page: Page) =>
 
 describe('The run sheet on a weak signal, in a real browser', () => {
   let rig: BrowserRig;
-  let farmId = 0;
-  let userId = 0;
-  let fieldId = 0;
-  let machineId = 0;
-  let day = '';
-  const tag = Math.random().toString(36).slice(2, 8);
-  const person = { role: 'operator' as const, name: `Ida Brandt ${tag}`, email: `ida-${tag}@furlong.test`, password: 'one-bar-pw' };
+  let job: PhoneJob;
 
   beforeAll(async () => {
     rig = await startRig();
-    const db = rig.t.db;
-    ({ id: farmId } = await db('farms').where({ name: DEMO_FARM_NAME }).first('id'));
-    day = await freeBoardDay(rig, undefined, { past: true });
-    [{ id: userId }] = await db('users')
-      .insert({ email: person.email, name: person.name, password_hash: bcrypt.hashSync(person.password, 4) })
-      .returning('id');
-    const [{ id: membershipId }] = await db('memberships')
-      .insert({ farm_id: farmId, user_id: userId, role: 'operator', status: 'active', joined_at: db.fn.now() })
-      .returning('id');
-    [{ id: fieldId }] = await db('fields')
-      .insert({
-        farm_id: farmId,
-        name: `One Bar Quarter ${tag}`,
-        boundary: JSON.stringify(rect(-97.66, 46.8, 0.0075, 0.005)),
-        area_m2: 80 * 4046.86,
-        acres: 80,
-      })
-      .returning('id');
-    [{ id: machineId }] = await db('machines')
-      .insert({ farm_id: farmId, name: `4WD ${tag}`, kind: 'tractor-4wd', power_hp: 400, engine_hours: 2210 })
-      .returning('id');
-    const implement = await db('implements').where({ farm_id: farmId }).whereRaw("'harrowing' = any(operations)").first('id');
-    if (!implement) throw new Error('The demo farm has no harrow: run scripts/prepare-db.ts --reset-demo');
-    await db('board_days').insert({ farm_id: farmId, day, version: 1, published_at: db.fn.now() });
-    await db('assignments').insert({
-      farm_id: farmId,
-      day,
-      field_id: fieldId,
-      operation: 'harrowing',
-      operator_id: membershipId,
-      machine_id: machineId,
-      implement_id: implement.id,
-      run_order: 1,
-      acres_planned: 80,
+    job = await createPhoneJob(rig, {
+      day: await freeBoardDay(rig, undefined, { past: true }),
+      name: 'Ida Brandt',
+      corner: [-97.66, 46.8],
+      engineHours: 2210,
     });
   });
 
   afterAll(async () => {
-    const db = rig.t.db;
-    await db('assignments').where({ farm_id: farmId, day }).delete();
-    await db('board_changes').where({ farm_id: farmId, day }).delete();
-    await db('board_days').where({ farm_id: farmId, day }).delete();
-    await db('fields').where({ farm_id: farmId, id: fieldId }).delete();
-    await db('machines').where({ farm_id: farmId, id: machineId }).delete();
-    await db('memberships').where({ user_id: userId }).delete();
-    await db('users').where({ id: userId }).delete();
+    await job?.remove();
     await rig.close();
   });
 
   it('when the server neither answers nor fails, then the run sheet opens from the phone after the wait, says it waits for the server, and the answers replace it', async () => {
     // No service worker: the driver's routes then see the page's own requests.
     const page = await rig.newPage(undefined, { serviceWorkers: 'block' });
-    await signIn(page, person);
+    await signIn(page, job.person);
     await page.setViewportSize(PHONE);
-    await page.goto(`/run-sheet?date=${day}`);
+    await page.goto(`/run-sheet?date=${job.day}`);
     await page.getByRole('heading', { level: 1, name: 'Run sheet' }).waitFor();
     await page.locator('[data-job]').first().waitFor();
     const online = await jobsShown(page);
-    expect(online).toHaveLength(1);
+    expect(online).toEqual([String(job.jobId)]);
     for (const deadline = Date.now() + 10_000; (await keptDays(page)) === 0; await page.waitForTimeout(100))
       if (Date.now() > deadline) throw new Error('the day was not kept on the phone within 10 s');
 
