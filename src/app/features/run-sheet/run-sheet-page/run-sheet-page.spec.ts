@@ -212,6 +212,27 @@ describe('RunSheetPage on a phone with no signal', () => {
     expect(el.querySelector('[data-job="7"]')).toBeNull();
   });
 
+  it('when the app already opened from the phone because the server was slow to say who this is, then the kept jobs show at once, with no second wait', async () => {
+    const { fixture, http, el } = await onPhone((box) =>
+      box.keepSheet('2:1:/api/run-sheet?date=2031-05-15', day([job({ id: 7 })]), new Date('2031-05-15T11:12:00Z')),
+    );
+    const auth = TestBed.inject(AuthStore);
+    const opening = auth.load(10);
+    expect(await opening).toEqual(TOMAS_ME);
+    expect(auth.fromDevice()).toBe(true);
+    const started = Date.now();
+    fixture.detectChanges();
+    const reads = () => http.match('/api/run-sheet?date=2031-05-15');
+    expect(reads()).toHaveLength(1);
+    await until(
+      () => el.querySelector('[data-job="7"]') !== null,
+      'the kept sheet',
+      () => fixture.detectChanges(),
+    );
+    expect(Date.now() - started).toBeLessThan(SERVER_WAIT_MS);
+    expect(text(el, '[data-as-of] span')).toBe('Waiting for the server: the run sheet kept on this phone, as of 06:12.');
+  });
+
   it('when the network answers, then the day is kept on the phone for next time', async () => {
     const { fixture, http } = setUp(TOMAS_ME);
     fixture.detectChanges();

@@ -203,10 +203,13 @@ export class RunSheetPage {
       if (value)
         untracked(() => void this.outbox.keepSheet(address, value).then(() => (ownDefault ? this.outbox.keepAhead(value) : undefined)));
     });
-    // A read with no answer yet after SERVER_WAIT_MS is slow.
+    // A read with no answer yet after SERVER_WAIT_MS is slow. Once the app has opened from the
+    // device (the server did not say who this is in time), the server is known to be slow: no
+    // second wait.
     effect((onCleanup) => {
       if (!this.sheet.isLoading()) return untracked(() => this.slow.set(false));
-      const timer = setTimeout(() => this.slow.set(true), SERVER_WAIT_MS);
+      const wait = this.auth.fromDevice() ? 0 : SERVER_WAIT_MS;
+      const timer = setTimeout(() => this.slow.set(true), wait);
       onCleanup(() => clearTimeout(timer));
     });
     // No answer (or none yet after the wait): the device's copy of the same address, if it has one.
