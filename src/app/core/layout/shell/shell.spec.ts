@@ -12,8 +12,6 @@ import { OutboxStore } from '../../../features/run-sheet/outbox-store';
 import { freshDeviceStorage, setOnline, until } from '../../../features/run-sheet/testing/device';
 import { Shell, unsentWarning } from './shell';
 
-// jsdom has neither of these; the browser and Node do.
-
 @Component({ template: '<h1>Page</h1>', changeDetection: ChangeDetectionStrategy.OnPush })
 class Blank {}
 

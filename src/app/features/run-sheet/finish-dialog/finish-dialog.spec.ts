@@ -12,8 +12,6 @@ import { OutboxStore } from '../outbox-store';
 import { freshDeviceStorage, setOnline, until } from '../testing/device';
 import { FinishDialog } from './finish-dialog';
 
-// jsdom has neither of these; the browser and Node do.
-
 describe('FinishDialog', () => {
   let fixture: ComponentFixture<FinishDialog>;
   let http: HttpTestingController;

@@ -3,8 +3,6 @@ import { until } from '../testing/device';
 import { Outbox, type OutboxEntry, type SendAnswer } from './outbox';
 import { OutboxSync, othersLine, statusLine, type Connection, type OutboxView } from './outbox-sync';
 
-// jsdom has neither of these; the browser and Node do.
-
 let n = 0;
 const at = (hhmm: string) => new Date(`2026-05-01T${hhmm}:00Z`);
 const me = { userId: 7, farmId: 1, name: 'Tomas Reyes' };

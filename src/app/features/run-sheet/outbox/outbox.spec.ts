@@ -1,8 +1,6 @@
 import 'fake-indexeddb/auto';
 import { Outbox, type BatchAnswer, type OutboxEntry, type SendAnswer } from './outbox';
 
-// jsdom has neither of these; the browser and Node do.
-
 let n = 0;
 const fresh = () => Outbox.open(`outbox-spec-${++n}`);
 const at = (hhmm: string) => new Date(`2026-05-01T${hhmm}:00Z`);

@@ -13,8 +13,6 @@ import { OutboxStore } from '../outbox-store';
 import { freshDeviceStorage, setOnline, until } from '../testing/device';
 import { RunSheetJob, clockSpan } from './run-sheet-job';
 
-// jsdom has neither of these; the browser and Node do.
-
 describe('RunSheetJob', () => {
   let fixture: ComponentFixture<RunSheetJob>;
   let http: HttpTestingController;

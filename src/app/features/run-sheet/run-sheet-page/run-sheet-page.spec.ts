@@ -15,8 +15,6 @@ import { Outbox } from '../outbox/outbox';
 import { freshDeviceStorage, setOnline, until } from '../testing/device';
 import { RunSheetPage, firstOpen } from './run-sheet-page';
 
-// jsdom has neither of these; the browser and Node do.
-
 /** The page for a signed-in person on 2031-05-15, its HTTP calls held for the test to answer. */
 function setUp(me: Me, fresh = true): { fixture: ComponentFixture<RunSheetPage>; http: HttpTestingController; el: HTMLElement } {
   if (fresh) freshDeviceStorage();
