@@ -5,6 +5,7 @@ import { yearIn } from '@shared/calendar';
 import type { Me, Role } from '@shared/schemas/auth';
 import { type Observable, catchError, firstValueFrom, map, of, tap } from 'rxjs';
 import { API } from '../http/api-paths';
+import { toSignIn } from './to-sign-in';
 
 /**
  * Who was last signed in on this device, kept so the app opens with no signal (the run sheet in a
@@ -74,7 +75,7 @@ export class AuthStore {
           if (e?.status === 401) {
             this.unavailable.set(null);
             this.set(null);
-            if (openedFromDevice) this.toSignIn();
+            if (openedFromDevice) toSignIn(this.injector.get(Router));
             return of(null);
           }
           // Already open as the device's person: a late failure leaves them be (no blank screen mid-job).
@@ -126,13 +127,6 @@ export class AuthStore {
 
   clear(): void {
     this.set(null);
-  }
-
-  /** The session ended while the app was open from the device's copy: sign in, then come back. */
-  private toSignIn(): void {
-    const router = this.injector.get(Router);
-    const current = router.url;
-    void router.navigate(['/sign-in'], { queryParams: current === '/' || current.startsWith('/sign-in') ? {} : { next: current } });
   }
 
   /** Sets who is signed in and keeps it on this device (or forgets it). */

@@ -3,6 +3,7 @@ import { inject } from '@angular/core';
 import { Router } from '@angular/router';
 import { catchError, throwError } from 'rxjs';
 import { AuthStore } from '../auth/auth-store';
+import { toSignIn } from '../auth/to-sign-in';
 import { ApiError, isApiErrorBody } from './api-error';
 
 /** No answer at all (status 0): the network, or the server is down. Nothing typed is lost. */
@@ -39,11 +40,7 @@ export const errorInterceptor: HttpInterceptorFn = (req, next) => {
       const error = toApiError(failure);
       if (failure.status === 401 && !SESSION_PROBES.test(req.url)) {
         auth.clear();
-        const current = router.url;
-        const onSignIn = current.startsWith('/sign-in');
-        void router.navigate(['/sign-in'], {
-          queryParams: onSignIn || current === '/' ? {} : { next: current },
-        });
+        toSignIn(router);
       }
       return throwError(() => error);
     }),
