@@ -13,7 +13,8 @@ import { MILO, TOMAS, job } from '../../board/testing/board-fixtures';
 import { RunSheetJob } from '../run-sheet-job/run-sheet-job';
 import { Outbox } from '../outbox/outbox';
 import { freshDeviceStorage, setOnline, until } from '../testing/device';
-import { RunSheetPage, firstOpen } from './run-sheet-page';
+import { KEPT_VIEW_ID, KEPT_VIEW_KEY, KEPT_VIEW_OPEN_CLASS, closeKeptView, type KeptView } from '../../../core/offline/kept-view';
+import { KEEP_VIEW_AFTER_MS, RunSheetPage, firstOpen } from './run-sheet-page';
 
 /** The page for a signed-in person on 2031-05-15, its HTTP calls held for the test to answer. */
 function setUp(me: Me, fresh = true): { fixture: ComponentFixture<RunSheetPage>; http: HttpTestingController; el: HTMLElement } {
@@ -436,5 +437,68 @@ describe('firstOpen', () => {
     expect(firstOpen([job({ id: 1 }), job({ id: 2, state: 'underway' })])).toBe(2);
     expect(firstOpen([job({ id: 1, state: 'finished' }), job({ id: 3, role: 'mentor' })])).toBe(3);
     expect(firstOpen([job({ id: 1, state: 'finished' })])).toBeNull();
+  });
+});
+
+describe('RunSheetPage, kept as drawn for a start with no connection', () => {
+  const ME: Me = {
+    user: { id: 2, email: 't@example.test', name: 'Tomas Reyes' },
+    farm: { id: 1, name: 'F', units: 'us', timeZone: 'America/Chicago' },
+    membershipId: TOMAS.membershipId,
+    role: 'operator',
+  };
+  const north = job({ id: 4, startTime: '07:00', field: { ...job().field, name: 'North Section' } });
+  let appRoot: HTMLElement;
+
+  /** The page inside an <app-root> (what is kept is the app's whole drawing), with the copy the phone showed before the app started. */
+  function setUpInApp(date: string | undefined) {
+    appRoot = document.createElement('app-root');
+    document.body.append(appRoot);
+    const copy = document.createElement('div');
+    copy.id = KEPT_VIEW_ID;
+    document.body.insertBefore(copy, appRoot);
+    document.documentElement.classList.add(KEPT_VIEW_OPEN_CLASS);
+    const set = setUp(ME);
+    appRoot.append(set.el);
+    set.fixture.componentRef.setInput('date', date);
+    return set;
+  }
+
+  afterEach(() => {
+    appRoot.remove();
+    closeKeptView();
+    localStorage.removeItem(KEPT_VIEW_KEY);
+  });
+
+  it('when the own day comes from the server, then the copy gives way once it shows, and the page is kept as drawn after a quiet second', async () => {
+    const { fixture, http } = setUpInApp(undefined);
+    TestBed.tick();
+    expect(document.getElementById(KEPT_VIEW_ID)).not.toBeNull();
+    http
+      .expectOne('/api/run-sheet')
+      .flush({ date: '2031-05-15', today: '2031-05-15', opened: 'today', person: TOMAS, assignments: [north] });
+    await fixture.whenStable();
+    expect(document.getElementById(KEPT_VIEW_ID)).toBeNull();
+    expect(document.documentElement.classList.contains(KEPT_VIEW_OPEN_CLASS)).toBe(false);
+    await answerAhead(http, '2031-05-15');
+    await until(() => localStorage.getItem(KEPT_VIEW_KEY) !== null, 'the page kept as drawn');
+    const kept = JSON.parse(localStorage.getItem(KEPT_VIEW_KEY)!) as KeptView;
+    expect(kept).toMatchObject({ v: 1, userId: 2, farmId: 1 });
+    expect(kept.html).toContain('1. North Section · Harrowing');
+    expect(kept.html).toContain('<h1');
+    http.verify();
+  });
+
+  it('when another day is asked for in the address, then nothing is kept as drawn (the copy is the day the app opens on)', async () => {
+    const { fixture, http } = setUpInApp('2031-05-20');
+    TestBed.tick();
+    http
+      .expectOne('/api/run-sheet?date=2031-05-20')
+      .flush({ date: '2031-05-20', today: '2031-05-15', opened: 'asked', person: TOMAS, assignments: [north] });
+    await fixture.whenStable();
+    expect(document.getElementById(KEPT_VIEW_ID)).toBeNull();
+    await new Promise((r) => setTimeout(r, KEEP_VIEW_AFTER_MS + 500));
+    expect(localStorage.getItem(KEPT_VIEW_KEY)).toBeNull();
+    http.verify();
   });
 });

@@ -2,7 +2,10 @@ import { httpResource } from '@angular/common/http';
 import {
   ChangeDetectionStrategy,
   Component,
+  DOCUMENT,
   DestroyRef,
+  Injector,
+  afterNextRender,
   computed,
   effect,
   inject,
@@ -33,10 +36,14 @@ import { runSheetUrl } from '../run-sheet-api';
 import { OutboxStore } from '../outbox-store';
 import { AuthStore, SERVER_WAIT_MS } from '../../../core/auth/auth-store';
 import { API } from '../../../core/http/api-paths';
+import { closeKeptView, keepView } from '../../../core/offline/kept-view';
 
 const SHORT = new Intl.DateTimeFormat('en-US', { weekday: 'long', month: 'long', day: 'numeric' });
 /** "Thursday, April 16": a day of the coming weeks, said the way a person says it. */
 export const shortDay = (day: string): string => SHORT.format(dateOf(day));
+
+/** How long the page must go unchanged before what it shows is kept as drawn (core/offline/kept-view). */
+export const KEEP_VIEW_AFTER_MS = 1000;
 
 const OPEN_FIRST: RunSheetItem['state'][] = ['underway', 'paused', 'planned'];
 
@@ -114,6 +121,8 @@ export class RunSheetPage {
   });
   /** The copy kept on this device for the address, read when the network gives no sheet. */
   private readonly kept = signal<{ address: string; sheet: RunSheet; savedAt: string } | null>(null);
+  /** True once the device was asked for its copy of the address (whether it had one or not). */
+  private readonly keptLooked = signal(false);
   /**
    * True once a read has gone SERVER_WAIT_MS without an answer: a weak signal can hold it for
    * minutes without failing it, so the kept copy shows meanwhile (the answer replaces it).
@@ -218,7 +227,11 @@ export class RunSheetPage {
       const address = this.address();
       if (failed)
         untracked(
-          () => void this.outbox.keptSheet(address).then((k) => k && this.address() === address && this.kept.set({ address, ...k })),
+          () =>
+            void this.outbox.keptSheet(address).then((k) => {
+              if (k && this.address() === address) this.kept.set({ address, ...k });
+              this.keptLooked.set(true);
+            }),
         );
     });
     // The server answered actions from the outbox: read the day again (once per run of sends).
@@ -230,11 +243,48 @@ export class RunSheetPage {
         untracked(() => this.readAgain.update((n) => n + 1));
       }
     });
+    this.keepAsDrawn();
     // The connection is back: the day may have changed meanwhile.
     const online = () => this.readAgain.update((n) => n + 1);
     window.addEventListener('online', online);
     inject(DestroyRef).onDestroy(() => window.removeEventListener('online', online));
   }
+  /**
+   * The run sheet as drawn, for the next start with no connection (core/offline/kept-view): the
+   * person's own day from the server, kept once the page has gone `KEEP_VIEW_AFTER_MS` unchanged.
+   * The copy the phone showed before the app started goes once this page shows its own day (or
+   * says it has none).
+   */
+  private keepAsDrawn(): void {
+    const doc = inject(DOCUMENT);
+    const injector = inject(Injector);
+    let closed = false;
+    effect(() => {
+      const settled = this.shown() !== null || (this.loadError() !== null && this.keptLooked());
+      if (settled && !closed) {
+        closed = true;
+        afterNextRender(() => closeKeptView(doc), { injector });
+      }
+    });
+    const root = doc.querySelector('app-root');
+    if (!root || typeof MutationObserver === 'undefined') return;
+    let timer: ReturnType<typeof setTimeout> | undefined;
+    const keep = () => {
+      const me = this.auth.me();
+      const own = this.asked() === null && this.personId() === null;
+      if (me && own && this.shown() !== null && this.asOf() === null && !this.sheet.isLoading()) keepView(me, root, doc);
+    };
+    const changes = new MutationObserver(() => {
+      clearTimeout(timer);
+      timer = setTimeout(keep, KEEP_VIEW_AFTER_MS);
+    });
+    changes.observe(root, { subtree: true, childList: true, characterData: true, attributes: true });
+    inject(DestroyRef).onDestroy(() => {
+      changes.disconnect();
+      clearTimeout(timer);
+    });
+  }
+
   private readonly chosen = signal<{ day: string; id: number | null } | null>(null);
   protected readonly openId = computed(() => {
     const chosen = this.chosen();
