@@ -3,6 +3,7 @@ import { HttpTestingController, provideHttpClientTesting } from '@angular/common
 import { TestBed } from '@angular/core/testing';
 import type { Me } from '@shared/schemas/auth';
 import { provideRouter, Router } from '@angular/router';
+import { KEPT_VIEW_KEY } from '../offline/kept-view';
 import { AuthStore, SERVER_WAIT_MS, SIGNED_IN_KEY } from './auth-store';
 
 const OPERATOR: Me = {
@@ -102,9 +103,10 @@ describe('AuthStore with no signal', () => {
     expect(store.unavailable()).toEqual(expect.any(String));
   });
 
-  it('when the server says the session ended (401), or the person signs out, then the device forgets them', async () => {
+  it('when the server says the session ended (401), or the person signs out, then the device forgets them and the run sheet kept as drawn', async () => {
     const store = TestBed.inject(AuthStore);
     store.signedInAs(OPERATOR);
+    localStorage.setItem(KEPT_VIEW_KEY, '{"v":1}');
     expect(localStorage.getItem(SIGNED_IN_KEY)).not.toBeNull();
     const loading = store.load();
     TestBed.inject(HttpTestingController)
@@ -112,11 +114,14 @@ describe('AuthStore with no signal', () => {
       .flush({ error: { code: 'signed_out', message: 'Sign in' } }, { status: 401, statusText: 'Unauthorized' });
     expect(await loading).toBeNull();
     expect(localStorage.getItem(SIGNED_IN_KEY)).toBeNull();
+    expect(localStorage.getItem(KEPT_VIEW_KEY)).toBeNull();
     expect(await loadOffline(store)).toBeNull();
 
     store.signedInAs(OPERATOR);
+    localStorage.setItem(KEPT_VIEW_KEY, '{"v":1}');
     store.clear();
     expect(localStorage.getItem(SIGNED_IN_KEY)).toBeNull();
+    expect(localStorage.getItem(KEPT_VIEW_KEY)).toBeNull();
   });
 
   it('when the server answers but its database does not (503), then the device copy is not used: the server is there to ask again', async () => {

@@ -5,6 +5,7 @@ import { yearIn } from '@shared/calendar';
 import type { Me, Role } from '@shared/schemas/auth';
 import { type Observable, catchError, firstValueFrom, map, of, tap } from 'rxjs';
 import { API } from '../http/api-paths';
+import { KEPT_VIEW_KEY } from '../offline/kept-view';
 import { toSignIn } from './to-sign-in';
 
 /**
@@ -129,13 +130,19 @@ export class AuthStore {
     this.set(null);
   }
 
-  /** Sets who is signed in and keeps it on this device (or forgets it). */
+  /**
+   * Sets who is signed in and keeps it on this device (or forgets it, with the run sheet the phone
+   * kept as drawn for them: core/offline/kept-view).
+   */
   private set(me: Me | null): void {
     this.current.set(me);
     this.fromDevice.set(false);
     try {
       if (me) localStorage.setItem(SIGNED_IN_KEY, JSON.stringify(me));
-      else localStorage.removeItem(SIGNED_IN_KEY);
+      else {
+        localStorage.removeItem(SIGNED_IN_KEY);
+        localStorage.removeItem(KEPT_VIEW_KEY);
+      }
     } catch {
       // Storage refused (private mode, full): the app still works online.
     }
