@@ -54,6 +54,10 @@
 
     var box = document.createElement('div');
     box.id = KEPT_VIEW_ID;
+    // It scrolls (a long day): a region the keyboard can reach and scroll.
+    box.setAttribute('role', 'region');
+    box.setAttribute('aria-label', 'Run sheet kept on this phone');
+    box.tabIndex = 0;
     var note = document.createElement('p');
     note.className = 'kept-view-note';
     note.setAttribute('role', 'status');

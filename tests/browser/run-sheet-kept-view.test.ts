@@ -4,7 +4,7 @@
 // as an operator with one job; the browser's CPU is slowed down for the reload, as on a
 // low-end phone, so the copy stays on screen long enough to be looked at.
 import type { Page } from 'playwright-core';
-import { freeBoardDay, screenshot, signIn, startRig, type BrowserRig } from '../support/browser';
+import { freeBoardDay, screenshot, seriousViolations, signIn, startRig, type BrowserRig } from '../support/browser';
 import { waitForOfflineReady } from '../support/offline';
 import { createPhoneJob, type PhoneJob } from '../support/phone-job';
 
@@ -130,5 +130,33 @@ describe('The run sheet kept as drawn, in a real browser', () => {
     await page.getByText(`1. ${job.fieldName} · Harrowing`).waitFor();
     expect(((await page.evaluate('window.__copy')) as CopyRecord).seen).toBeNull();
     expect(await copyLeftovers(page)).toEqual({ box: false, styles: 0, hidden: false });
+  });
+
+  it('the copy on screen passes the accessibility check (axe: no serious or critical violations)', async () => {
+    const page = await rig.newPage();
+    await signIn(page, job.person);
+    await page.setViewportSize(PHONE);
+    await page.goto('/run-sheet');
+    const title = `1. ${job.fieldName} · Harrowing`;
+    await page.getByText(title).waitFor();
+    for (const deadline = Date.now() + 15_000; !(await page.evaluate(() => localStorage.getItem('furlong.kept-view') !== null));) {
+      if (Date.now() > deadline) throw new Error('the run sheet was not kept as drawn within 15 s');
+      await page.waitForTimeout(100);
+    }
+    // The copy as the page's own script puts it up, held still: the page says it is offline and runs
+    // the script again (the app has already drawn its run sheet, so it leaves the copy for its 15 s).
+    await page.evaluate(async () => {
+      Object.defineProperty(navigator, 'onLine', { configurable: true, get: () => false });
+      const script = document.createElement('script');
+      script.src = '/kept-view.js';
+      await new Promise((resolve, reject) => {
+        script.onload = resolve;
+        script.onerror = reject;
+        document.body.append(script);
+      });
+    });
+    await page.locator('#furlong-kept-view .kept-view-copy').getByText(title).waitFor();
+    expect(await seriousViolations(page)).toEqual([]);
+    expect(await copyLeftovers(page)).toEqual({ box: true, styles: expect.any(Number), hidden: true });
   });
 });

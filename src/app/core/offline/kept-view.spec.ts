@@ -96,6 +96,8 @@ describe('the run sheet kept as drawn', () => {
     const box = document.getElementById(KEPT_VIEW_ID)!;
     expect(box).not.toBeNull();
     expect(box.nextElementSibling?.tagName).toBe('APP-ROOT');
+    // A long day scrolls: a labelled region the keyboard can reach.
+    expect([box.getAttribute('role'), box.getAttribute('aria-label'), box.tabIndex]).toEqual(['region', 'Run sheet kept on this phone', 0]);
     // Kept at 15:30 UTC: 09:30 at the farm (America/Regina keeps UTC−6 all year).
     expect(box.querySelector('[data-kept-view-note]')?.textContent).toBe('Opening: the run sheet kept on this phone, as of 09:30.');
     const copy = box.querySelector('.kept-view-copy')!;
