@@ -75,6 +75,8 @@ export interface UnsentAction {
 
 /** A job's log entry that exists only on this device so far. */
 export type ShownEvent = RunSheetEvent & { unsent?: boolean };
+/** A job as shown: the server's, with the log entries waiting on this device added. */
+export type ShownItem = Omit<RunSheetItem, 'events'> & { events: ShownEvent[] };
 
 /**
  * The job as it will be once the actions waiting on this device are applied, so the operator can
@@ -84,11 +86,7 @@ export type ShownEvent = RunSheetEvent & { unsent?: boolean };
  * (`sentNotRead`) are applied first, unmarked: without them the job would show its old state (and
  * its Start button) between the server's answer and the day read again.
  */
-export function withUnsent(
-  item: RunSheetItem,
-  unsent: readonly UnsentAction[],
-  sentNotRead: readonly UnsentAction[] = [],
-): RunSheetItem & { events: ShownEvent[] } {
+export function withUnsent(item: RunSheetItem, unsent: readonly UnsentAction[], sentNotRead: readonly UnsentAction[] = []): ShownItem {
   if (!unsent.length && !sentNotRead.length) return item;
   let state = item.state;
   const log = { ...item.log };
