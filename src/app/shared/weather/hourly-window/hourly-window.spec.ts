@@ -144,7 +144,7 @@ describe('HourlyWindow', () => {
         soilTemperatureC: 10,
         ...(h === '10' ? over : {}),
       }));
-    const PLACE = { lat: 47.5, lon: -97 };
+    const PLACE = { latitude: 47.5, longitude: -97 };
     const shown = (hours: WeatherHour[], reasons: string[], units: 'us' | 'metric') => {
       const h = hours[1];
       create(
