@@ -3,31 +3,7 @@
 import { OPERATIONS } from '@shared/operations';
 import type { SeasonSummary } from '@shared/schemas/season';
 import { costPerArea, formatCell, machinesTable, operationsTable } from './season-shaping';
-
-const zeroOp = {
-  acresPlanned: 0,
-  acresCovered: 0,
-  acresFinished: 0,
-  hoursLogged: 0,
-  engineHours: 0,
-  plannedHours: null,
-  acresWithPlan: 0,
-  acresPerHour: null,
-  plannedAcresPerHour: null,
-  progress: 0,
-  jobsFinished: 0,
-  jobsCalledOff: 0,
-  weatherDaysLost: 0,
-  jobsCalledOffForWeather: 0,
-  costCents: 0,
-  machineCents: 0,
-  labourCents: 0,
-  fuelCents: 0,
-  costPerAcreCents: null,
-  jobsUnpriced: 0,
-  jobsMeasured: 0,
-  acresMeasured: 0,
-};
+import { ZERO_OPERATION } from './testing/season-fixtures';
 
 // Two operations whose rounded costs add up to a cent less than the farm's exactly rounded total
 // (97,511 + 50,428 = 147,939 ¢ against 147,940 ¢), as the API can answer.
@@ -35,10 +11,10 @@ const S: SeasonSummary = {
   year: 2026,
   operations: OPERATIONS.map((operation) =>
     operation === 'harrowing'
-      ? { ...zeroOp, operation, acresFinished: 200.75, costCents: 97511, costPerAcreCents: 486 }
+      ? { ...ZERO_OPERATION, operation, acresFinished: 200.75, costCents: 97511, costPerAcreCents: 486 }
       : operation === 'spraying'
-        ? { ...zeroOp, operation, acresFinished: 160.37, costCents: 50428, costPerAcreCents: 314 }
-        : { ...zeroOp, operation },
+        ? { ...ZERO_OPERATION, operation, acresFinished: 160.37, costCents: 50428, costPerAcreCents: 314 }
+        : { ...ZERO_OPERATION, operation },
   ),
   weekly: [],
   byField: [],

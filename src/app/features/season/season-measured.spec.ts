@@ -4,31 +4,7 @@
 import { OPERATIONS } from '@shared/operations';
 import type { SeasonSummary } from '@shared/schemas/season';
 import { formatCell, measuredTable, operationsTable } from './season-shaping';
-
-const zeroOp = {
-  acresPlanned: 0,
-  acresCovered: 0,
-  acresFinished: 0,
-  hoursLogged: 0,
-  engineHours: 0,
-  plannedHours: null,
-  acresWithPlan: 0,
-  acresPerHour: null,
-  plannedAcresPerHour: null,
-  progress: 0,
-  jobsFinished: 0,
-  jobsCalledOff: 0,
-  weatherDaysLost: 0,
-  jobsCalledOffForWeather: 0,
-  costCents: 0,
-  machineCents: 0,
-  labourCents: 0,
-  fuelCents: 0,
-  costPerAcreCents: null,
-  jobsUnpriced: 0,
-  jobsMeasured: 0,
-  acresMeasured: 0,
-};
+import { ZERO_OPERATION } from './testing/season-fixtures';
 
 const field = (fieldId: number, name: string, operations: SeasonSummary['byField'][number]['operations']) => ({
   fieldId,
@@ -48,8 +24,8 @@ const S: SeasonSummary = {
   year: 2026,
   operations: OPERATIONS.map((operation) =>
     operation === 'seeding'
-      ? { ...zeroOp, operation, acresPlanned: 240, acresFinished: 237.25, jobsFinished: 3, jobsMeasured: 1, acresMeasured: 150.25 }
-      : { ...zeroOp, operation },
+      ? { ...ZERO_OPERATION, operation, acresPlanned: 240, acresFinished: 237.25, jobsFinished: 3, jobsMeasured: 1, acresMeasured: 150.25 }
+      : { ...ZERO_OPERATION, operation },
   ),
   weekly: [],
   byField: [

@@ -14,37 +14,13 @@ import {
   weekLabel,
   type Column,
 } from './season-shaping';
+import { ZERO_OPERATION } from './testing/season-fixtures';
 
 /** Hectares per acre: 4,046.8564224 m² (international foot, exact) ÷ 10,000 m². */
 const HA_PER_ACRE = 0.40468564224;
 
 function op(operation: Operation, over: Partial<OperationSeason> = {}): OperationSeason {
-  return {
-    operation,
-    acresPlanned: 0,
-    acresCovered: 0,
-    acresFinished: 0,
-    hoursLogged: 0,
-    engineHours: 0,
-    plannedHours: null,
-    acresWithPlan: 0,
-    acresPerHour: null,
-    plannedAcresPerHour: null,
-    progress: 0,
-    jobsFinished: 0,
-    jobsCalledOff: 0,
-    weatherDaysLost: 0,
-    jobsCalledOffForWeather: 0,
-    costCents: 0,
-    machineCents: 0,
-    labourCents: 0,
-    fuelCents: 0,
-    costPerAcreCents: null,
-    jobsUnpriced: 0,
-    jobsMeasured: 0,
-    acresMeasured: 0,
-    ...over,
-  };
+  return { operation, ...ZERO_OPERATION, ...over };
 }
 
 function summary(year: number, ops: Partial<Record<Operation, Partial<OperationSeason>>>): SeasonSummary {

@@ -11,6 +11,7 @@ import { provideCharts, withDefaultRegisterables } from 'ng2-charts';
 import { AuthStore } from '../../../core/auth/auth-store';
 import { errorInterceptor } from '../../../core/http/error.interceptor';
 import { SeasonPage } from './season-page';
+import { ZERO_OPERATION } from '../testing/season-fixtures';
 
 // jsdom has no ResizeObserver; chart.js watches its canvas with one.
 globalThis.ResizeObserver ??= class {
@@ -48,28 +49,17 @@ function season(
   return {
     year,
     operations: OPERATIONS.map((operation) => ({
+      ...ZERO_OPERATION,
       operation,
       acresPlanned: operation === 'harrowing' ? 400 : 0,
       acresCovered: operation === 'harrowing' ? harrowAcres : 0,
       acresFinished: operation === 'harrowing' ? harrowAcres : 0,
       hoursLogged: operation === 'harrowing' ? harrowHours : 0,
-      engineHours: 0,
-      plannedHours: null,
-      acresWithPlan: 0,
       acresPerHour: operation === 'harrowing' ? harrowAcres / harrowHours : null,
-      plannedAcresPerHour: null,
       progress: operation === 'harrowing' ? harrowAcres / 400 : 0,
       jobsFinished: operation === 'harrowing' ? 2 : 0,
       jobsCalledOff: lost(operation).jobsCalledOffForWeather,
       ...lost(operation),
-      costCents: 0,
-      machineCents: 0,
-      labourCents: 0,
-      fuelCents: 0,
-      costPerAcreCents: null,
-      jobsUnpriced: 0,
-      jobsMeasured: 0,
-      acresMeasured: 0,
     })),
     weekly: [
       { operation: 'harrowing', week: `${year}-04-20`, acresFinished: harrowAcres / 2, cumulativeAcres: harrowAcres / 2 },
