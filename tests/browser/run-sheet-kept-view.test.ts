@@ -60,19 +60,24 @@ describe('The run sheet kept as drawn, in a real browser', () => {
     await rig.close();
   });
 
-  it('when the operator opens the app with no connection, then the day they last saw shows before the app starts, read-only under its note, and the app takes over', async () => {
+  /** The operator's own run sheet opened online on a phone, once the page has kept what it drew (after a second unchanged). */
+  async function openKept(): Promise<Page> {
     const page = await rig.newPage();
     await signIn(page, job.person);
     await page.setViewportSize(PHONE);
     await page.goto('/run-sheet');
-    const title = `1. ${job.fieldName} · Harrowing`;
-    await page.getByText(title).waitFor();
-    await waitForOfflineReady(page);
-    // The page keeps what it drew once it has gone a second unchanged.
+    await page.getByText(`1. ${job.fieldName} · Harrowing`).waitFor();
     for (const deadline = Date.now() + 15_000; !(await page.evaluate(() => localStorage.getItem('furlong.kept-view') !== null));) {
       if (Date.now() > deadline) throw new Error('the run sheet was not kept as drawn within 15 s');
       await page.waitForTimeout(100);
     }
+    return page;
+  }
+
+  it('when the operator opens the app with no connection, then the day they last saw shows before the app starts, read-only under its note, and the app takes over', async () => {
+    const page = await openKept();
+    const title = `1. ${job.fieldName} · Harrowing`;
+    await waitForOfflineReady(page);
 
     await page.context().setOffline(true);
     // The app opened again (a new tab of the same browser: a reload keeps the page's idea that it is online).
@@ -116,15 +121,7 @@ describe('The run sheet kept as drawn, in a real browser', () => {
   });
 
   it('when the connection is there, then the app opens from the server with no copy shown', async () => {
-    const page = await rig.newPage();
-    await signIn(page, job.person);
-    await page.setViewportSize(PHONE);
-    await page.goto('/run-sheet');
-    await page.getByText(`1. ${job.fieldName} · Harrowing`).waitFor();
-    for (const deadline = Date.now() + 15_000; !(await page.evaluate(() => localStorage.getItem('furlong.kept-view') !== null));) {
-      if (Date.now() > deadline) throw new Error('the run sheet was not kept as drawn within 15 s');
-      await page.waitForTimeout(100);
-    }
+    const page = await openKept();
     await page.addInitScript(RECORD_COPY);
     await page.reload();
     await page.getByText(`1. ${job.fieldName} · Harrowing`).waitFor();
@@ -133,16 +130,8 @@ describe('The run sheet kept as drawn, in a real browser', () => {
   });
 
   it('the copy on screen passes the accessibility check (axe: no serious or critical violations)', async () => {
-    const page = await rig.newPage();
-    await signIn(page, job.person);
-    await page.setViewportSize(PHONE);
-    await page.goto('/run-sheet');
+    const page = await openKept();
     const title = `1. ${job.fieldName} · Harrowing`;
-    await page.getByText(title).waitFor();
-    for (const deadline = Date.now() + 15_000; !(await page.evaluate(() => localStorage.getItem('furlong.kept-view') !== null));) {
-      if (Date.now() > deadline) throw new Error('the run sheet was not kept as drawn within 15 s');
-      await page.waitForTimeout(100);
-    }
     // The copy as the page's own script puts it up, held still: the page says it is offline and runs
     // the script again (the app has already drawn its run sheet, so it leaves the copy for its 15 s).
     await page.evaluate(async () => {
