@@ -16,6 +16,14 @@ import { freshDeviceStorage, setOnline, until } from '../testing/device';
 import { KEPT_VIEW_ID, KEPT_VIEW_KEY, KEPT_VIEW_OPEN_CLASS, closeKeptView, type KeptView } from '../../../core/offline/kept-view';
 import { KEEP_VIEW_AFTER_MS, RunSheetPage, firstOpen } from './run-sheet-page';
 
+/** Tomas, the operator the specs sign in as (unless they are the owner). */
+const TOMAS_ME: Me = {
+  user: { id: 2, email: 't@example.test', name: 'Tomas Reyes' },
+  farm: { id: 1, name: 'F', units: 'us', timeZone: 'America/Chicago' },
+  membershipId: TOMAS.membershipId,
+  role: 'operator',
+};
+
 /** The page for a signed-in person on 2031-05-15, its HTTP calls held for the test to answer. */
 function setUp(me: Me, fresh = true): { fixture: ComponentFixture<RunSheetPage>; http: HttpTestingController; el: HTMLElement } {
   if (fresh) freshDeviceStorage();
@@ -56,12 +64,7 @@ describe('RunSheetPage', () => {
   let el: HTMLElement;
 
   beforeEach(() => {
-    ({ fixture, http, el } = setUp({
-      user: { id: 2, email: 't@example.test', name: 'Tomas Reyes' },
-      farm: { id: 1, name: 'F', units: 'us', timeZone: 'America/Chicago' },
-      membershipId: TOMAS.membershipId,
-      role: 'operator',
-    }));
+    ({ fixture, http, el } = setUp(TOMAS_ME));
     fixture.detectChanges();
   });
 
@@ -139,12 +142,6 @@ describe('RunSheetPage', () => {
 });
 
 describe('RunSheetPage on a phone with no signal', () => {
-  const TOMAS_ME: Me = {
-    user: { id: 2, email: 't@example.test', name: 'Tomas Reyes' },
-    farm: { id: 1, name: 'F', units: 'us', timeZone: 'America/Chicago' },
-    membershipId: TOMAS.membershipId,
-    role: 'operator',
-  };
   const day = (assignments: RunSheet['assignments']): RunSheet => ({
     date: '2031-05-15',
     today: '2031-05-15',
@@ -441,12 +438,6 @@ describe('firstOpen', () => {
 });
 
 describe('RunSheetPage, kept as drawn for a start with no connection', () => {
-  const ME: Me = {
-    user: { id: 2, email: 't@example.test', name: 'Tomas Reyes' },
-    farm: { id: 1, name: 'F', units: 'us', timeZone: 'America/Chicago' },
-    membershipId: TOMAS.membershipId,
-    role: 'operator',
-  };
   const north = job({ id: 4, startTime: '07:00', field: { ...job().field, name: 'North Section' } });
   let appRoot: HTMLElement;
 
@@ -458,7 +449,7 @@ describe('RunSheetPage, kept as drawn for a start with no connection', () => {
     copy.id = KEPT_VIEW_ID;
     document.body.insertBefore(copy, appRoot);
     document.documentElement.classList.add(KEPT_VIEW_OPEN_CLASS);
-    const set = setUp(ME);
+    const set = setUp(TOMAS_ME);
     appRoot.append(set.el);
     set.fixture.componentRef.setInput('date', date);
     return set;
