@@ -16,6 +16,11 @@
   var KEPT_STYLE_ATTR = 'data-kept-style';
   var KEPT_STYLE_ELEMENT = 'furlong-kept-style';
   var SIGNED_IN_KEY = 'furlong.signed-in';
+  var THEME_KEY = 'furlong.theme';
+  // Nothing that could act goes back on the page, whatever the storage holds: only markup as the
+  // app draws it. (The page's policy refuses scripts and handlers as well; these would still act.)
+  var DROPPED = 'script, iframe, frame, object, embed, meta, base, link, form, style, noscript, template';
+  var LINKS = ['href', 'src', 'xlink:href', 'action', 'formaction'];
   // Should the app not start at all, the copy still gives way after this long.
   var GIVE_WAY_MS = 15000;
 
@@ -50,7 +55,9 @@
       style.textContent = String(css);
       document.head.appendChild(style);
     });
-    if (view.theme === 'dark-theme' || view.theme === 'light-theme') document.documentElement.classList.add(view.theme);
+    // The theme the person picked (as the app's ThemeStore reads it); without one the system's applies.
+    var theme = localStorage.getItem(THEME_KEY);
+    if (theme === 'dark' || theme === 'light') document.documentElement.classList.add(theme + '-theme');
 
     var box = document.createElement('div');
     box.id = KEPT_VIEW_ID;
@@ -67,7 +74,20 @@
     copy.className = 'kept-view-copy';
     // Seen, not used: nothing on it answers a tap, and screen readers hear the note only.
     copy.setAttribute('inert', '');
-    copy.innerHTML = view.html;
+    // Read in an inert template first: nothing in it loads or runs until it is cleaned.
+    var template = document.createElement('template');
+    template.innerHTML = view.html;
+    template.content.querySelectorAll(DROPPED).forEach(function (el) {
+      el.remove();
+    });
+    template.content.querySelectorAll('*').forEach(function (el) {
+      Array.prototype.slice.call(el.attributes).forEach(function (a) {
+        var name = a.name.toLowerCase();
+        var script = LINKS.indexOf(name) !== -1 && /^\s*javascript:/i.test(a.value);
+        if (name.indexOf('on') === 0 || name === 'style' || script) el.removeAttribute(a.name);
+      });
+    });
+    copy.appendChild(template.content);
     // Style attributes in markup are refused by the page's policy; set through the DOM they apply.
     copy.querySelectorAll('[' + KEPT_STYLE_ATTR + ']').forEach(function (el) {
       el.style.cssText = el.getAttribute(KEPT_STYLE_ATTR);

@@ -29,9 +29,9 @@ function drawApp(): Element {
   document.head.innerHTML = '<style nonce="n1">.job[_ngcontent-a] { color: green; }</style>';
   document.body.innerHTML =
     '<app-root ngCspNonce="page-nonce"><main><h1>Run sheet</h1><p class="job" _ngcontent-a>1. North Quarter · Seeding</p>' +
-    '<div class="bar" style="width: 40%;"></div><svg class="icon"><style>.a { fill: red; }</style></svg><mat-progress-bar>loading</mat-progress-bar><input type="date"></main></app-root>';
-  const input = document.querySelector('input')!;
-  input.value = '2026-12-04';
+    '<div class="bar" style="width: 40%;"></div><svg class="icon"><style>.a { fill: red; }</style></svg><mat-progress-bar>loading</mat-progress-bar><input type="date"><textarea></textarea></main></app-root>';
+  document.querySelector('input')!.value = '2026-12-04';
+  document.querySelector('textarea')!.value = 'Rock at the NE corner';
   return document.querySelector('app-root')!;
 }
 
@@ -61,15 +61,15 @@ describe('the run sheet kept as drawn', () => {
     document.documentElement.className = '';
   });
 
-  it('keeps the markup with typed values written in, the page styles and the theme, without loading bars', () => {
+  it('keeps the markup with typed values written in and the page styles, without loading bars', () => {
     const root = drawApp();
-    document.documentElement.classList.add('dark-theme');
     expect(keepView(me(), root)).toBe(true);
     const kept = JSON.parse(localStorage.getItem(KEPT_VIEW_KEY)!) as KeptView;
-    expect(kept).toMatchObject({ v: 1, userId: 7, farmId: 3, at: '2026-12-04T15:30:00.000Z', theme: 'dark-theme' });
+    expect(kept).toMatchObject({ v: 1, userId: 7, farmId: 3, at: '2026-12-04T15:30:00.000Z' });
     expect(kept.css).toEqual(['.job[_ngcontent-a] { color: green; }']);
     expect(kept.html).toContain('1. North Quarter · Seeding');
     expect(kept.html).toContain('value="2026-12-04"');
+    expect(kept.html).toContain('<textarea>Rock at the NE corner</textarea>');
     expect(kept.html).not.toContain('mat-progress-bar');
     // Style attributes travel as data: the page's policy would refuse them in markup.
     expect(kept.html).toContain('<div class="bar" data-kept-style="width: 40%;"></div>');
@@ -157,13 +157,59 @@ describe('the run sheet kept as drawn', () => {
     expect(document.documentElement.classList.contains(KEPT_VIEW_OPEN_CLASS)).toBe(false);
   });
 
+  it('does not show a copy from the day before at the farm, though it is the same day in UTC', () => {
+    jest.setSystemTime(new Date('2026-12-04T05:00:00Z')); // 23:00 on the 3rd in Regina
+    keepView(me(), drawApp());
+    localStorage.setItem(SIGNED_IN_KEY, JSON.stringify(me()));
+    freshPage();
+    jest.setSystemTime(new Date('2026-12-04T07:00:00Z')); // 01:00 on the 4th in Regina
+    runScript();
+    expect(document.getElementById(KEPT_VIEW_ID)).toBeNull();
+  });
+
   it('still shows late the same evening at the farm, though it is the next day in UTC', () => {
-    jest.setSystemTime(new Date('2026-12-05T02:00:00Z')); // 20:00 on the 4th in Regina
+    jest.setSystemTime(new Date('2026-12-04T20:00:00Z')); // 14:00 on the 4th in Regina
     keepView(me(), drawApp());
     localStorage.setItem(SIGNED_IN_KEY, JSON.stringify(me()));
     freshPage();
     jest.setSystemTime(new Date('2026-12-05T05:50:00Z')); // 23:50 on the 4th in Regina
     runScript();
-    expect(document.querySelector('[data-kept-view-note]')?.textContent).toBe('Opening: the run sheet kept on this phone, as of 20:00.');
+    expect(document.querySelector('[data-kept-view-note]')?.textContent).toBe('Opening: the run sheet kept on this phone, as of 14:00.');
+  });
+
+  it('takes the theme the person picked on this phone, and none when they picked none', () => {
+    keepView(me(), drawApp());
+    localStorage.setItem(SIGNED_IN_KEY, JSON.stringify(me()));
+    freshPage();
+    runScript();
+    expect(document.documentElement.className).toBe(KEPT_VIEW_OPEN_CLASS);
+    closeKeptView();
+    freshPage();
+    localStorage.setItem('furlong.theme', 'dark');
+    runScript();
+    expect(document.documentElement.classList.contains('dark-theme')).toBe(true);
+    localStorage.removeItem('furlong.theme');
+  });
+
+  it('puts back only markup: whatever else the storage holds cannot act on the page', () => {
+    localStorage.setItem(SIGNED_IN_KEY, JSON.stringify(me()));
+    const hostile =
+      '<h1>Run sheet</h1><script>window.ran = true</script><img src="x.png" onerror="window.ran = true">' +
+      '<meta http-equiv="refresh" content="0; url=/elsewhere"><base href="https://example.com/">' +
+      '<a href="javascript:window.ran = true">link</a><iframe src="/"></iframe><form action="/api"><button>Go</button></form>' +
+      '<style>body { display: none; }</style><p style="display: none">still text</p><link rel="stylesheet" href="/x.css">';
+    localStorage.setItem(
+      KEPT_VIEW_KEY,
+      JSON.stringify({ v: 1, userId: 7, farmId: 3, at: new Date().toISOString(), css: [], html: hostile }),
+    );
+    freshPage();
+    runScript();
+    const copy = document.querySelector(`#${KEPT_VIEW_ID} .kept-view-copy`)!;
+    expect(copy.querySelectorAll('script, meta, base, iframe, form, style, link')).toHaveLength(0);
+    expect(copy.querySelector('img')!.hasAttribute('onerror')).toBe(false);
+    expect(copy.querySelector('a')!.hasAttribute('href')).toBe(false);
+    expect(copy.querySelector('p')!.hasAttribute('style')).toBe(false);
+    expect(copy.textContent).toContain('still text');
+    expect((window as unknown as { ran?: boolean }).ran).toBeUndefined();
   });
 });

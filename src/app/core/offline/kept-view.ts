@@ -38,8 +38,6 @@ export interface KeptView {
   farmId: number;
   /** When the copy was drawn (ISO); the script shows it only on the same day at the farm. */
   at: string;
-  /** The theme class on `<html>` then ("dark-theme" or "light-theme"), or "". */
-  theme: string;
   css: string[];
   html: string;
 }
@@ -47,17 +45,19 @@ export interface KeptView {
 /**
  * Keeps the markup inside `root` (the app's `<app-root>`) and the page's `<style>` elements as the
  * run sheet kept for `me`. A field's typed value is a property, not markup: it is written into the
- * copy as its `value` attribute. A style attribute travels as `data-kept-style`, a `<style>` element
- * as `<furlong-kept-style>`. Loading bars are
- * left out (the copy is not loading). Returns false when nothing was kept (too large, or the
- * browser refused the storage); an older copy is then dropped, so a stale day never shows.
+ * copy as its `value` attribute (a text box's, as its text). A style attribute travels as
+ * `data-kept-style`, a `<style>` element as `<furlong-kept-style>`. Loading bars are left out (the
+ * copy is not loading). Returns false when nothing was kept (too large, or the browser refused the
+ * storage); an older copy is then dropped, so a stale day never shows.
  */
 export function keepView(me: Me, root: Element, doc: Document = root.ownerDocument, now = new Date()): boolean {
   const copy = root.cloneNode(true) as Element;
   const typed = root.querySelectorAll('input, textarea');
   copy.querySelectorAll('input, textarea').forEach((field, i) => {
-    const value = (typed[i] as HTMLInputElement | undefined)?.value;
-    if (value !== undefined) field.setAttribute('value', value);
+    const value = (typed[i] as HTMLInputElement | HTMLTextAreaElement | undefined)?.value;
+    if (value === undefined) return;
+    if (field.tagName === 'TEXTAREA') field.textContent = value;
+    else field.setAttribute('value', value);
   });
   copy.querySelectorAll('mat-progress-bar').forEach((bar) => bar.remove());
   // The page's policy refuses style attributes in markup (the app sets them through the DOM):
@@ -73,13 +73,11 @@ export function keepView(me: Me, root: Element, doc: Document = root.ownerDocume
     stand.textContent = style.textContent;
     style.replaceWith(stand);
   });
-  const classes = doc.documentElement.classList;
   const view: KeptView = {
     v: 1,
     userId: me.user.id,
     farmId: me.farm.id,
     at: now.toISOString(),
-    theme: classes.contains('dark-theme') ? 'dark-theme' : classes.contains('light-theme') ? 'light-theme' : '',
     css: [...doc.head.querySelectorAll('style')].map((style) => style.textContent ?? ''),
     html: copy.innerHTML,
   };
