@@ -442,14 +442,14 @@ describe('RunSheetPage, kept as drawn for a start with no connection', () => {
   let appRoot: HTMLElement;
 
   /** The page inside an <app-root> (what is kept is the app's whole drawing), with the copy the phone showed before the app started. */
-  function setUpInApp(date: string | undefined) {
+  function setUpInApp(date: string | undefined, fresh = true) {
     appRoot = document.createElement('app-root');
     document.body.append(appRoot);
     const copy = document.createElement('div');
     copy.id = KEPT_VIEW_ID;
     document.body.insertBefore(copy, appRoot);
     document.documentElement.classList.add(KEPT_VIEW_OPEN_CLASS);
-    const set = setUp(TOMAS_ME);
+    const set = setUp(TOMAS_ME, fresh);
     appRoot.append(set.el);
     set.fixture.componentRef.setInput('date', date);
     return set;
@@ -491,5 +491,50 @@ describe('RunSheetPage, kept as drawn for a start with no connection', () => {
     await new Promise((r) => setTimeout(r, KEEP_VIEW_AFTER_MS + 500));
     expect(localStorage.getItem(KEPT_VIEW_KEY)).toBeNull();
     http.verify();
+  });
+
+  it('when the day shown is the one the phone kept (no connection), then the copy gives way to it and nothing is kept as drawn', async () => {
+    freshDeviceStorage();
+    const box = await Outbox.open();
+    await box.keepSheet('2:1:/api/run-sheet', {
+      date: '2031-05-15',
+      today: '2031-05-15',
+      opened: 'today',
+      person: TOMAS,
+      assignments: [north],
+    });
+    box.close();
+    const { fixture, http, el } = setUpInApp(undefined, false);
+    setOnline(false);
+    TestBed.tick();
+    http.expectOne('/api/run-sheet').error(new ProgressEvent('error'), { status: 0, statusText: '' });
+    await until(
+      () => el.querySelector('[data-as-of]') !== null,
+      'the kept sheet',
+      () => fixture.detectChanges(),
+    );
+    expect(document.getElementById(KEPT_VIEW_ID)).toBeNull();
+    await new Promise((r) => setTimeout(r, KEEP_VIEW_AFTER_MS + 500));
+    expect(localStorage.getItem(KEPT_VIEW_KEY)).toBeNull();
+  });
+
+  it('when the day cannot be read and the phone kept none, then the copy gives way to the error', async () => {
+    const { fixture, http, el } = setUpInApp(undefined);
+    setOnline(false);
+    TestBed.tick();
+    http.expectOne('/api/run-sheet').error(new ProgressEvent('error'), { status: 0, statusText: '' });
+    await until(
+      () => el.querySelector('.load-error') !== null,
+      'the error',
+      () => fixture.detectChanges(),
+    );
+    // Once the phone was asked for its copy of the day (it has none): the error is what there is to show.
+    await until(
+      () => document.getElementById(KEPT_VIEW_ID) === null,
+      'the copy to give way',
+      () => fixture.detectChanges(),
+    );
+    expect(document.documentElement.classList.contains(KEPT_VIEW_OPEN_CLASS)).toBe(false);
+    expect(el.querySelector('.load-error')).not.toBeNull();
   });
 });

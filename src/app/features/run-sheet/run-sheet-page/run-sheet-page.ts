@@ -26,6 +26,7 @@ import { Router } from '@angular/router';
 import { daySpan, farmTime } from '@shared/farm-time';
 import { OPERATION_INFO } from '@shared/operations';
 import { STATE_LABELS } from '@shared/schemas/terms';
+import type { Me } from '@shared/schemas/auth';
 import type { RunSheet, RunSheetItem } from '@shared/schemas/run-sheet';
 import type { CrewMember } from '@shared/schemas/fleet';
 import { messageOf } from '../../../core/http/api-error';
@@ -42,7 +43,7 @@ const SHORT = new Intl.DateTimeFormat('en-US', { weekday: 'long', month: 'long',
 /** "Thursday, April 16": a day of the coming weeks, said the way a person says it. */
 export const shortDay = (day: string): string => SHORT.format(dateOf(day));
 
-/** How long the page must go unchanged before what it shows is kept as drawn (core/offline/kept-view). */
+/** How long after the server's day is drawn the page is kept as drawn (core/offline/kept-view). */
 export const KEEP_VIEW_AFTER_MS = 1000;
 
 const OPEN_FIRST: RunSheetItem['state'][] = ['underway', 'paused', 'planned'];
@@ -243,19 +244,18 @@ export class RunSheetPage {
         untracked(() => this.readAgain.update((n) => n + 1));
       }
     });
-    this.keepAsDrawn();
+    this.closeCopyWhenShown();
+    this.keepWhenDrawn();
     // The connection is back: the day may have changed meanwhile.
     const online = () => this.readAgain.update((n) => n + 1);
     window.addEventListener('online', online);
     inject(DestroyRef).onDestroy(() => window.removeEventListener('online', online));
   }
   /**
-   * The run sheet as drawn, for the next start with no connection (core/offline/kept-view): the
-   * person's own day from the server, kept once the page has gone `KEEP_VIEW_AFTER_MS` unchanged.
-   * The copy the phone showed before the app started goes once this page shows its own day (or
-   * says it has none).
+   * The copy the phone showed before the app started (core/offline/kept-view) goes in the render
+   * where this page shows its day, or says it cannot (once the device was asked for its copy).
    */
-  private keepAsDrawn(): void {
+  private closeCopyWhenShown(): void {
     const doc = inject(DOCUMENT);
     const injector = inject(Injector);
     let closed = false;
@@ -266,22 +266,43 @@ export class RunSheetPage {
         afterNextRender(() => closeKeptView(doc), { injector });
       }
     });
+  }
+
+  /**
+   * Keeps the page as drawn for the next start with no connection (core/offline/kept-view): each
+   * time the person's own day comes from the server, `KEEP_VIEW_AFTER_MS` after it is drawn (what
+   * loads after the page, such as a map, has come in by then). Only then: a map moved, a panel
+   * opened or a track recording do not copy the page again.
+   */
+  private keepWhenDrawn(): void {
+    const doc = inject(DOCUMENT);
+    const injector = inject(Injector);
     const root = doc.querySelector('app-root');
-    if (!root || typeof MutationObserver === 'undefined') return;
+    if (!root) return;
     let timer: ReturnType<typeof setTimeout> | undefined;
-    const keep = () => {
+    inject(DestroyRef).onDestroy(() => clearTimeout(timer));
+    /** The person, when the page shows their own day as the server gave it (not the device's copy, not loading). */
+    const keeping = (): Me | null => {
       const me = this.auth.me();
       const own = this.asked() === null && this.personId() === null;
-      if (me && own && this.shown() !== null && this.asOf() === null && !this.sheet.isLoading()) keepView(me, root, doc);
+      const fromServer = this.sheet.hasValue() && !this.sheet.isLoading() && this.shown() === this.sheet.value() && this.asOf() === null;
+      return me && own && fromServer ? me : null;
     };
-    const changes = new MutationObserver(() => {
-      clearTimeout(timer);
-      timer = setTimeout(keep, KEEP_VIEW_AFTER_MS);
-    });
-    changes.observe(root, { subtree: true, childList: true, characterData: true, attributes: true });
-    inject(DestroyRef).onDestroy(() => {
-      changes.disconnect();
-      clearTimeout(timer);
+    effect(() => {
+      if (!keeping()) return;
+      untracked(() =>
+        afterNextRender(
+          () => {
+            clearTimeout(timer);
+            // Asked again when the time comes: the person may have opened another day meanwhile.
+            timer = setTimeout(() => {
+              const me = untracked(keeping);
+              if (me) keepView(me, root, doc);
+            }, KEEP_VIEW_AFTER_MS);
+          },
+          { injector },
+        ),
+      );
     });
   }
 
