@@ -124,6 +124,17 @@ describe('AuthStore with no signal', () => {
     expect(localStorage.getItem(KEPT_VIEW_KEY)).toBeNull();
   });
 
+  it('when the same person is signed in again the run sheet kept as drawn stays; when someone else is, it goes', () => {
+    const store = TestBed.inject(AuthStore);
+    store.signedInAs(OPERATOR);
+    localStorage.setItem(KEPT_VIEW_KEY, '{"v":1}');
+    store.signedInAs({ ...OPERATOR });
+    expect(localStorage.getItem(KEPT_VIEW_KEY)).toBe('{"v":1}');
+    // Accepting an invitation or resetting a password signs in without signing out first.
+    store.signedInAs({ ...OPERATOR, user: { ...OPERATOR.user, id: OPERATOR.user.id + 1 } });
+    expect(localStorage.getItem(KEPT_VIEW_KEY)).toBeNull();
+  });
+
   it('when the server answers but its database does not (503), then the device copy is not used: the server is there to ask again', async () => {
     const store = TestBed.inject(AuthStore);
     store.signedInAs(OPERATOR);

@@ -131,18 +131,17 @@ export class AuthStore {
   }
 
   /**
-   * Sets who is signed in and keeps it on this device (or forgets it, with the run sheet the phone
-   * kept as drawn for them: core/offline/kept-view).
+   * Sets who is signed in and keeps it on this device (or forgets it). The run sheet the phone kept
+   * as drawn (core/offline/kept-view) goes too when nobody, or someone else, is signed in now.
    */
   private set(me: Me | null): void {
     this.current.set(me);
     this.fromDevice.set(false);
     try {
+      const before = remembered();
+      if (!me || before?.user.id !== me.user.id || before?.farm.id !== me.farm.id) localStorage.removeItem(KEPT_VIEW_KEY);
       if (me) localStorage.setItem(SIGNED_IN_KEY, JSON.stringify(me));
-      else {
-        localStorage.removeItem(SIGNED_IN_KEY);
-        localStorage.removeItem(KEPT_VIEW_KEY);
-      }
+      else localStorage.removeItem(SIGNED_IN_KEY);
     } catch {
       // Storage refused (private mode, full): the app still works online.
     }
