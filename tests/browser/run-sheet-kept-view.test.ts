@@ -12,10 +12,10 @@ const PHONE = { width: 390, height: 844 };
 
 /**
  * Runs in the page before its own scripts: notes what the copy showed when it came, whether the app
- * had drawn its own run sheet by then, and when the copy went.
+ * had drawn its own run sheet by then, and when the copy went (and whether the app's was drawn then).
  */
 const RECORD_COPY = `(() => {
-  window.__copy = { seen: null, goneAt: null };
+  window.__copy = { seen: null, goneAt: null, appDrawnWhenGone: null };
   new MutationObserver(() => {
     const box = document.getElementById('furlong-kept-view');
     if (box && !window.__copy.seen) {
@@ -28,13 +28,17 @@ const RECORD_COPY = `(() => {
         appDrawn: document.querySelector('app-root h1') !== null,
       };
     }
-    if (!box && window.__copy.seen && window.__copy.goneAt === null) window.__copy.goneAt = performance.now();
+    if (!box && window.__copy.seen && window.__copy.goneAt === null) {
+      window.__copy.goneAt = performance.now();
+      window.__copy.appDrawnWhenGone = document.querySelector('app-root h1') !== null;
+    }
   }).observe(document, { subtree: true, childList: true });
 })();`;
 
 interface CopyRecord {
   seen: { at: number; note: string | null; inert: boolean; text: string; appDrawn: boolean } | null;
   goneAt: number | null;
+  appDrawnWhenGone: boolean | null;
 }
 
 /** Whether the page now holds the copy or anything it added (its styles, the class on <html>). */
@@ -113,8 +117,11 @@ describe('The run sheet kept as drawn, in a real browser', () => {
     expect(record.seen!.text).toContain('Run sheet');
     expect(record.seen!.inert).toBe(true);
     expect(record.seen!.note).toMatch(/^Opening: the run sheet kept on this phone, as of \d\d:\d\d\.$/);
-    // Then it went, and took its styles and the class hiding the app with it.
+    // Then it went because the app had drawn its run sheet (not the script's own 15 s fallback), and
+    // took its styles and the class hiding the app with it.
     expect(record.goneAt).not.toBeNull();
+    expect(record.appDrawnWhenGone).toBe(true);
+    expect(record.goneAt! - record.seen!.at).toBeLessThan(15_000);
     expect(await copyLeftovers(again)).toEqual({ box: false, styles: 0, hidden: false });
     // The copy's styles carried this page's nonce; its style attributes were set through the DOM.
     expect(blocked).toEqual([]);
