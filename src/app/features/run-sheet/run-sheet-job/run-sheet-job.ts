@@ -166,7 +166,7 @@ export class RunSheetJob {
         id: e.id,
         time: farmTime(e.at, this.auth.farm()?.timeZone),
         text: eventText(e, (acres) => this.units.area(acres)),
-        unsent: 'unsent' in e && e.unsent === true,
+        unsent: e.unsent === true,
       })),
   );
 
