@@ -11,7 +11,8 @@
 // driver's locators check the page only afterwards, so their work on the page's main thread is not
 // in the time. The browser's own start, and the same span seen from this script (which adds the
 // driver's round trips to a browser that has just started), are printed beside.
-// Target: the median open (the day on screen) < 1 s. Exits 1 when the target is missed.
+// Target: the median open (the day on screen) < 1 s, with the kept copy first in every round.
+// Exits 1 when the target is missed.
 // Needs a production build of the app: dist/furlong/browser (`npm start` or `ng build`), or
 // FURLONG_STATIC_DIR. The database is furlong_bench_shell on the test cluster, made fresh each run;
 // BENCH_DATABASE_URL names another (migrated; a bench farm is added beside what is there).
@@ -279,15 +280,17 @@ async function main(): Promise<void> {
     }
 
     const open = median(opens);
+    // The target is for the kept copy on screen: a round where it did not come first is a miss.
+    const met = open < TARGET_MS && copyShown === ROUNDS;
     const rows = [
       {
-        bench: `run sheet opened offline after a cold browser start, page clock (median of ${ROUNDS})`,
+        bench: `run sheet on screen offline after a cold browser start (the copy kept as drawn, read-only), page clock (median of ${ROUNDS})`,
         target: `< ${TARGET_MS} ms`,
         measured: `${ms(open)} (fastest ${ms(Math.min(...opens))}, slowest ${ms(Math.max(...opens))})`,
-        result: open < TARGET_MS ? 'PASS' : 'FAIL',
+        result: met ? 'PASS' : 'FAIL',
       },
       {
-        bench: `of which: the copy kept as drawn shown first (rounds) / the app's own run sheet, working (page clock)`,
+        bench: `rounds where the copy came first (all must) / then the app's own run sheet, working (page clock)`,
         target: '—',
         measured: `${copyShown} of ${ROUNDS} / ${ms(median(working))} median`,
         result: '',
@@ -299,7 +302,7 @@ async function main(): Promise<void> {
         result: '',
       },
       {
-        bench: 'of which (page clock): the page from the worker / the run sheet heading on screen',
+        bench: "of which (page clock): the page from the worker / a run sheet heading on screen (the copy's or the app's)",
         target: '—',
         measured: `${ms(median(pages))} / ${ms(median(headings))} median`,
         result: '',
@@ -331,7 +334,7 @@ async function main(): Promise<void> {
     );
     console.log('\nTargets');
     console.table(rows);
-    process.exitCode = open < TARGET_MS ? 0 : 1;
+    process.exitCode = met ? 0 : 1;
   } finally {
     if (server) {
       server.closeAllConnections();
